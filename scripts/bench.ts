@@ -1,0 +1,48 @@
+// `npm run bench`: runs every benchmark in tests/bench/*.bench.ts on a throwaway PostgreSQL cluster,
+// prints a table and writes bench-results.json.
+import { mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { startCluster, ensureDatabase, removeFolder } from './lib/postgres';
+import { migrateDatabase } from '../server/db/migrate';
+import { freePort } from '../tests/setup/global-setup';
+import type { Benchmark } from '../tests/bench/harness';
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const benchDir = path.join(here, '..', 'tests', 'bench');
+const only = process.argv.slice(2);
+
+const root = mkdtempSync(path.join(os.tmpdir(), 'lightkeel-bench-pg-'));
+const cluster = await startCluster({ root, port: await freePort(), throwaway: true });
+const results: Array<{ id: string; ratio: number | null; goal: number; better: string; detail: string; met: boolean }> = [];
+try {
+  const adminUrl = cluster.url('postgres');
+  await ensureDatabase(adminUrl, 'lightkeel_template');
+  await migrateDatabase(cluster.url('lightkeel_template'));
+  const files = readdirSync(benchDir).filter((f) => f.endsWith('.bench.ts')).sort();
+  for (const file of files) {
+    const mod = (await import(pathToFileURL(path.join(benchDir, file)).href)) as { benchmarks: Benchmark[] };
+    for (const b of mod.benchmarks) {
+      if (only.length && !only.some((o) => b.id.startsWith(o))) continue;
+      process.stdout.write(`▶ ${b.id} …\n`);
+      try {
+        const r = await b.run({ pgAdminUrl: adminUrl, pgTemplate: 'lightkeel_template', log: (m) => process.stdout.write(`  ${m}\n`) });
+        const met = b.better === 'lower' ? r.ratio <= b.goal : r.ratio >= b.goal;
+        results.push({ id: b.id, ratio: Number(r.ratio.toFixed(3)), goal: b.goal, better: b.better, detail: r.detail, met });
+      } catch (err) {
+        results.push({ id: b.id, ratio: null, goal: b.goal, better: b.better, detail: `failed: ${(err as Error).message}`, met: false });
+      }
+    }
+  }
+} finally {
+  cluster.stop();
+  removeFolder(root);
+}
+writeFileSync('bench-results.json', JSON.stringify(results, null, 2) + '\n');
+console.log('\n' + ['id'.padEnd(22), 'ratio'.padStart(8), 'goal'.padStart(10), 'met'.padStart(5), '  detail'].join(''));
+for (const r of results) {
+  const goal = `${r.better === 'lower' ? '≤' : '≥'}${r.goal}`;
+  console.log([r.id.padEnd(22), String(r.ratio ?? '—').padStart(8), goal.padStart(10), (r.met ? 'yes' : 'no').padStart(5), '  ' + r.detail].join(''));
+}
+console.log('\nwritten: bench-results.json');

@@ -1,0 +1,36 @@
+// The benchmark contract: every tests/bench/*.bench.ts exports `benchmarks`, each measuring our path
+// against a bare baseline in the same run and returning the ratio.
+export type BenchContext = {
+  /** postgres://… of a throwaway cluster's admin database; create your own databases in it. */
+  pgAdminUrl: string;
+  /** A migrated template database name to clone (`create database x template <name>`). */
+  pgTemplate: string;
+  log: (message: string) => void;
+};
+
+export type BenchResult = { ratio: number; detail: string };
+
+export type Benchmark = {
+  id: string;
+  goal: number;
+  better: 'lower' | 'higher';
+  run: (ctx: BenchContext) => Promise<BenchResult>;
+};
+
+export function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+}
+
+/** Times fn `repeats` times (after one warm-up) and returns the median in milliseconds. */
+export async function timeMedianMs(fn: () => unknown | Promise<unknown>, repeats = 5): Promise<number> {
+  await fn();
+  const times: number[] = [];
+  for (let i = 0; i < repeats; i++) {
+    const t0 = performance.now();
+    await fn();
+    times.push(performance.now() - t0);
+  }
+  return median(times);
+}
