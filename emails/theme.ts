@@ -1,0 +1,12 @@
+// Brand colours shared with tailwind.config.ts (night blue, sail-foil silver, sunlight amber).
+export const emailTheme = {
+  night: '#0b1431',
+  nightSoft: '#1c2a55',
+  silver: '#d9dee6',
+  silverDeep: '#8a94a6',
+  amber: '#f5a21b',
+  ink: '#1a2033',
+  paper: '#ffffff',
+  page: '#eef1f5',
+  fontFamily: "'Nunito Sans', 'Segoe UI', Helvetica, Arial, sans-serif",
+} as const;

@@ -1,0 +1,148 @@
+// The fake's whole state as one JSON document, written atomically (temp file + rename) after each change.
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+
+/** A processor API object as it goes over the wire (JSON). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type ApiObject = { id: string; object: string; created: number; [field: string]: any };
+
+export const collectionNames = [
+  'customer',
+  'product',
+  'price',
+  'checkout_session',
+  'payment_intent',
+  'charge',
+  'refund',
+  'dispute',
+  'subscription',
+  'invoice',
+  'balance_transaction',
+  'payout',
+  'payment_method',
+  'billing_portal_session',
+  'event',
+] as const;
+export type CollectionName = (typeof collectionNames)[number];
+
+export interface Delivery {
+  eventId: string;
+  /** Deliveries of one object go out in creation order: the next waits until this one is settled. */
+  objectKey: string;
+  status: 'pending' | 'delivered' | 'failed' | 'dropped';
+  attempts: number;
+  nextAttemptAtMs: number;
+  lastStatusCode: number | null;
+  lastError: string | null;
+}
+
+export interface IdempotencyRecord {
+  method: string;
+  path: string;
+  paramsHash: string;
+  status: number;
+  body: string;
+  createdMs: number;
+}
+
+/** Per-object facts the processor keeps but does not show in the object itself. */
+export interface Internal {
+  cardBehaviour?: string;
+  /** checkout session: what to copy onto the objects created when it completes */
+  sessionLineItems?: ApiObject[];
+  subscriptionMetadata?: Record<string, string>;
+  paymentIntentMetadata?: Record<string, string>;
+  paymentIntentDescription?: string;
+  /** customer: every renewal charge is declined with this code while set */
+  failRenewals?: string;
+  /** balance transaction: the payout that paid it out */
+  payout?: string;
+}
+
+export interface State {
+  version: 1;
+  clockOffsetSeconds: number;
+  lastPayoutRunAt: number | null;
+  collections: Record<CollectionName, ApiObject[]>;
+  internal: Record<string, Internal>;
+  idempotency: Record<string, IdempotencyRecord>;
+  deliveries: Delivery[];
+}
+
+export function emptyState(): State {
+  const collections = {} as Record<CollectionName, ApiObject[]>;
+  for (const name of collectionNames) collections[name] = [];
+  return { version: 1, clockOffsetSeconds: 0, lastPayoutRunAt: null, collections, internal: {}, idempotency: {}, deliveries: [] };
+}
+
+const alphabet = 'abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789';
+export function newId(prefix: string, length = 24): string {
+  const bytes = randomBytes(length);
+  let out = '';
+  for (const b of bytes) out += alphabet[b % alphabet.length];
+  return `${prefix}_${out}`;
+}
+
+export class Store {
+  state: State;
+  private index = new Map<string, ApiObject>();
+
+  constructor(private readonly statePath: string | undefined) {
+    this.state = emptyState();
+    if (statePath && existsSync(statePath)) {
+      const text = readFileSync(statePath, 'utf8');
+      let parsed: State;
+      try {
+        parsed = JSON.parse(text) as State;
+      } catch (err) {
+        throw new Error(`payments fake: state file ${statePath} is not valid JSON (${(err as Error).message})`);
+      }
+      if (parsed.version !== 1) throw new Error(`payments fake: state file ${statePath} has unknown version ${String(parsed.version)}`);
+      const base = emptyState();
+      this.state = { ...base, ...parsed, collections: { ...base.collections, ...parsed.collections } };
+    }
+    for (const name of collectionNames) for (const obj of this.state.collections[name]) this.index.set(obj.id, obj);
+  }
+
+  insert(name: CollectionName, obj: ApiObject): ApiObject {
+    this.state.collections[name].push(obj);
+    this.index.set(obj.id, obj);
+    return obj;
+  }
+
+  get(id: string): ApiObject | undefined {
+    return this.index.get(id);
+  }
+
+  getOf(name: CollectionName, id: string): ApiObject | undefined {
+    const obj = this.index.get(id);
+    return obj && this.state.collections[name].includes(obj) ? obj : undefined;
+  }
+
+  all(name: CollectionName): ApiObject[] {
+    return this.state.collections[name];
+  }
+
+  remove(name: CollectionName, id: string): void {
+    this.state.collections[name] = this.state.collections[name].filter((o) => o.id !== id);
+    this.index.delete(id);
+  }
+
+  internal(id: string): Internal {
+    return (this.state.internal[id] ??= {});
+  }
+
+  reset(): void {
+    this.state = emptyState();
+    this.index.clear();
+  }
+
+  save(): void {
+    if (!this.statePath) return;
+    mkdirSync(path.dirname(this.statePath), { recursive: true });
+    const tmp = `${this.statePath}.${process.pid}.tmp`;
+    writeFileSync(tmp, JSON.stringify(this.state));
+    renameSync(tmp, this.statePath);
+  }
+}

@@ -1,0 +1,106 @@
+import express, { type Express } from 'express';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import pino, { type Logger } from 'pino';
+import { csrfSync } from 'csrf-sync';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type pg from 'pg';
+import type { Db } from './db/client';
+import type { Config } from './config';
+import type { Mailer } from './lib/mailer';
+import { mount } from './lib/routes';
+import { errorHandler, notFoundApi } from './middleware/error-handler';
+import { createAuthService } from './modules/auth/auth.service';
+import { createPassport } from './modules/auth/passport';
+import { createAuthRouter } from './modules/auth/auth.routes';
+import { createAccountRouter, createAdminRouter } from './modules/accounts/accounts.routes';
+import { createHealthRouter } from './modules/health/health.routes';
+
+export type AppDeps = {
+  db: Db;
+  pool: pg.Pool;
+  config: Config;
+  mailer: Mailer;
+  logger?: Logger;
+  /** Built client to serve (dist/); omitted in API tests. */
+  clientDir?: string;
+};
+
+// Paths whose POSTs are authenticated by a signature instead of a session (no CSRF token).
+const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook']);
+
+export function createApp(deps: AppDeps): Express {
+  const { db, pool, config, mailer } = deps;
+  const logger = deps.logger ?? pino({ level: config.LOG_LEVEL });
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.TRUST_PROXY) app.set('trust proxy', 1);
+
+  app.use(pinoHttp({ logger, autoLogging: config.LOG_LEVEL !== 'silent' }));
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'frame-src': ["'self'"],
+          'upgrade-insecure-requests': config.PUBLIC_URL.startsWith('https:') ? [] : null,
+        },
+      },
+      hsts: config.PUBLIC_URL.startsWith('https:'),
+    }),
+  );
+
+  const PgStore = connectPgSimple(session);
+  app.use(
+    session({
+      name: 'lk.sid',
+      secret: config.SESSION_SECRET,
+      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: config.NODE_ENV === 'test' ? false : 900 }),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      proxy: config.TRUST_PROXY,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: config.PUBLIC_URL.startsWith('https:') ? 'auto' : false,
+        maxAge: 30 * 24 * 3600 * 1000,
+      },
+    }),
+  );
+
+  const auth = createAuthService({ db, config, mailer });
+  const pp = createPassport({ config, auth });
+  app.use(pp.initialize());
+  app.use(pp.session());
+
+  // Raw body routes (signed webhooks) go here, before the JSON parser.
+  app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
+
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
+  });
+  app.use('/api', (req, res, next) => (CSRF_EXEMPT.has(req.originalUrl.split('?')[0]!) ? next() : csrfSynchronisedProtection(req, res, next)));
+
+  mount(app, '/api/health', createHealthRouter({ db }));
+  mount(app, '/api/auth', createAuthRouter({ auth, pp, config, generateCsrfToken: generateToken }));
+  mount(app, '/api/account', createAccountRouter({ db }));
+  mount(app, '/api/admin', createAdminRouter({ db }));
+
+  app.use('/api', notFoundApi);
+
+  const clientDir = deps.clientDir;
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/*rest', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+
+  app.use(errorHandler);
+  return app;
+}
+
+export const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));

@@ -1,0 +1,43 @@
+import { z } from 'zod';
+
+// The environment, parsed once. Defaults are the local loopback set-up that `npm start` brings up.
+const configSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  PUBLIC_URL: z.url().default('http://127.0.0.1:3000'),
+  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL').default('postgres://postgres@127.0.0.1:54329/lightkeel'),
+  DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(20),
+  SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').default('lightkeel-local-session-secret-change-me'),
+  TRUST_PROXY: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  JSON_BODY_LIMIT: z.string().default('100kb'),
+  UPLOAD_LIMIT_BYTES: z.coerce.number().int().min(1024).default(20 * 1024 * 1024),
+  SIGN_IN_LIMIT_PER_IP: z.coerce.number().int().min(1).default(30),
+  SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(8),
+  SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
+  MAIL_FROM: z.string().default('Lightkeel <mission@saltmarsh.example>'),
+  RESEND_API_KEY: z.string().min(1).default('re_lightkeel_local'),
+  RESEND_BASE_URL: z.url().default('http://127.0.0.1:4020'),
+  GOOGLE_CLIENT_ID: z.string().default('lightkeel-local-client'),
+  GOOGLE_CLIENT_SECRET: z.string().default('lightkeel-local-secret'),
+  // Base of the identity provider's /authorize, /token and /userinfo; empty = Google's own endpoints.
+  GOOGLE_OAUTH_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4010'),
+  STRIPE_SECRET_KEY: z.string().min(1).default('sk_test_lightkeel_local'),
+  STRIPE_WEBHOOK_SECRET: z.string().min(1).default('whsec_lightkeel_local'),
+  // host:port of the payment API; empty = the processor's own API.
+  STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
+});
+
+export type Config = z.infer<typeof configSchema>;
+
+export class ConfigError extends Error {}
+
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const result = configSchema.safeParse(env);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  return result.data;
+}

@@ -1,0 +1,25 @@
+import { sql } from 'drizzle-orm';
+import type { Db } from '../db/client';
+import type { Config } from '../config';
+import { accounts } from '../modules/accounts/accounts.tables';
+import { seedDemoAccounts } from './accounts';
+
+export type SeedContext = { db: Db; config: Config; log: (message: string) => void; accountIds: Record<string, string> };
+export type Seeder = { name: string; run: (ctx: SeedContext) => Promise<void> };
+
+// Each feature adds its own seeder here; they run in order on an empty database.
+export const seeders: Seeder[] = [];
+
+export async function isDatabaseEmpty(db: Db) {
+  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(accounts);
+  return (row?.n ?? 0) === 0;
+}
+
+export async function seedDemo({ db, config, log }: { db: Db; config: Config; log: (m: string) => void }) {
+  log('seeding the demo scenario: the Saltmarsh Orbital Society and Tern-1');
+  const accountIds = await seedDemoAccounts(db);
+  for (const s of seeders) {
+    log(`seeding ${s.name} …`);
+    await s.run({ db, config, log, accountIds });
+  }
+}

@@ -1,0 +1,36 @@
+// Alpha-5 catalog numbers: above 99999 the first character is a letter (I and O skipped) standing for 10…33.
+const ALPHA5_LETTERS = 'ABCDEFGHJKLMNPQRSTUVWXYZ';
+
+/** Parses a 5-character catalog field (digits, leading spaces allowed, or alpha-5). NaN when invalid. */
+export function parseCatalogNumber(field: string): number {
+  const s = field.trim();
+  if (s.length === 0 || s.length > 5) return NaN;
+  let value = 0;
+  let start = 0;
+  const first = s.charCodeAt(0);
+  if (first >= 65 && first <= 90) {
+    if (s.length !== 5) return NaN;
+    const idx = ALPHA5_LETTERS.indexOf(s[0]!);
+    if (idx < 0) return NaN;
+    value = idx + 10;
+    start = 1;
+  }
+  for (let i = start; i < s.length; i++) {
+    const c = s.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return NaN;
+    value = value * 10 + c;
+  }
+  return value;
+}
+
+/** Largest number alpha-5 can write: Z9999. */
+export const MAX_CATALOG_NUMBER = 339_999;
+
+/** Writes a catalog number as the 5-character TLE field ("00005", "A0001"). */
+export function formatCatalogNumber(value: number): string {
+  const n = Math.trunc(value);
+  if (!(n >= 0 && n <= MAX_CATALOG_NUMBER)) throw new RangeError(`catalog number ${value} outside 0…${MAX_CATALOG_NUMBER}`);
+  if (n <= 99_999) return String(n).padStart(5, '0');
+  const lead = Math.floor(n / 10_000);
+  return ALPHA5_LETTERS[lead - 10]! + String(n % 10_000).padStart(4, '0');
+}

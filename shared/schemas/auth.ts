@@ -1,0 +1,45 @@
+import { z } from 'zod';
+
+export const roles = ['backer', 'outreach', 'engineer', 'finance', 'admin'] as const;
+export const roleSchema = z.enum(roles);
+export type Role = z.infer<typeof roleSchema>;
+
+const email = z.email({ message: 'Enter a valid e-mail address' }).max(254).transform((v) => v.trim());
+const password = z
+  .string()
+  .min(10, { message: 'Use at least 10 characters' })
+  .max(200, { message: 'Use at most 200 characters' });
+
+export const signUpSchema = z.object({
+  email,
+  password,
+  displayName: z.string().trim().min(1, { message: 'Tell us what to call you' }).max(80),
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email,
+  password: z.string().min(1, { message: 'Enter your password' }).max(200),
+});
+export type SignInInput = z.infer<typeof signInSchema>;
+
+export const requestPasswordResetSchema = z.object({ email });
+export const resetPasswordSchema = z.object({ token: z.string().min(16).max(200), password });
+export const verifyEmailSchema = z.object({ token: z.string().min(16).max(200) });
+
+export const grantRoleSchema = z.object({ role: roleSchema });
+
+export const accountViewSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  displayName: z.string(),
+  roles: z.array(roleSchema),
+  emailVerified: z.boolean(),
+  createdAt: z.string(),
+});
+export type AccountView = z.infer<typeof accountViewSchema>;
+
+/** The JSON body of every API error. */
+export type ApiErrorBody = {
+  error: { code: string; message: string; details?: { path: string; message: string }[]; errorId?: string };
+};

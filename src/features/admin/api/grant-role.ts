@@ -1,0 +1,22 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { AccountView, Role } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
+import { adminKeys } from './keys';
+
+export function grantRole({ accountId, role }: { accountId: string; role: Role }): Promise<{ account: AccountView }> {
+  return api.post<{ account: AccountView }>(`/api/admin/accounts/${encodeURIComponent(accountId)}/roles`, { role });
+}
+
+export function useGrantRole({ onSuccess }: { onSuccess?: (account: AccountView) => void } = {}) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: grantRole,
+    onSuccess: async ({ account }) => {
+      await Promise.all([
+        queryClient.invalidateQueries({ queryKey: adminKeys.accounts() }),
+        queryClient.invalidateQueries({ queryKey: adminKeys.audit() }),
+      ]);
+      onSuccess?.(account);
+    },
+  });
+}

@@ -1,0 +1,32 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { AccountView } from '@shared/schemas/auth';
+import { api, isApiError } from '@/lib/api-client';
+
+export const authKeys = {
+  all: ['auth'] as const,
+  me: () => [...authKeys.all, 'me'] as const,
+  providers: () => [...authKeys.all, 'providers'] as const,
+};
+
+/** The signed-in account, or null when nobody is signed in (401 is an answer here, not an error). */
+export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<AccountView | null> {
+  try {
+    const { account } = await api.get<{ account: AccountView }>('/api/auth/me', { signal });
+    return account;
+  } catch (error) {
+    if (isApiError(error) && error.status === 401) return null;
+    throw error;
+  }
+}
+
+export function getMeQueryOptions() {
+  return queryOptions({
+    queryKey: authKeys.me(),
+    queryFn: ({ signal }) => getMe({ signal }),
+    staleTime: 60_000,
+  });
+}
+
+export function useMe() {
+  return useQuery(getMeQueryOptions());
+}

@@ -1,0 +1,56 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { signInSchema, type AccountView } from '@shared/schemas/auth';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/text-field';
+import { applyApiError } from '@/lib/form-errors';
+import { useSignIn } from '../api/sign-in';
+
+type Values = z.input<typeof signInSchema>;
+
+export function SignInForm({ onSignedIn }: { onSignedIn: (account: AccountView) => void }) {
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<Values, unknown, z.output<typeof signInSchema>>({
+    resolver: zodResolver(signInSchema),
+    defaultValues: { email: '', password: '' },
+  });
+  const signIn = useSignIn({ onSuccess: onSignedIn });
+  const { errors } = form.formState;
+
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await signIn.mutateAsync(values);
+    } catch (error) {
+      setFormError(applyApiError(error, form.setError, { fields: ['email', 'password'] }));
+      form.resetField('password', { keepError: true });
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Sign in with e-mail">
+      {formError && <Alert title="Could not sign in">{formError}</Alert>}
+      <TextField
+        label="E-mail"
+        type="email"
+        autoComplete="email"
+        inputMode="email"
+        error={errors.email?.message}
+        {...form.register('email')}
+      />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...form.register('password')}
+      />
+      <Button type="submit" size="lg" className="w-full" loading={signIn.isPending}>
+        Sign in
+      </Button>
+    </form>
+  );
+}

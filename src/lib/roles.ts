@@ -1,0 +1,15 @@
+import type { Role } from '@shared/schemas/auth';
+
+export const roleLabels: Record<Role, string> = {
+  backer: 'Backer',
+  outreach: 'Outreach',
+  engineer: 'Engineer',
+  finance: 'Finance',
+  admin: 'Admin',
+};
+
+export const staffRoles: readonly Role[] = ['outreach', 'engineer', 'finance', 'admin'];
+
+export function hasAnyRole(held: readonly Role[] | undefined, wanted: readonly Role[]): boolean {
+  return !!held && wanted.some((role) => held.includes(role));
+}
