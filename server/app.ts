@@ -9,6 +9,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
+import type Stripe from 'stripe';
 import type { Db } from './db/client';
 import type { Config } from './config';
 import type { Mailer } from './lib/mailer';
@@ -25,6 +26,7 @@ export type AppDeps = {
   pool: pg.Pool;
   config: Config;
   mailer: Mailer;
+  stripe: Stripe;
   logger?: Logger;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;

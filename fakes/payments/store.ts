@@ -4,7 +4,6 @@ import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from '
 import path from 'node:path';
 
 /** A processor API object as it goes over the wire (JSON). */
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type ApiObject = { id: string; object: string; created: number; [field: string]: any };
 
 export const collectionNames = [
@@ -54,6 +53,7 @@ export interface Internal {
   subscriptionMetadata?: Record<string, string>;
   paymentIntentMetadata?: Record<string, string>;
   paymentIntentDescription?: string;
+  paymentIntent?: string;
   /** customer: every renewal charge is declined with this code while set */
   failRenewals?: string;
   /** balance transaction: the payout that paid it out */

@@ -2,3 +2,4 @@
 export * from '../modules/accounts/accounts.tables';
 export * from '../modules/auth/auth.tables';
 export * from '../modules/audit/audit.tables';
+export * from '../modules/orbit/orbit.tables';

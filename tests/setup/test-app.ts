@@ -2,7 +2,7 @@ import request from 'supertest';
 import type { Express } from 'express';
 import { loadConfig, type Config } from '../../server/config';
 import { createApp } from '../../server/app';
-import { createMailerFromConfig } from '../../server/deps';
+import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
 import { createTestDatabase, type TestDatabase } from './test-db';
 import { createMailFake } from '../../fakes/mail/server';
 
@@ -29,7 +29,7 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
     SESSION_SECRET: 'test-session-secret-0123456789',
     ...env,
   });
-  const build = () => createApp({ db: database.db, pool: database.pool, config, mailer: createMailerFromConfig(config) });
+  const build = () => createApp({ db: database.db, pool: database.pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) });
   const app = build();
   return {
     app,
@@ -46,18 +46,14 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
 
 /** An agent with a CSRF token for its session; `token()` fetches a fresh one (after sign-in the session changes). */
 export function agentFor(app: Express) {
-  const agent = request.agent(app);
-  let csrf = '';
-  return Object.assign(agent, {
-    async token() {
-      const res = await agent.get('/api/auth/csrf').expect(200);
-      csrf = res.body.csrfToken;
-      return csrf;
-    },
-    get csrf() {
-      return csrf;
-    },
-  });
+  const agent = request.agent(app) as ReturnType<typeof request.agent> & { csrf: string; token: () => Promise<string> };
+  agent.csrf = '';
+  agent.token = async () => {
+    const res = await agent.get('/api/auth/csrf').expect(200);
+    agent.csrf = res.body.csrfToken;
+    return agent.csrf;
+  };
+  return agent;
 }
 export type Agent = ReturnType<typeof agentFor>;
 

@@ -1,0 +1,237 @@
+import { parseCatalogNumber } from './catalog-number';
+import { dayOfYearToMs, isLeapYear, msToIso, tleYearToFullYear } from './epoch';
+import { readAssumedDecimalExponent, readDecimal, readEccentricity, readUnsigned, tleChecksum } from './tle-fields';
+import type { Classification, ElementSet, ParseError } from './types';
+
+export type TleParseOptions = { verifyChecksum?: boolean };
+
+const TLE_LINE_LENGTH = 69;
+const LINE1_SPACES = [2, 18, 33, 44, 53];
+const LINE2_SPACES = [2, 8, 17, 26, 34, 43, 52];
+export const MAX_MEAN_MOTION_REV_PER_DAY = 20;
+
+function isTleLine(line: string, digit: number): boolean {
+  return line.charCodeAt(0) === digit && (line.length === 1 || line.charCodeAt(1) === 32);
+}
+
+function isBlank(line: string): boolean {
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if (c !== 32 && c !== 9 && c !== 13) return false;
+  }
+  return true;
+}
+
+function hasControlChars(line: string): boolean {
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if ((c < 32 && c !== 9) || c === 127 || c === 0xfffd) return true;
+  }
+  return false;
+}
+
+/** Strips the CR of CRLF and trailing blanks. */
+function clean(raw: string): string {
+  let end = raw.length;
+  while (end > 0) {
+    const c = raw.charCodeAt(end - 1);
+    if (c === 13 || c === 32 || c === 9) end--;
+    else break;
+  }
+  return end === raw.length ? raw : raw.slice(0, end);
+}
+
+type FieldErr = (columns: [number, number], field: string, message: string, expected: string) => void;
+
+function checkShape(line: string, lineNo: number, which: 1 | 2, spaces: number[], verifyChecksum: boolean, err: FieldErr): boolean {
+  if (line.length < TLE_LINE_LENGTH) {
+    err([1, line.length || 1], `line ${which}`, `line ${which} has ${line.length} characters`, `${TLE_LINE_LENGTH} characters`);
+    return false;
+  }
+  if (line.length > TLE_LINE_LENGTH) {
+    err([TLE_LINE_LENGTH + 1, line.length], `line ${which}`, `unexpected text after column ${TLE_LINE_LENGTH}`, `${TLE_LINE_LENGTH} characters`);
+    return false;
+  }
+  let ok = true;
+  for (const col of spaces) {
+    if (line.charCodeAt(col - 1) !== 32) {
+      err([col, col], 'separator', `column ${col} is "${line[col - 1]}", fields are shifted`, 'a space');
+      ok = false;
+    }
+  }
+  const stated = line.charCodeAt(68) - 48;
+  if (stated < 0 || stated > 9) {
+    err([69, 69], 'checksum', `checksum "${line[68]}" is not a digit`, 'a digit 0–9');
+    ok = false;
+  } else if (verifyChecksum) {
+    const computed = tleChecksum(line);
+    if (computed !== stated) {
+      err([69, 69], 'checksum', `checksum is ${stated} but columns 1–68 give ${computed}`, String(computed));
+      ok = false;
+    }
+  }
+  void lineNo;
+  return ok;
+}
+
+/**
+ * Parses one two-line set. `line1`/`line2` are without line endings; `line1No` is the 1-based line of line 1
+ * (line 2 is taken as the next line unless `line2No` is given).
+ */
+export function parseTlePair(
+  line1: string,
+  line2: string,
+  opts: { name?: string; line1No: number; line2No?: number; sourceLine?: number; verifyChecksum?: boolean },
+): { record: ElementSet | null; errors: ParseError[] } {
+  const l1 = clean(line1), l2 = clean(line2);
+  const line1No = opts.line1No, line2No = opts.line2No ?? opts.line1No + 1;
+  const verify = opts.verifyChecksum !== false;
+  const errors: ParseError[] = [];
+  let lineNo = line1No;
+  const err: FieldErr = (columns, field, message, expected) => errors.push({ line: lineNo, columns, field, message, expected });
+
+  const shape1 = checkShape(l1, line1No, 1, LINE1_SPACES, verify, err);
+  lineNo = line2No;
+  const shape2 = checkShape(l2, line2No, 2, LINE2_SPACES, verify, err);
+  if (!shape1 || !shape2) return { record: null, errors };
+
+  lineNo = line1No;
+  const catField1 = l1.slice(2, 7);
+  const catalogNumberInt = parseCatalogNumber(catField1);
+  if (!Number.isFinite(catalogNumberInt)) err([3, 7], 'catalog number', `"${catField1}" is not a catalog number`, 'five digits, or alpha-5 (letter + four digits)');
+  const cls = l1[7];
+  let classification: Classification = 'U';
+  if (cls === 'C' || cls === 'S' || cls === 'U') classification = cls;
+  else if (cls !== ' ') err([8, 8], 'classification', `classification "${cls}"`, 'U, C or S');
+  const designator = l1.slice(9, 17).trim();
+  for (let i = 0; i < designator.length; i++) {
+    const c = designator.charCodeAt(i);
+    if (!((c >= 48 && c <= 57) || (c >= 65 && c <= 90) || c === 32)) {
+      err([10, 17], 'international designator', `"${designator}" has invalid characters`, 'digits and capital letters');
+      break;
+    }
+  }
+  const yy = readUnsigned(l1, 18, 20, NaN);
+  const day = readDecimal(l1, 20, 32);
+  let epochMs = NaN;
+  if (!(yy >= 0 && yy <= 99) || l1.charCodeAt(18) === 32) err([19, 20], 'epoch year', `"${l1.slice(18, 20)}" is not a two-digit year`, 'two digits (57–99 → 19xx, 00–56 → 20xx)');
+  else {
+    const year = tleYearToFullYear(yy);
+    const maxDay = isLeapYear(year) ? 367 : 366;
+    if (!(day >= 1 && day < maxDay)) err([21, 32], 'epoch day', `"${l1.slice(20, 32).trim()}" is not a day of ${year}`, `1 ≤ day < ${maxDay}`);
+    else epochMs = dayOfYearToMs(year, day);
+  }
+  const ndot = readDecimal(l1, 33, 43);
+  if (!Number.isFinite(ndot)) err([34, 43], 'mean motion dot/2', `"${l1.slice(33, 43)}" is not a number`, 'a decimal such as " .00000023"');
+  const nddot = readAssumedDecimalExponent(l1, 44);
+  if (!Number.isFinite(nddot)) err([45, 52], 'mean motion ddot/6', `"${l1.slice(44, 52)}" is not an assumed-decimal exponent field`, 'sign, 5 digits, signed exponent, e.g. " 00000-0"');
+  const bstar = readAssumedDecimalExponent(l1, 53);
+  if (!Number.isFinite(bstar)) err([54, 61], 'B*', `"${l1.slice(53, 61)}" is not an assumed-decimal exponent field`, 'sign, 5 digits, signed exponent, e.g. " 28098-4"');
+  const eph = readUnsigned(l1, 62, 63, 0);
+  if (!Number.isFinite(eph)) err([63, 63], 'ephemeris type', `"${l1[62]}" is not a digit`, 'a digit or blank');
+  const elset = readUnsigned(l1, 64, 68, 0);
+  if (!Number.isFinite(elset)) err([65, 68], 'element set number', `"${l1.slice(64, 68)}" is not a number`, 'up to four digits');
+
+  lineNo = line2No;
+  const catField2 = l2.slice(2, 7);
+  const cat2 = parseCatalogNumber(catField2);
+  if (!Number.isFinite(cat2)) err([3, 7], 'catalog number', `"${catField2}" is not a catalog number`, 'five digits, or alpha-5');
+  else if (Number.isFinite(catalogNumberInt) && cat2 !== catalogNumberInt) err([3, 7], 'catalog number', `line 2 has catalog number "${catField2}" but line 1 has "${catField1}"`, `"${catField1}"`);
+  const angle = (s: number, e: number, field: string, max: number, maxIncl: boolean): number => {
+    const v = readDecimal(l2, s, e);
+    if (!Number.isFinite(v)) err([s + 1, e], field, `"${l2.slice(s, e)}" is not a number`, 'degrees, e.g. " 34.2682"');
+    else if (!(v >= 0 && (maxIncl ? v <= max : v < max + 1e-9))) err([s + 1, e], field, `${v} is out of range`, `0 ≤ ${field} ≤ ${max}°`);
+    return v;
+  };
+  const incl = angle(8, 16, 'inclination', 180, true);
+  const raan = angle(17, 25, 'right ascension of the ascending node', 360, true);
+  const ecc = readEccentricity(l2, 26);
+  if (!Number.isFinite(ecc)) err([27, 33], 'eccentricity', `"${l2.slice(26, 33)}" is not seven digits`, 'seven digits with an assumed leading "0."');
+  const argp = angle(34, 42, 'argument of perigee', 360, true);
+  const ma = angle(43, 51, 'mean anomaly', 360, true);
+  const n = readDecimal(l2, 52, 63);
+  if (!Number.isFinite(n)) err([53, 63], 'mean motion', `"${l2.slice(52, 63)}" is not a number`, 'rev/day, e.g. "15.49165230"');
+  else if (!(n > 0 && n <= MAX_MEAN_MOTION_REV_PER_DAY)) err([53, 63], 'mean motion', `${n} rev/day is out of range`, `0 < mean motion ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`);
+  const rev = readUnsigned(l2, 63, 68, 0);
+  if (!Number.isFinite(rev)) err([64, 68], 'revolution number', `"${l2.slice(63, 68)}" is not a number`, 'up to five digits');
+
+  if (errors.length) return { record: null, errors };
+  const record: ElementSet = {
+    catalogNumber: catField1.trim().padStart(5, '0'),
+    catalogNumberInt,
+    classification,
+    internationalDesignator: designator,
+    epoch: msToIso(epochMs),
+    epochMs,
+    meanMotionRevPerDay: n,
+    meanMotionDotRevPerDay2: ndot,
+    meanMotionDdotRevPerDay3: nddot,
+    bstar,
+    inclinationDeg: incl,
+    raanDeg: raan,
+    eccentricity: ecc,
+    argPerigeeDeg: argp,
+    meanAnomalyDeg: ma,
+    ephemerisType: eph,
+    elementSetNo: elset,
+    revAtEpoch: rev,
+    sourceLine: opts.sourceLine ?? line1No,
+    line1: l1,
+    line2: l2,
+  };
+  if (opts.name !== undefined) record.name = opts.name;
+  return { record, errors };
+}
+
+/** Two-line and three-line sets: blank lines, CRLF and `#` comment lines are allowed; "0 " before a name is dropped. */
+export function parseTleText(text: string, opts: TleParseOptions = {}): { records: ElementSet[]; errors: ParseError[] } {
+  const lines = text.split('\n');
+  const records: ElementSet[] = [];
+  const errors: ParseError[] = [];
+  let pendingName: string | undefined;
+  let pendingNameLine = 0;
+  const dropPendingName = () => {
+    if (pendingName !== undefined) {
+      errors.push({ line: pendingNameLine, message: 'name line is not followed by line 1', expected: 'line 1 of a two-line set after a name line', field: 'name' });
+      pendingName = undefined;
+    }
+  };
+  const count = lines.length;
+  for (let i = 0; i < count; i++) {
+    const line = clean(lines[i]!);
+    if (line.length === 0 || isBlank(line) || line.charCodeAt(0) === 35) continue;
+    if (isTleLine(line, 49)) {
+      let j = i + 1;
+      while (j < count && isBlank(lines[j]!)) j++;
+      const next = j < count ? clean(lines[j]!) : '';
+      if (j < count && isTleLine(next, 50)) {
+        const name = pendingName;
+        const { record, errors: e } = parseTlePair(line, next, {
+          name, line1No: i + 1, line2No: j + 1, sourceLine: name !== undefined ? pendingNameLine : i + 1, verifyChecksum: opts.verifyChecksum,
+        });
+        pendingName = undefined;
+        if (record) records.push(record);
+        for (const x of e) errors.push(x);
+        i = j;
+      } else {
+        pendingName = undefined;
+        errors.push({ line: i + 1, columns: [1, 1], field: 'line number', message: 'line 1 is not followed by line 2', expected: 'a line starting "2 " next' });
+      }
+    } else if (isTleLine(line, 50)) {
+      pendingName = undefined;
+      errors.push({ line: i + 1, columns: [1, 1], field: 'line number', message: 'line 2 without a line 1 before it', expected: 'a line starting "1 " first' });
+    } else {
+      dropPendingName();
+      let name = line.trim();
+      if (name.startsWith('0 ')) name = name.slice(2).trim();
+      if (hasControlChars(name) || name.length > 80) {
+        errors.push({ line: i + 1, message: 'not a name line, line 1 or line 2', expected: 'a name of printable characters (at most 80), or a line starting "1 " or "2 "' });
+      } else {
+        pendingName = name;
+        pendingNameLine = i + 1;
+      }
+    }
+  }
+  dropPendingName();
+  return { records, errors };
+}

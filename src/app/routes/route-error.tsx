@@ -1,0 +1,24 @@
+import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { NotFoundPage } from './not-found';
+
+/** Inside a layout it fills the layout's main region; `standalone` when the layout itself failed. */
+export function RouteError({ standalone = false }: { standalone?: boolean }) {
+  const error = useRouteError();
+  if (isRouteErrorResponse(error) && error.status === 404) return <NotFoundPage />;
+  // A failed lazy import usually means a new release replaced the files: a reload fetches them.
+  const chunkFailed = error instanceof TypeError && /dynamically imported module|Importing a module script failed/i.test(error.message);
+  const Wrapper = standalone ? 'main' : 'div';
+  return (
+    <Wrapper id={standalone ? 'main' : undefined} className="mx-auto max-w-xl px-4 py-16">
+      <h1 className="mb-4 text-2xl font-bold text-foil-50">Something went wrong</h1>
+      <Alert title={chunkFailed ? 'This page could not be loaded' : 'The page stopped working'}>
+        <p>{chunkFailed ? 'Lightkeel may have been updated since you opened it.' : 'Reloading usually helps. If it keeps happening, tell the mission team.'}</p>
+        <Button variant="secondary" size="sm" className="mt-3" onClick={() => window.location.reload()}>
+          Reload
+        </Button>
+      </Alert>
+    </Wrapper>
+  );
+}

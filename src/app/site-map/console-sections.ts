@@ -1,0 +1,59 @@
+import type { Role } from '@shared/schemas/auth';
+import { hasAnyRole } from '@/lib/roles';
+import type { ConsoleSection } from './types';
+
+// The staff console, one section per role. A section without `lazy` shows a landing page built from its
+// text; the issue that builds the section adds `lazy` (and `children` for its sub-pages).
+export const consoleSections: ConsoleSection[] = [
+  {
+    id: 'orbit',
+    path: 'orbit',
+    title: 'Orbit desk',
+    roles: ['engineer', 'admin'],
+    summary: 'Element sets for Tern-1, sailing periods and what the sail is doing to the orbit.',
+    duties: [
+      'Load TLE and OMM element sets and keep the history of each object in one place.',
+      'Mark sailing periods — raising, edge-on, tumbling or unknown — and measure sail yield across them.',
+      'Watch apogee, perigee and B* over time, and estimate the crossover altitude where sailing beats drag.',
+      'Freeze a chart as a snapshot that outreach can embed in a dispatch.',
+    ],
+  },
+  {
+    id: 'dispatches',
+    path: 'dispatches',
+    title: 'Dispatch desk',
+    roles: ['outreach', 'admin'],
+    summary: 'Mission updates for backers and the public, from draft to published.',
+    duties: [
+      'Write dispatches and move them from draft to scheduled to published, or withdraw one.',
+      'Choose each dispatch’s audience: everyone, backers, chosen tiers or crew members.',
+      'Embed snapshots from the orbit desk so backers see what the sail is doing.',
+    ],
+  },
+  {
+    id: 'books',
+    path: 'books',
+    title: 'Books',
+    roles: ['finance', 'admin'],
+    summary: 'The ledger of every money movement, refunds, payouts and reconciliation.',
+    duties: [
+      'Read the ledger: charges, refunds, disputes, fees and payouts, in minor units with their currency.',
+      'Issue refunds and follow disputes through to their outcome.',
+      'Start a reconciliation run against the processor’s records and work through its findings.',
+      'Close the month once the ledger and the processor agree.',
+    ],
+  },
+  {
+    id: 'people',
+    path: 'people',
+    title: 'People',
+    roles: ['admin'],
+    summary: 'Accounts, their roles, and the audit log of every change.',
+    duties: ['Find accounts, grant and revoke roles, and read the audit log.'],
+    lazy: () => import('@/app/routes/console/people'),
+  },
+];
+
+export function sectionsFor(roles: readonly Role[]): ConsoleSection[] {
+  return consoleSections.filter((section) => hasAnyRole(roles, section.roles));
+}

@@ -1,0 +1,11 @@
+import type { PublicPage } from './types';
+
+// The public site's pages. Add a page here: its route, and (with `nav`) a header link.
+export const publicPages: PublicPage[] = [
+  { path: '', lazy: () => import('@/app/routes/home'), nav: { label: 'Mission', order: 10 } },
+  { path: 'sign-in', lazy: () => import('@/app/routes/sign-in') },
+  { path: 'sign-up', lazy: () => import('@/app/routes/sign-up') },
+  { path: 'forgot-password', lazy: () => import('@/app/routes/forgot-password') },
+  { path: 'reset-password', lazy: () => import('@/app/routes/reset-password') },
+  { path: 'verify-email', lazy: () => import('@/app/routes/verify-email') },
+];

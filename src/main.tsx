@@ -1,0 +1,26 @@
+import { StrictMode, useState } from 'react';
+import { createRoot } from 'react-dom/client';
+import { RouterProvider } from 'react-router-dom';
+import '@fontsource/nunito-sans/latin-400.css';
+import '@fontsource/nunito-sans/latin-600.css';
+import '@fontsource/nunito-sans/latin-700.css';
+import './index.css';
+import { AppProvider } from '@/app/provider';
+import { createRouter } from '@/app/router';
+
+function App() {
+  const [router] = useState(createRouter);
+  return (
+    <AppProvider>
+      <RouterProvider router={router} />
+    </AppProvider>
+  );
+}
+
+const root = document.getElementById('root');
+if (!root) throw new Error('index.html has no #root element');
+createRoot(root).render(
+  <StrictMode>
+    <App />
+  </StrictMode>,
+);

@@ -1,0 +1,73 @@
+// The browser suite runs the whole product as `npm start` does — throwaway PostgreSQL, migrations, demo
+// seed, local fakes, the built client served by the API — on free loopback ports.
+import { mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { spawnSync } from 'node:child_process';
+import type { Server } from 'node:http';
+import type { TestProject } from 'vitest/node';
+import { startCluster, ensureDatabase, removeFolder } from '../../scripts/lib/postgres';
+import { startFakes } from '../../scripts/lib/fakes';
+import { migrateDatabase } from '../../server/db/migrate';
+import { loadConfig } from '../../server/config';
+import { createDb } from '../../server/db/client';
+import { createApp, defaultClientDir } from '../../server/app';
+import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
+import { seedDemo } from '../../server/demo/seed';
+import { freePort } from '../setup/global-setup';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseUrl: string;
+    outboxUrl: string;
+    paymentsUrl: string;
+  }
+}
+
+export default async function setup(project: TestProject) {
+  const root = mkdtempSync(path.join(os.tmpdir(), 'lightkeel-e2e-pg-'));
+  const cluster = await startCluster({ root, port: await freePort(), throwaway: true });
+  await ensureDatabase(cluster.url('postgres'), 'lightkeel');
+  await migrateDatabase(cluster.url('lightkeel'));
+
+  const [appPort, idPort, mailPort, payPort] = [await freePort(), await freePort(), await freePort(), await freePort()];
+  const config = loadConfig({
+    ...process.env,
+    NODE_ENV: 'production',
+    LOG_LEVEL: 'silent',
+    PORT: String(appPort),
+    PUBLIC_URL: `http://127.0.0.1:${appPort}`,
+    DATABASE_URL: cluster.url('lightkeel'),
+    GOOGLE_OAUTH_BASE_URL: `http://127.0.0.1:${idPort}`,
+    RESEND_BASE_URL: `http://127.0.0.1:${mailPort}`,
+    STRIPE_API_BASE_URL: `http://127.0.0.1:${payPort}`,
+  });
+  const dataDir = mkdtempSync(path.join(os.tmpdir(), 'lightkeel-e2e-fakes-'));
+  const cwd = process.cwd();
+  process.chdir(dataDir); // the fakes keep their state files under ./.data of the throwaway folder
+  const fakes = await startFakes(config, () => undefined);
+  process.chdir(cwd);
+
+  const { db, pool } = createDb(config.DATABASE_URL);
+  await seedDemo({ db, config, log: () => undefined });
+
+  const build = spawnSync(path.join('node_modules', '.bin', 'vite'), ['build', '--logLevel', 'error'], { stdio: 'inherit' });
+  if (build.status !== 0) throw new Error('vite build failed');
+
+  const app = createApp({ db, pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config), clientDir: defaultClientDir });
+  const server: Server = await new Promise((resolve) => {
+    const s = app.listen(appPort, '127.0.0.1', () => resolve(s));
+  });
+  project.provide('baseUrl', config.PUBLIC_URL);
+  project.provide('outboxUrl', `http://127.0.0.1:${mailPort}`);
+  project.provide('paymentsUrl', `http://127.0.0.1:${payPort}`);
+
+  return async () => {
+    await new Promise((r) => server.close(r));
+    await pool.end();
+    await fakes.close();
+    cluster.stop();
+    removeFolder(root);
+    removeFolder(dataDir);
+  };
+}

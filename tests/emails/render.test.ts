@@ -1,0 +1,102 @@
+import { describe, expect, it } from 'vitest';
+import { EmailTemplateError, emailNames, renderEmail, type EmailData, type EmailName } from '../../emails/render';
+import { formatMoney } from '../../shared/money';
+
+const hostile = 'Wren <script>alert("x")</script> & Co';
+const hostileTitle = 'Tern-1 <b>sail</b> fund';
+
+const samples: { [N in EmailName]: EmailData[N] } = {
+  'verify-email': { displayName: hostile, verifyUrl: 'http://127.0.0.1:3000/verify?token=abc123&x=1' },
+  'password-reset': { displayName: hostile, resetUrl: 'http://127.0.0.1:3000/reset?token=def456', expiresInMinutes: 45 },
+  'pledge-confirmation': {
+    displayName: hostile,
+    campaignTitle: hostileTitle,
+    tierTitle: 'Deck hand',
+    amountMinor: 123450,
+    currency: 'EUR',
+    receiptUrl: 'http://127.0.0.1:3000/my-support/receipts/9',
+  },
+  'renewal-failed': {
+    displayName: hostile,
+    campaignTitle: 'Tern-1 crew',
+    amountMinor: 500,
+    currency: 'JPY',
+    updateCardUrl: 'http://127.0.0.1:3000/my-support/card',
+    nextAttemptAt: '2031-03-04T10:15:00Z',
+  },
+};
+
+function urlOf(name: EmailName): string {
+  const d = samples[name] as Record<string, unknown>;
+  return String(d.verifyUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl);
+}
+
+describe('e-mail templates', () => {
+  it('covers every template with a sample', () => {
+    expect(new Set(emailNames)).toEqual(new Set(Object.keys(samples)));
+  });
+
+  for (const name of Object.keys(samples) as EmailName[]) {
+    it(`renders ${name} under strict mjml validation with an HTML and a text part carrying the data`, async () => {
+      const r = await renderEmail(name, samples[name] as never);
+      expect(r.subject.length).toBeGreaterThan(5);
+      expect(r.html).toMatch(/^<!doctype html>/i);
+      // Brand: night-blue header with the wordmark, amber accent, silver footer with the reason.
+      expect(r.html).toContain('Lightkeel');
+      expect(r.html.toLowerCase()).toContain('#0b1431');
+      expect(r.html.toLowerCase()).toContain('#f5a21b');
+      expect(r.html.toLowerCase()).toContain('#d9dee6');
+      expect(r.html).toContain('You get this e-mail because');
+      expect(r.text).toContain('You get this e-mail because');
+      // No webfont or other off-machine fetches.
+      expect(r.html).not.toMatch(/fonts\.googleapis|@import url/);
+
+      const url = urlOf(name);
+      expect(r.html).toContain(`href="${url.replace(/&/g, '&amp;')}"`);
+      expect(r.text).toContain(url);
+
+      // User-supplied text is escaped in HTML, and kept verbatim in the text part.
+      expect(r.html).not.toContain('<script>');
+      expect(r.html).toContain('Wren &lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; Co');
+      expect(r.text).toContain(hostile);
+      // Apart from the reader's own words, the text part holds no markup from the layout.
+      expect(r.text.split(hostile).join('').split(hostileTitle).join('').replace(/<[^>\s]+@[^>\s]+>/g, '')).not.toMatch(/<\/?[a-z][^>]*>/i);
+    });
+  }
+
+  it('shows pledge amounts from minor units with the currency exponent, and the receipt caution', async () => {
+    const pledge = await renderEmail('pledge-confirmation', samples['pledge-confirmation']);
+    expect(pledge.html).toContain(formatMoney(123450, 'EUR'));
+    expect(pledge.text).toContain('€1,234.50');
+    expect(pledge.text).toMatch(/Tier:\s+Deck hand/);
+    expect(pledge.html).toContain('Tern-1 &lt;b&gt;sail&lt;/b&gt; fund');
+    expect(pledge.text).toMatch(/not tax advice/);
+    expect(pledge.text).toMatch(/licensed tax adviser/);
+
+    const renewal = await renderEmail('renewal-failed', samples['renewal-failed']);
+    expect(renewal.text).toContain('JP¥500'); // JPY has no minor digits (exponent 0)
+    expect(renewal.text).toContain('4 March 2031');
+
+    const noTier = await renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], tierTitle: undefined });
+    expect(noTier.text).not.toContain('Tier:');
+  });
+
+  it('mentions the reset link lifetime in both parts', async () => {
+    const r = await renderEmail('password-reset', samples['password-reset']);
+    expect(r.text).toContain('45 minutes');
+    expect(r.html).toContain('45 minutes');
+  });
+
+  it('rejects bad data with the field named, before rendering', async () => {
+    await expect(renderEmail('verify-email', { displayName: 'A', verifyUrl: 'javascript:alert(1)' })).rejects.toThrow(
+      /verifyUrl/,
+    );
+    await expect(
+      renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], amountMinor: 12.5 }),
+    ).rejects.toThrow(/amountMinor/);
+    await expect(renderEmail('verify-email', { displayName: 'A\r\nBcc: x', verifyUrl: 'http://127.0.0.1/v' })).rejects.toThrow(
+      /displayName/,
+    );
+    await expect(renderEmail('no-such-template', {})).rejects.toBeInstanceOf(EmailTemplateError);
+  });
+});
