@@ -3,7 +3,7 @@ export const emailTheme = {
   night: '#0b1431',
   nightSoft: '#1c2a55',
   silver: '#d9dee6',
-  silverDeep: '#8a94a6',
+  silverDeep: '#5d6778',
   amber: '#f5a21b',
   ink: '#1a2033',
   paper: '#ffffff',

@@ -89,7 +89,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', (req, res, next) => (CSRF_EXEMPT.has(req.originalUrl.split('?')[0]!) ? next() : csrfSynchronisedProtection(req, res, next)));
 
   mount(app, '/api/health', createHealthRouter({ db }));
-  mount(app, '/api/auth', createAuthRouter({ auth, pp, config, generateCsrfToken: generateToken }));
+  mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
   mount(app, '/api/account', createAccountRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));
 

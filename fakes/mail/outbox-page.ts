@@ -25,7 +25,7 @@ tbody tr:hover{background:#f7f8fb}
 dl{display:grid;grid-template-columns:max-content 1fr;gap:.35rem 1rem;margin:0}
 dt{color:var(--silver-deep);font-weight:700}
 dd{margin:0;word-break:break-word}
-iframe{width:100%;min-height:36rem;border:1px solid var(--silver);border-radius:6px;background:#fff}
+iframe{width:100%;min-height:46rem;resize:vertical;border:1px solid var(--silver);border-radius:6px;background:#fff}
 pre{white-space:pre-wrap;word-break:break-word;background:#f7f8fb;border:1px solid var(--silver);border-radius:6px;padding:1rem;margin:0}
 .badge{display:inline-block;background:var(--amber);color:var(--night);border-radius:999px;padding:0 .6rem;font-size:.85rem;font-weight:700}
 .empty{color:var(--silver-deep)}

@@ -102,8 +102,10 @@ export class Engine {
     return this.now();
   }
 
-  processDue(target = this.now()): void {
-    for (let i = 0; i < 100_000; i++) {
+  /** Runs what fell due up to `target`; returns how many tasks ran. */
+  processDue(target = this.now()): number {
+    let ran = 0;
+    for (; ran < 100_000; ran++) {
       const task = this.nextTask(target);
       if (!task) break;
       this.moveClockTo(task.at);
@@ -111,6 +113,7 @@ export class Engine {
       task.run();
     }
     this.refreshBalance();
+    return ran;
   }
 
   private nextTask(target: number): { at: number; run: () => void } | null {

@@ -3,3 +3,7 @@ export * from '../modules/accounts/accounts.tables';
 export * from '../modules/auth/auth.tables';
 export * from '../modules/audit/audit.tables';
 export * from '../modules/orbit/orbit.tables';
+export * from '../modules/campaigns/campaigns.tables';
+export * from '../modules/pledges/pledges.tables';
+export * from '../modules/ledger/ledger.tables';
+export * from '../modules/payments/payments.tables';

@@ -1,5 +1,5 @@
 import type { Request, Response, NextFunction, RequestHandler } from 'express';
-import type { z } from 'zod';
+import { z, ZodError } from 'zod';
 
 type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
 type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
@@ -14,11 +14,18 @@ export function validated<S extends Schemas>(
   handler: (req: Request, res: Response, input: Valid<S>, next: NextFunction) => unknown,
 ): RequestHandler {
   return async (req, res, next) => {
-    const input = {
-      body: schemas.body ? schemas.body.parse(req.body ?? {}) : undefined,
-      query: schemas.query ? schemas.query.parse(req.query) : undefined,
-      params: schemas.params ? schemas.params.parse(req.params) : undefined,
-    } as Valid<S>;
-    await handler(req, res, input, next);
+    const parts = { params: schemas.params, query: schemas.query, body: schemas.body } as const;
+    const input: Record<string, unknown> = {};
+    const issues: z.core.$ZodIssue[] = [];
+    for (const [key, schema] of Object.entries(parts)) {
+      if (!schema) continue;
+      const source = key === 'body' ? (req.body ?? {}) : key === 'query' ? req.query : req.params;
+      const r = schema.safeParse(source);
+      if (r.success) input[key] = r.data;
+      else issues.push(...r.error.issues);
+    }
+    // Every field's problem at once, not only the first part's.
+    if (issues.length) throw new ZodError(issues);
+    await handler(req, res, input as Valid<S>, next);
   };
 }

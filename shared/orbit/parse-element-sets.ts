@@ -19,7 +19,7 @@ function allFinite(r: ElementSet): boolean {
  */
 export function parseElementSets(text: string, opts: ParseOptions = {}): ParseResult {
   const maxErrors = opts.maxErrors ?? 1000;
-  let format = opts.format ?? 'unknown';
+  let format: ParseResult['format'] = opts.format ?? 'unknown';
   let records: ElementSet[] = [];
   let errors: ParseError[] = [];
   try {

@@ -3,6 +3,8 @@ import { rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
 type Authenticator = InstanceType<PassportStatic['Passport']>;
 import type { Config } from '../../config';
+import type { Db } from '../../db/client';
+import { PgRateLimitStore } from './rate-limit-store';
 import type { AuthService } from './auth.service';
 import { invalidCredentials } from './auth.service';
 import { validated } from '../../middleware/validate';
@@ -29,7 +31,8 @@ export function safeReturnTo(value: unknown) {
   return typeof value === 'string' && value.startsWith('/') && !value.startsWith('//') && !value.includes('\\') ? value : '/';
 }
 
-export function createAuthRouter({ auth, pp, config, generateCsrfToken }: {
+export function createAuthRouter({ db, auth, pp, config, generateCsrfToken }: {
+  db: Db;
   auth: AuthService;
   pp: Authenticator;
   config: Config;
@@ -39,6 +42,7 @@ export function createAuthRouter({ auth, pp, config, generateCsrfToken }: {
   const windowMs = config.SIGN_IN_WINDOW_SECONDS * 1000;
   const perIp = rateLimit({
     windowMs,
+    store: new PgRateLimitStore(db, 'ip:'),
     limit: config.SIGN_IN_LIMIT_PER_IP,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
@@ -47,6 +51,7 @@ export function createAuthRouter({ auth, pp, config, generateCsrfToken }: {
   // Failed attempts per account, whatever address they come from.
   const perAccount = rateLimit({
     windowMs,
+    store: new PgRateLimitStore(db, 'account:'),
     limit: config.SIGN_IN_LIMIT_PER_ACCOUNT,
     skipSuccessfulRequests: true,
     standardHeaders: false,

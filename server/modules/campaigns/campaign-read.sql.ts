@@ -1,0 +1,56 @@
+// The one query behind the public campaign endpoint: the campaign, its tiers and stretch targets, and the
+// progress derived from the ledger (net of refunds and disputes), as a single JSON row. The benchmark runs
+// this same text in a bare handler, so keep it here and nowhere else.
+export const campaignReadSql = `
+SELECT json_build_object(
+  'id', c.id, 'slug', c.slug, 'title', c.title, 'summary', c.summary, 'story', c.story,
+  'goalMinor', c.goal_minor, 'currency', c.currency, 'startsAt', c.starts_at, 'endsAt', c.ends_at,
+  'tiers', COALESCE((
+    SELECT json_agg(json_build_object(
+      'id', t.id, 'title', t.title, 'description', t.description, 'minAmountMinor', t.min_amount_minor,
+      'kind', t.kind, 'quantityLimit', t.quantity_limit, 'soldCount', t.sold_count,
+      'estimatedDelivery', t.estimated_delivery, 'position', t.position, 'active', t.active
+    ) ORDER BY t.position, t.min_amount_minor)
+    FROM tiers t WHERE t.campaign_id = c.id), '[]'::json),
+  'stretchTargets', COALESCE((
+    SELECT json_agg(json_build_object('id', s.id, 'amountMinor', s.amount_minor, 'title', s.title, 'description', s.description) ORDER BY s.amount_minor)
+    FROM stretch_targets s WHERE s.campaign_id = c.id), '[]'::json),
+  'raisedMinor', COALESCE((
+    SELECT sum(l.amount_minor) FROM ledger_entries l
+    WHERE l.campaign_id = c.id AND l.kind IN ('charge', 'refund', 'dispute')), 0),
+  'backers', (
+    SELECT count(DISTINCT COALESCE(p.backer_id::text, p.id::text)) FROM pledges p
+    WHERE p.id IN (
+      SELECT l.pledge_id FROM ledger_entries l
+      WHERE l.campaign_id = c.id AND l.kind IN ('charge', 'refund', 'dispute') AND l.pledge_id IS NOT NULL
+      GROUP BY l.pledge_id HAVING sum(l.amount_minor) > 0))
+) AS campaign
+FROM campaigns c
+WHERE c.slug = $1`;
+
+export type CampaignReadRow = {
+  id: string;
+  slug: string;
+  title: string;
+  summary: string;
+  story: string;
+  goalMinor: number;
+  currency: string;
+  startsAt: string;
+  endsAt: string;
+  tiers: {
+    id: string;
+    title: string;
+    description: string;
+    minAmountMinor: number;
+    kind: 'one-time' | 'monthly';
+    quantityLimit: number | null;
+    soldCount: number;
+    estimatedDelivery: string | null;
+    position: number;
+    active: boolean;
+  }[];
+  stretchTargets: { id: string; amountMinor: number; title: string; description: string }[];
+  raisedMinor: number;
+  backers: number;
+};

@@ -1,0 +1,448 @@
+import { createHash } from 'node:crypto';
+import { and, eq } from 'drizzle-orm';
+import type pg from 'pg';
+import type { Db } from '../../db/client';
+import { recordAudit } from '../audit/audit.repository';
+import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
+import { detectFormat } from '../../../shared/orbit/detect-format';
+import { deriveElementSet } from '../../../shared/orbit/derived';
+import type { ElementSet, ParseError } from '../../../shared/orbit/types';
+import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
+import { emptyUpload, notText, unrecognisedFormat, uploadNotFound, uploadNotReady, spacecraftNotFound } from './orbit.errors';
+
+type JobRow = typeof ingestJobs.$inferSelect;
+type Logger = { error: (obj: unknown, msg?: string) => void };
+
+/** How many errors a preview keeps to show (all are counted). */
+const PREVIEW_ERRORS = 50;
+/** Rows per INSERT … SELECT FROM unnest(…) statement. */
+const INSERT_BATCH = 10_000;
+/** A running job whose process is gone (restart) is reported failed after this long without progress. */
+const STALE_AFTER_MS = 5 * 60_000;
+const PARSED_CACHE_MAX = 8;
+
+/** An element set ready to store: the parsed fields and the derived orbit. */
+export type PreparedSet = ElementSet & {
+  semiMajorAxisKm: number;
+  apogeeAltitudeKm: number;
+  perigeeAltitudeKm: number;
+  meanAltitudeKm: number;
+  periodMin: number;
+  specificEnergyJPerKg: number;
+};
+
+export type UploadInput = { spacecraftId: string; accountId: string | null; filename: string; bytes: Buffer };
+
+/** Refuses binary and non-element-set content, from the bytes themselves (never the file name). */
+export function decodeUpload(bytes: Buffer): { text: string; format: string } {
+  if (bytes.length === 0) throw emptyUpload();
+  const nul = bytes.indexOf(0);
+  if (nul >= 0) throw notText(`it contains a NUL byte at byte ${nul + 1}`);
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw notText('it is not valid UTF-8');
+  }
+  if (text.trim() === '') throw emptyUpload();
+  const format = detectFormat(text);
+  if (format === 'unknown') {
+    const first = (text.replace(/^\uFEFF/, '').split('\n').find((l) => l.trim() !== '') ?? '').trim().slice(0, 40);
+    throw unrecognisedFormat(first.replace(/[^\x20-\x7e]/g, '?'));
+  }
+  return { text, format };
+}
+
+export function epochKey(catalogNumberInt: number, epochIso: string, elementSetNo: number) {
+  return `${catalogNumberInt}|${epochIso}|${elementSetNo}`;
+}
+
+/** Counts records an error list stands for: the errors of one two-line set sit on adjacent lines. */
+function countInvalidRecords(errors: ParseError[]): number {
+  const lines = [...new Set(errors.map((e) => e.line))].sort((a, b) => a - b);
+  let count = 0;
+  let prev = -10;
+  let merged = false;
+  for (const l of lines) {
+    if (l === prev + 1 && !merged) merged = true;
+    else {
+      count++;
+      merged = false;
+    }
+    prev = l;
+  }
+  return count;
+}
+
+export function prepareSets(text: string, craft: { catalogNumberInt: number; catalogNumber: string; name: string }) {
+  const parsed = parseElementSets(text, { maxErrors: Number.MAX_SAFE_INTEGER });
+  const errors: ParseError[] = parsed.errors.slice();
+  const parseInvalid = countInvalidRecords(parsed.errors);
+  let ownInvalid = 0;
+  const seen = new Set<string>();
+  const prepared: PreparedSet[] = [];
+  let inFileDuplicates = 0;
+  for (const r of parsed.records) {
+    if (r.catalogNumberInt !== craft.catalogNumberInt) {
+      ownInvalid++;
+      errors.push({ line: r.sourceLine, field: 'catalog number', message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`, expected: craft.catalogNumber });
+      continue;
+    }
+    const d = deriveElementSet(r);
+    if (!(Number.isFinite(d.semiMajorAxisKm) && Number.isFinite(d.apogeeAltitudeKm) && Number.isFinite(d.perigeeAltitudeKm) && d.perigeeAltitudeKm > -6378)) {
+      ownInvalid++;
+      errors.push({ line: r.sourceLine, field: 'mean motion', message: 'the elements give no valid orbit', expected: 'a mean motion and eccentricity of a closed orbit' });
+      continue;
+    }
+    const key = epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo);
+    if (seen.has(key)) {
+      inFileDuplicates++;
+      continue;
+    }
+    seen.add(key);
+    prepared.push({
+      ...r,
+      semiMajorAxisKm: d.semiMajorAxisKm,
+      apogeeAltitudeKm: d.apogeeAltitudeKm,
+      perigeeAltitudeKm: d.perigeeAltitudeKm,
+      meanAltitudeKm: d.meanAltitudeKm,
+      periodMin: d.periodMin,
+      specificEnergyJPerKg: d.specificEnergyJPerKg,
+    });
+  }
+  errors.sort((a, b) => a.line - b.line);
+  return {
+    format: parsed.format,
+    prepared,
+    recordCount: parsed.records.length + parseInvalid,
+    invalidCount: parseInvalid + ownInvalid,
+    inFileDuplicates,
+    errors,
+  };
+}
+
+const INSERT_COLUMNS = [
+  ['spacecraft_id', 'uuid'], ['file_id', 'uuid'], ['source_line', 'int4'], ['catalog_number_int', 'int4'], ['epoch', 'timestamptz'],
+  ['epoch_ms', 'float8'], ['element_set_no', 'int4'], ['classification', 'text'], ['international_designator', 'text'],
+  ['mean_motion_rev_per_day', 'float8'], ['mean_motion_dot_rev_per_day2', 'float8'], ['mean_motion_ddot_rev_per_day3', 'float8'],
+  ['bstar', 'float8'], ['inclination_deg', 'float8'], ['raan_deg', 'float8'], ['eccentricity', 'float8'], ['arg_perigee_deg', 'float8'],
+  ['mean_anomaly_deg', 'float8'], ['rev_at_epoch', 'int4'], ['line1', 'text'], ['line2', 'text'], ['semi_major_axis_km', 'float8'],
+  ['apogee_altitude_km', 'float8'], ['perigee_altitude_km', 'float8'], ['mean_altitude_km', 'float8'], ['period_min', 'float8'],
+  ['specific_energy_j_per_kg', 'float8'],
+] as const;
+
+// Scalars (spacecraft, file) are parameters of their own; the per-row columns travel as arrays.
+const INSERT_SQL = (() => {
+  const names = INSERT_COLUMNS.map(([n]) => n).join(', ');
+  const arrays = INSERT_COLUMNS.slice(2).map(([, t], i) => `$${i + 3}::${t}[]`).join(', ');
+  return `insert into element_sets (${names})
+    select $1::uuid, $2::uuid, u.* from unnest(${arrays}) as u
+    on conflict (spacecraft_id, catalog_number_int, epoch, element_set_no) do nothing`;
+})();
+
+function batchParams(spacecraftId: string, fileId: string, rows: PreparedSet[]): unknown[] {
+  const n = rows.length;
+  const cols: unknown[][] = Array.from({ length: INSERT_COLUMNS.length - 2 }, () => new Array(n));
+  for (let i = 0; i < n; i++) {
+    const r = rows[i]!;
+    cols[0]![i] = r.sourceLine;
+    cols[1]![i] = r.catalogNumberInt;
+    cols[2]![i] = r.epoch;
+    cols[3]![i] = r.epochMs;
+    cols[4]![i] = r.elementSetNo;
+    cols[5]![i] = r.classification;
+    cols[6]![i] = r.internationalDesignator;
+    cols[7]![i] = r.meanMotionRevPerDay;
+    cols[8]![i] = r.meanMotionDotRevPerDay2;
+    cols[9]![i] = r.meanMotionDdotRevPerDay3;
+    cols[10]![i] = r.bstar;
+    cols[11]![i] = r.inclinationDeg;
+    cols[12]![i] = r.raanDeg;
+    cols[13]![i] = r.eccentricity;
+    cols[14]![i] = r.argPerigeeDeg;
+    cols[15]![i] = r.meanAnomalyDeg;
+    cols[16]![i] = r.revAtEpoch;
+    cols[17]![i] = r.line1;
+    cols[18]![i] = r.line2;
+    cols[19]![i] = r.semiMajorAxisKm;
+    cols[20]![i] = r.apogeeAltitudeKm;
+    cols[21]![i] = r.perigeeAltitudeKm;
+    cols[22]![i] = r.meanAltitudeKm;
+    cols[23]![i] = r.periodMin;
+    cols[24]![i] = r.specificEnergyJPerKg;
+  }
+  return [spacecraftId, fileId, ...cols];
+}
+
+export function jobView(row: JobRow, existingFile?: { id: string; filename: string; uploadedAt: Date } | null) {
+  return {
+    id: row.id,
+    spacecraftId: row.spacecraftId,
+    status: row.status,
+    filename: row.filename,
+    byteSize: row.byteSize,
+    format: row.format,
+    progress: { processed: row.processed, total: row.total },
+    counts: { records: row.recordCount, new: row.newCount, duplicate: row.duplicateCount, invalid: row.invalidCount },
+    importedCount: row.importedCount,
+    errors: row.errors as ParseError[],
+    existingFile: existingFile ? { id: existingFile.id, filename: existingFile.filename, uploadedAt: existingFile.uploadedAt.toISOString() } : null,
+    fileId: row.fileId,
+    message: row.message,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+  };
+}
+export type JobView = ReturnType<typeof jobView>;
+
+export function createIngestService({ db, logger }: { db: Db; logger?: Logger }) {
+  const pool = db.$client as pg.Pool;
+  const running = new Map<string, Promise<void>>();
+  const parsedCache = new Map<string, PreparedSet[]>();
+
+  function remember(jobId: string, rows: PreparedSet[]) {
+    parsedCache.set(jobId, rows);
+    while (parsedCache.size > PARSED_CACHE_MAX) parsedCache.delete(parsedCache.keys().next().value!);
+  }
+
+  function track(jobId: string, work: () => Promise<void>) {
+    const p = work()
+      .catch(async (err) => {
+        logger?.error({ err, jobId }, 'element-set ingest failed');
+        await db
+          .update(ingestJobs)
+          .set({ status: 'failed', message: 'The import failed on our side and nothing was stored. Try again; if it fails again, report it.', updatedAt: new Date() })
+          .where(eq(ingestJobs.id, jobId))
+          .catch(() => undefined);
+      })
+      .finally(() => running.delete(jobId));
+    running.set(jobId, p);
+  }
+
+  async function loadCraft(spacecraftId: string) {
+    const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.id, spacecraftId));
+    if (!craft) throw spacecraftNotFound();
+    return craft;
+  }
+
+  async function runPreview(jobId: string, text: string, craft: typeof spacecraft.$inferSelect) {
+    const result = prepareSets(text, craft);
+    const total = result.prepared.length;
+    await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
+    // Count what the history already holds, in batches so progress moves on large files.
+    let stored = 0;
+    const fresh: PreparedSet[] = [];
+    for (let i = 0; i < total; i += INSERT_BATCH) {
+      const chunk = result.prepared.slice(i, i + INSERT_BATCH);
+      const { rows } = await pool.query<{ epoch: string; element_set_no: number }>(
+        `select to_char(e.epoch at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as epoch, e.element_set_no
+           from element_sets e
+           join unnest($3::timestamptz[], $4::int4[]) as k(epoch, no) on e.epoch = k.epoch and e.element_set_no = k.no
+          where e.spacecraft_id = $1 and e.catalog_number_int = $2`,
+        [craft.id, craft.catalogNumberInt, chunk.map((r) => r.epoch), chunk.map((r) => r.elementSetNo)],
+      );
+      const have = new Set(rows.map((r) => epochKey(craft.catalogNumberInt, r.epoch, r.element_set_no)));
+      for (const r of chunk) {
+        if (have.has(epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo))) stored++;
+        else fresh.push(r);
+      }
+      await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [jobId, Math.min(total, i + chunk.length)]);
+    }
+    remember(jobId, fresh);
+    await db
+      .update(ingestJobs)
+      .set({
+        status: 'previewed',
+        format: result.format,
+        recordCount: result.recordCount,
+        newCount: fresh.length,
+        duplicateCount: stored + result.inFileDuplicates,
+        invalidCount: result.invalidCount,
+        errors: result.errors.slice(0, PREVIEW_ERRORS),
+        processed: total,
+        total,
+        message: previewMessage(fresh.length, stored + result.inFileDuplicates, result.invalidCount),
+        updatedAt: new Date(),
+      })
+      .where(eq(ingestJobs.id, jobId));
+  }
+
+  async function runImport(job: JobRow, accountId: string | null) {
+    const craft = await loadCraft(job.spacecraftId);
+    let rows = parsedCache.get(job.id);
+    parsedCache.delete(job.id);
+    if (!rows) rows = prepareSets(job.content ?? '', craft).prepared;
+    const client = await pool.connect();
+    let imported = 0;
+    let fileId: string;
+    try {
+      await client.query('begin');
+      // One row per distinct file content; a concurrent import of the same bytes waits here, then reuses it.
+      const ins = await client.query<{ id: string }>(
+        `insert into element_set_files (spacecraft_id, content_sha256, filename, format, byte_size, content, record_count, imported_count, duplicate_count, invalid_count, uploaded_by)
+         values ($1, $2, $3, $4, $5, $6, $7, 0, $8, $9, $10)
+         on conflict (spacecraft_id, content_sha256) do nothing returning id`,
+        [craft.id, job.contentSha256, job.filename, job.format ?? 'unknown', job.byteSize, job.content ?? '', job.recordCount, job.duplicateCount, job.invalidCount, job.createdBy],
+      );
+      const newFile = ins.rows.length > 0;
+      if (newFile) fileId = ins.rows[0]!.id;
+      else {
+        const { rows: ex } = await client.query<{ id: string }>('select id from element_set_files where spacecraft_id = $1 and content_sha256 = $2', [craft.id, job.contentSha256]);
+        fileId = ex[0]!.id;
+      }
+      await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [job.id, rows.length]);
+      for (let i = 0; i < rows.length; i += INSERT_BATCH) {
+        const chunk = rows.slice(i, i + INSERT_BATCH);
+        const res = await client.query(INSERT_SQL, batchParams(craft.id, fileId, chunk));
+        imported += res.rowCount ?? 0;
+        await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [job.id, i + chunk.length]);
+      }
+      if (newFile) {
+        await client.query('update element_set_files set imported_count = $2, duplicate_count = $3 where id = $1', [fileId, imported, job.duplicateCount + (rows.length - imported)]);
+      }
+      await client.query(
+        `insert into audit_log (actor_id, action, subject_type, subject_id, after) values ($1, 'element_sets.imported', 'element_set_file', $2, $3)`,
+        [accountId, fileId, JSON.stringify({ jobId: job.id, filename: job.filename, imported, duplicates: job.duplicateCount + (rows.length - imported) })],
+      );
+      await client.query('commit');
+    } catch (err) {
+      await client.query('rollback').catch(() => undefined);
+      throw err;
+    } finally {
+      client.release();
+    }
+    const skipped = rows.length - imported;
+    await db
+      .update(ingestJobs)
+      .set({
+        status: 'imported',
+        importedCount: imported,
+        fileId,
+        content: null,
+        processed: rows.length,
+        message: importMessage(imported, job.duplicateCount + skipped),
+        updatedAt: new Date(),
+      })
+      .where(eq(ingestJobs.id, job.id));
+  }
+
+  async function getRow(jobId: string): Promise<JobRow> {
+    const [row] = await db.select().from(ingestJobs).where(eq(ingestJobs.id, jobId));
+    if (!row) throw uploadNotFound();
+    if ((row.status === 'parsing' || row.status === 'importing') && !running.has(row.id) && Date.now() - row.updatedAt.getTime() > STALE_AFTER_MS) {
+      const [failed] = await db
+        .update(ingestJobs)
+        .set({ status: 'failed', message: 'This upload was interrupted (the server restarted) and nothing was imported. Upload the file again.', updatedAt: new Date() })
+        .where(eq(ingestJobs.id, row.id))
+        .returning();
+      return failed!;
+    }
+    return row;
+  }
+
+  async function view(row: JobRow): Promise<JobView> {
+    let existing: { id: string; filename: string; uploadedAt: Date } | null = null;
+    if (row.existingFileId) {
+      const [f] = await db
+        .select({ id: elementSetFiles.id, filename: elementSetFiles.filename, uploadedAt: elementSetFiles.uploadedAt })
+        .from(elementSetFiles)
+        .where(eq(elementSetFiles.id, row.existingFileId));
+      existing = f ?? null;
+    }
+    return jobView(row, existing);
+  }
+
+  const service = {
+    /** Stores the upload as a job and starts the preview; nothing goes into element_sets. */
+    async startUpload(input: UploadInput): Promise<JobView> {
+      const craft = await loadCraft(input.spacecraftId);
+      const { text, format } = decodeUpload(input.bytes);
+      const sha = createHash('sha256').update(input.bytes).digest('hex');
+      const [existing] = await db
+        .select({ id: elementSetFiles.id })
+        .from(elementSetFiles)
+        .where(and(eq(elementSetFiles.spacecraftId, craft.id), eq(elementSetFiles.contentSha256, sha)));
+      const [row] = await db
+        .insert(ingestJobs)
+        .values({
+          spacecraftId: craft.id,
+          createdBy: input.accountId,
+          status: 'parsing',
+          filename: input.filename.slice(0, 200) || 'pasted.txt',
+          byteSize: input.bytes.length,
+          contentSha256: sha,
+          content: text,
+          format,
+          existingFileId: existing?.id ?? null,
+        })
+        .returning();
+      track(row!.id, () => runPreview(row!.id, text, craft));
+      return view(row!);
+    },
+
+    async getJob(jobId: string): Promise<JobView> {
+      return view(await getRow(jobId));
+    },
+
+    /** Starts the import of a previewed upload: one transaction, every new set or none. */
+    async importUpload(jobId: string, accountId: string | null): Promise<JobView> {
+      const current = await getRow(jobId);
+      // Only one caller moves a previewed job on; a second click or request finds it no longer previewed.
+      const [row] = await db
+        .update(ingestJobs)
+        .set({ status: 'importing', processed: 0, updatedAt: new Date() })
+        .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.status, 'previewed')))
+        .returning();
+      if (!row) throw uploadNotReady(current.status);
+      track(row.id, () => runImport(row, accountId));
+      return view(row);
+    },
+
+    async cancelUpload(jobId: string, accountId: string | null): Promise<JobView> {
+      const current = await getRow(jobId);
+      const [row] = await db
+        .update(ingestJobs)
+        .set({ status: 'cancelled', content: null, message: 'Cancelled: nothing was imported.', updatedAt: new Date() })
+        .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.status, 'previewed')))
+        .returning();
+      if (!row) throw uploadNotReady(current.status);
+      parsedCache.delete(jobId);
+      await recordAudit(db, { actorId: accountId, action: 'element_sets.upload_cancelled', subjectType: 'ingest_job', subjectId: jobId, after: { filename: row.filename } });
+      return view(row);
+    },
+
+    /** Resolves when the job's background work (preview or import) has finished. */
+    async settle(jobId: string): Promise<JobView> {
+      await running.get(jobId);
+      return service.getJob(jobId);
+    },
+
+    /** Upload, preview and import in one call — the demo seed and scripts use the same path as the browser. */
+    async ingestText(input: { spacecraftId: string; accountId: string | null; filename: string; text: string }) {
+      const job = await service.startUpload({ ...input, bytes: Buffer.from(input.text, 'utf8') });
+      const previewed = await service.settle(job.id);
+      if (previewed.status !== 'previewed') return previewed;
+      await service.importUpload(job.id, input.accountId);
+      return service.settle(job.id);
+    },
+  };
+
+  return service;
+}
+
+export type IngestService = ReturnType<typeof createIngestService>;
+
+function plural(n: number, one: string, many = `${one}s`) {
+  return `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
+}
+
+export function previewMessage(fresh: number, duplicates: number, invalid: number): string {
+  if (fresh === 0 && duplicates > 0 && invalid === 0) return `Nothing new: all ${plural(duplicates, 'element set')} are already stored.`;
+  if (fresh === 0 && duplicates === 0) return `No valid element sets: ${plural(invalid, 'invalid record')}. Nothing can be imported.`;
+  return `${plural(fresh, 'new element set')} ready to import; ${plural(duplicates, 'duplicate')} and ${plural(invalid, 'invalid record')} will be skipped.`;
+}
+
+export function importMessage(imported: number, duplicates: number): string {
+  if (imported === 0) return `Nothing imported: all ${plural(duplicates, 'element set')} were already stored.`;
+  return `Imported ${plural(imported, 'element set')}${duplicates ? `; skipped ${plural(duplicates, 'duplicate')}` : ''}.`;
+}

@@ -1,0 +1,94 @@
+import { z } from 'zod';
+
+// Payloads of the orbit desk, used by the Express validators and by the client's forms.
+
+export const sailModes = ['raising', 'edge-on', 'tumbling', 'unknown'] as const;
+export const sailModeSchema = z.enum(sailModes);
+
+const isoDateTime = z.iso.datetime({ offset: true, message: 'must be a date and time such as 2025-03-01T00:00:00Z' });
+const optionalDate = z.union([z.iso.date({ message: 'must be a date such as 2025-03-01' }), z.literal(''), z.null()]).optional()
+  .transform((v) => (v ? v : null));
+const optionalDateTime = z.union([isoDateTime, z.literal(''), z.null()]).optional().transform((v) => (v ? v : null));
+
+export const spacecraftInputSchema = z.object({
+  name: z.string().trim().min(1, { message: 'Give the craft a name' }).max(80),
+  slug: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, { message: 'use lower-case letters, digits and single hyphens' })
+    .max(40),
+  catalogNumber: z
+    .string()
+    .trim()
+    .regex(/^(\d{1,5}|[A-HJ-NP-Z]\d{4})$/, { message: 'must be up to five digits, or a letter and four digits' }),
+  internationalDesignator: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .regex(/^(\d{5}[A-Z]{1,3})?$/, { message: 'must look like 25012A (year, launch number, piece) or be empty' })
+    .default(''),
+  massKg: z.coerce.number().gt(0, { message: 'must be more than 0 kg' }).max(10_000),
+  sailAreaM2: z.coerce.number().gt(0, { message: 'must be more than 0 m²' }).max(100_000),
+  sailReflectivity: z.coerce.number().min(0, { message: 'must be between 0 and 1' }).max(1, { message: 'must be between 0 and 1' }),
+  dragCoefficient: z.coerce.number().gt(0).max(10),
+  dragAreaEdgeOnM2: z.coerce.number().gt(0, { message: 'must be more than 0 m²' }).max(100_000),
+  launchDate: optionalDate,
+  sailDeployedAt: optionalDateTime,
+});
+export type SpacecraftInput = z.output<typeof spacecraftInputSchema>;
+
+export const sailingPeriodInputSchema = z
+  .object({
+    startAt: isoDateTime,
+    endAt: isoDateTime,
+    mode: sailModeSchema,
+    note: z.string().trim().max(2000).default(''),
+  })
+  .refine((p) => Date.parse(p.endAt) > Date.parse(p.startAt), { message: 'must be after the start', path: ['endAt'] });
+export type SailingPeriodInput = z.output<typeof sailingPeriodInputSchema>;
+
+export const historySortKeys = ['epoch', 'elementSetNo', 'semiMajorAxisKm', 'eccentricity', 'inclinationDeg', 'apogeeAltitudeKm', 'perigeeAltitudeKm', 'bstar'] as const;
+
+export const historyQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(50),
+  sort: z.enum(historySortKeys).default('epoch'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+  from: isoDateTime.optional(),
+  to: isoDateTime.optional(),
+});
+export type HistoryQuery = z.output<typeof historyQuerySchema>;
+
+export const trendQuerySchema = z.object({
+  /** The window for the rate lines; defaults to the last 30 days of the history. */
+  from: isoDateTime.optional(),
+  to: isoDateTime.optional(),
+});
+
+export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
+export const snapshotSeriesSchema = z.enum(snapshotSeriesKeys);
+export type SnapshotSeries = z.infer<typeof snapshotSeriesSchema>;
+
+export const snapshotAnnotationSchema = z.object({
+  atMs: z.number().finite(),
+  text: z.string().trim().min(1).max(200),
+});
+
+export const createSnapshotSchema = z.object({
+  spacecraftId: z.uuid(),
+  title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
+  caption: z.string().trim().max(1000).default(''),
+  fromMs: z.number().finite(),
+  toMs: z.number().finite(),
+  series: z.array(snapshotSeriesSchema).min(1, { message: 'pick at least one series' }).max(5),
+  annotations: z.array(snapshotAnnotationSchema).max(20).default([]),
+  isPublic: z.boolean().default(false),
+}).refine((s) => s.toMs > s.fromMs, { message: 'must be after the start', path: ['toMs'] });
+export type CreateSnapshotInput = z.output<typeof createSnapshotSchema>;
+
+export const updateSnapshotSchema = z.object({
+  title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120).optional(),
+  caption: z.string().trim().max(1000).optional(),
+  isPublic: z.boolean().optional(),
+});
