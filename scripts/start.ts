@@ -81,10 +81,10 @@ try {
   const appUrl = dev ? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}` : config.PUBLIC_URL;
   const lines = [
     '',
-    `  Lightkeel          ${appUrl}${dev ? `   (API on ${config.PUBLIC_URL})` : ''}`,
-    `  health            ${config.PUBLIC_URL}/api/health`,
-    ...fakes.urls.map(([name, url]) => `  ${name.padEnd(18)}${url}`),
-    `  PostgreSQL        127.0.0.1:${pgPort} (data in .data/pg)`,
+    `  Lightkeel           ${appUrl}${dev ? `   (API on ${config.PUBLIC_URL})` : ''}`,
+    `  health              ${config.PUBLIC_URL}/api/health`,
+    ...fakes.urls.map(([name, url]) => `  ${name.padEnd(20)}${url}`),
+    `  PostgreSQL          127.0.0.1:${pgPort} (data in .data/pg)`,
     '',
     `  Demo accounts (password for all: ${DEMO_PASSWORD})`,
     ...demoAccounts.map((a) => `    ${a.email.padEnd(30)} ${a.roles.length ? a.roles.join(', ') : 'backer'}`),

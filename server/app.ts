@@ -98,7 +98,7 @@ export function createApp(deps: AppDeps): Express {
   const clientDir = deps.clientDir;
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
-    app.get('/*rest', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    app.get(['/', '/*rest'], (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
   }
 
   app.use(errorHandler);

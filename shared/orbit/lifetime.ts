@@ -69,10 +69,11 @@ function integrate(start: { epochMs: number; semiMajorAxisKm: number }, craft: C
   for (let step = 0; step < 200_000 && t < horizonDays; step++) {
     if (a - EARTH_RADIUS_WGS84_KM <= reentryKm) break;
     const k0 = rate(a);
-    if (!(k0 < 0)) { t = horizonDays; break; } // not decaying (sail wins): outlives any horizon
-    const dt = Math.min(30, Math.max(1e-3, 1 / Math.abs(k0)), horizonDays - t);
+    if (!(k0 < 0)) break; // not decaying (the sail wins): outlives any horizon
+    const dt = Math.min(30, 1 / Math.abs(k0), horizonDays - t);
     const k1 = k0, k2 = rate(a + (dt / 2) * k1), k3 = rate(a + (dt / 2) * k2), k4 = rate(a + dt * k3);
-    const next = a + (dt / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
+    let next = a + (dt / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
+    if (!Number.isFinite(next)) next = a + dt * k0;
     if (next - EARTH_RADIUS_WGS84_KM <= reentryKm) {
       // Last step: interpolate the crossing linearly inside it.
       t += dt * ((a - EARTH_RADIUS_WGS84_KM - reentryKm) / (a - next));
@@ -82,7 +83,7 @@ function integrate(start: { epochMs: number; semiMajorAxisKm: number }, craft: C
     a = next;
     t += dt;
   }
-  if (a - EARTH_RADIUS_WGS84_KM > reentryKm) {
+  if (!(a - EARTH_RADIUS_WGS84_KM <= reentryKm)) {
     return { activity, reentryMs: null, reentryIso: null, days: null, exceedsHorizon: true };
   }
   const reentryMs = start.epochMs + t * MS_PER_DAY;

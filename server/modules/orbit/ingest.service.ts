@@ -7,6 +7,7 @@ import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
 import { deriveElementSet } from '../../../shared/orbit/derived';
 import type { ElementSet, ParseError } from '../../../shared/orbit/types';
+import { binOf, flagOutliers, OUTLIER_BIN_MS } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
 import { emptyUpload, notText, unrecognisedFormat, uploadNotFound, uploadNotReady, spacecraftNotFound } from './orbit.errors';
 
@@ -174,6 +175,23 @@ function batchParams(spacecraftId: string, fileId: string, rows: PreparedSet[]):
   return [spacecraftId, fileId, ...cols];
 }
 
+/** Re-checks the outlier flags of the 30-day bins that hold epochs between `fromMs` and `toMs`. */
+export async function refreshOutliers(pool: pg.Pool, spacecraftId: string, fromMs: number, toMs: number) {
+  const start = binOf(fromMs) * OUTLIER_BIN_MS;
+  const end = (binOf(toMs) + 1) * OUTLIER_BIN_MS;
+  const { rows } = await pool.query<{ id: string; epoch_ms: number; a: number; p: number }>(
+    `select id, epoch_ms, semi_major_axis_km as a, perigee_altitude_km as p from element_sets
+      where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms < $3`,
+    [spacecraftId, start, end],
+  );
+  const flagged = flagOutliers(rows.map((r) => ({ id: Number(r.id), epochMs: r.epoch_ms, semiMajorAxisKm: r.a, perigeeAltitudeKm: r.p })));
+  await pool.query(
+    `update element_sets set outlier = (id = any($4::bigint[]))
+      where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms < $3 and outlier is distinct from (id = any($4::bigint[]))`,
+    [spacecraftId, start, end, [...flagged]],
+  );
+}
+
 export function jobView(row: JobRow, existingFile?: { id: string; filename: string; uploadedAt: Date } | null) {
   return {
     id: row.id,
@@ -196,7 +214,8 @@ export function jobView(row: JobRow, existingFile?: { id: string; filename: stri
 export type JobView = ReturnType<typeof jobView>;
 
 export function createIngestService({ db, logger }: { db: Db; logger?: Logger }) {
-  const pool = db.$client as pg.Pool;
+  // The bulk statements use the pool drizzle was built on.
+  const pool = (db as unknown as { $client: pg.Pool }).$client;
   const running = new Map<string, Promise<void>>();
   const parsedCache = new Map<string, PreparedSet[]>();
 
@@ -310,6 +329,11 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
       throw err;
     } finally {
       client.release();
+    }
+    if (imported > 0 && rows.length > 0) {
+      let lo = Infinity, hi = -Infinity;
+      for (const r of rows) { if (r.epochMs < lo) lo = r.epochMs; if (r.epochMs > hi) hi = r.epochMs; }
+      await refreshOutliers(pool, craft.id, lo, hi);
     }
     const skipped = rows.length - imported;
     await db

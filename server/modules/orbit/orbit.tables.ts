@@ -81,6 +81,8 @@ export const elementSets = pgTable(
     meanAltitudeKm: doublePrecision('mean_altitude_km').notNull(),
     periodMin: doublePrecision('period_min').notNull(),
     specificEnergyJPerKg: doublePrecision('specific_energy_j_per_kg').notNull(),
+    /** Kept up to date by each import (server/modules/orbit/outliers.ts). */
+    outlier: boolean('outlier').notNull().default(false),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [

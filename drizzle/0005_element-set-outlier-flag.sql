@@ -1,0 +1,1 @@
+ALTER TABLE "element_sets" ADD COLUMN "outlier" boolean DEFAULT false NOT NULL;
