@@ -63,6 +63,8 @@ export interface PaymentsFake {
 const noFaults = (): Faults => ({ latencyMs: 0, failRate: 0, failNext: 0, dropWebhooks: false });
 const IDEMPOTENCY_TTL_MS = 24 * 3600 * 1000;
 const MAX_BODY_BYTES = 1024 * 1024;
+/** The processor keeps events for 30 days. */
+const EVENT_RETENTION_SECONDS = 30 * 86_400;
 
 class HttpError extends Error {
   constructor(
@@ -139,7 +141,8 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
   const persist = () => {
     const cutoff = Date.now() - IDEMPOTENCY_TTL_MS;
     for (const [k, rec] of Object.entries(store.state.idempotency)) if (rec.createdMs < cutoff) delete store.state.idempotency[k];
-    store.save();
+    store.pruneEvents(engine.now() - EVENT_RETENTION_SECONDS);
+    store.markDirty();
   };
 
   // ---------- lists and expansion ----------
@@ -585,6 +588,7 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       closed = true;
       await webhooks.close();
       persist();
+      store.close();
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
         server.closeAllConnections();

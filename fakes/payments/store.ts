@@ -87,8 +87,16 @@ export function newId(prefix: string, length = 24): string {
 export class Store {
   state: State;
   private index = new Map<string, ApiObject>();
+  private dirty = false;
+  private lastWriteMs = 0;
+  private timer: NodeJS.Timeout | undefined;
+  private readonly onExit = () => this.flush();
 
-  constructor(private readonly statePath: string | undefined) {
+  /** Writes are throttled to one per `minWriteIntervalMs` (the last change always lands; `flush` forces it). */
+  constructor(
+    private readonly statePath: string | undefined,
+    private readonly minWriteIntervalMs = 100,
+  ) {
     this.state = emptyState();
     if (statePath && existsSync(statePath)) {
       const text = readFileSync(statePath, 'utf8');
@@ -103,6 +111,7 @@ export class Store {
       this.state = { ...base, ...parsed, collections: { ...base.collections, ...parsed.collections } };
     }
     for (const name of collectionNames) for (const obj of this.state.collections[name]) this.index.set(obj.id, obj);
+    if (statePath) process.on('exit', this.onExit);
   }
 
   insert(name: CollectionName, obj: ApiObject): ApiObject {
@@ -138,7 +147,48 @@ export class Store {
     this.index.clear();
   }
 
-  save(): void {
+  /** Drops events created before `cutoffSeconds` whose deliveries are settled (the processor keeps 30 days). */
+  pruneEvents(cutoffSeconds: number): void {
+    const events = this.state.collections.event;
+    if (events.length === 0 || events[0]!.created >= cutoffSeconds) return;
+    const pending = new Set(this.state.deliveries.filter((d) => d.status === 'pending').map((d) => d.eventId));
+    const drop = new Set(events.filter((e) => e.created < cutoffSeconds && !pending.has(e.id)).map((e) => e.id));
+    if (drop.size === 0) return;
+    this.state.collections.event = events.filter((e) => !drop.has(e.id));
+    for (const id of drop) this.index.delete(id);
+    this.state.deliveries = this.state.deliveries.filter((d) => !drop.has(d.eventId));
+  }
+
+  markDirty(): void {
+    if (!this.statePath) return;
+    this.dirty = true;
+    const wait = this.lastWriteMs + this.minWriteIntervalMs - Date.now();
+    if (wait <= 0) this.write();
+    else if (!this.timer) {
+      this.timer = setTimeout(() => {
+        this.timer = undefined;
+        if (this.dirty) this.write();
+      }, wait);
+      this.timer.unref();
+    }
+  }
+
+  flush(): void {
+    if (this.dirty) this.write();
+  }
+
+  close(): void {
+    this.flush();
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = undefined;
+    process.off('exit', this.onExit);
+  }
+
+  private write(): void {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = undefined;
+    this.dirty = false;
+    this.lastWriteMs = Date.now();
     if (!this.statePath) return;
     mkdirSync(path.dirname(this.statePath), { recursive: true });
     const tmp = `${this.statePath}.${process.pid}.tmp`;

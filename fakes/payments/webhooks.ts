@@ -56,7 +56,7 @@ export class WebhookSender {
     const event = this.store.getOf('event', eventId);
     if (!event) throw new Error(`no event ${eventId}`);
     this.enqueue(eventId, String(event.data?.object?.id ?? eventId), false);
-    this.store.save();
+    this.store.markDirty();
     this.kick();
   }
 
@@ -117,7 +117,7 @@ export class WebhookSender {
     if (!event || !this.opts.url) {
       delivery.status = 'failed';
       delivery.lastError = 'event not found';
-      this.store.save();
+      this.store.markDirty();
       return false;
     }
     const payload = JSON.stringify(event, null, 2);
@@ -153,7 +153,7 @@ export class WebhookSender {
     } else {
       delivery.nextAttemptAtMs = Date.now() + this.opts.retryDelaysMs[delivery.attempts - 1]!;
     }
-    this.store.save();
+    this.store.markDirty();
     return ok;
   }
 

@@ -32,8 +32,8 @@ export async function shot(page: Page, name: string) {
 
 export async function signInAs(page: Page, baseUrl: string, email: string, password: string) {
   await page.goto(`${baseUrl}/sign-in`);
-  await page.getByLabel(/e-?mail/i).fill(email);
-  await page.getByLabel(/password/i).fill(password);
+  await page.getByLabel(/^e-?mail( address)?$/i).fill(email);
+  await page.getByLabel(/^password$/i).fill(password);
   await page.getByRole('button', { name: /^sign in$/i }).click();
   await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
 }

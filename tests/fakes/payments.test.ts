@@ -282,7 +282,7 @@ describe('payments fake through the real SDK', () => {
 
     await control(fake, 'POST', '/_fake/webhooks/flush');
     expect(eventsOf('charge.refunded', charge.id).map((e) => (e.data.object as Stripe.Charge).amount_refunded)).toEqual([1000, 5000]);
-    expect(eventsOf('refund.created').map((e) => e.data.object.id)).toEqual(expect.arrayContaining([partial.id, rest.id]));
+    expect(eventsOf('refund.created').map((e) => (e.data.object as Stripe.Refund).id)).toEqual(expect.arrayContaining([partial.id, rest.id]));
   });
 
   it('opens a dispute after a payment with the dispute test card', async () => {

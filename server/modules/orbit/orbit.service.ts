@@ -1,0 +1,401 @@
+import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import type pg from 'pg';
+import type { Db } from '../../db/client';
+import { accounts } from '../accounts/accounts.tables';
+import { recordAudit } from '../audit/audit.repository';
+import { computeTrend, type Trend } from '../../../shared/orbit/trends';
+import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
+import { median } from '../../../shared/orbit/robust-stats';
+import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
+import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/sail-drag-balance';
+import { estimateLifetime } from '../../../shared/orbit/lifetime';
+import type { ElementSet, SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
+import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
+import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
+import { fileNotFound, sailingPeriodNotFound, spacecraftNotFound } from './orbit.errors';
+import { spacecraftView, type SpacecraftRow } from './spacecraft.repository';
+
+const DAY_MS = 86_400_000;
+/** Default window of the rate lines: the last 30 days of the history. */
+export const DEFAULT_RATE_WINDOW_DAYS = 30;
+
+export const SAFETY_CAUTION =
+  'Estimates from simple models — not for collision or re-entry safety decisions; rely on official space-surveillance providers.';
+
+const sortColumns = {
+  epoch: elementSets.epochMs,
+  elementSetNo: elementSets.elementSetNo,
+  semiMajorAxisKm: elementSets.semiMajorAxisKm,
+  eccentricity: elementSets.eccentricity,
+  inclinationDeg: elementSets.inclinationDeg,
+  apogeeAltitudeKm: elementSets.apogeeAltitudeKm,
+  perigeeAltitudeKm: elementSets.perigeeAltitudeKm,
+  bstar: elementSets.bstar,
+} as const;
+
+type PeriodRow = typeof sailingPeriods.$inferSelect;
+export function sailingPeriodView(p: PeriodRow) {
+  return { id: p.id, spacecraftId: p.spacecraftId, startAt: p.startAt.toISOString(), endAt: p.endAt.toISOString(), mode: p.mode, note: p.note, createdAt: p.createdAt.toISOString(), updatedAt: p.updatedAt.toISOString() };
+}
+
+/** Rows as the trend reads them: everything SGP4-derived is stored at import, so the trend only selects. */
+const TREND_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier
+  from element_sets where spacecraft_id = $1 order by epoch_ms, element_set_no`;
+
+const WINDOW_SQL = `select epoch_ms, to_char(epoch at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as epoch, element_set_no, source_line,
+  catalog_number_int, classification, international_designator, mean_motion_rev_per_day, mean_motion_dot_rev_per_day2,
+  mean_motion_ddot_rev_per_day3, bstar, inclination_deg, raan_deg, eccentricity, arg_perigee_deg, mean_anomaly_deg, rev_at_epoch, line1, line2
+  from element_sets where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms <= $3 order by epoch_ms`;
+
+type WindowRow = {
+  epoch_ms: number; epoch: string; element_set_no: number; source_line: number; catalog_number_int: number; classification: string;
+  international_designator: string; mean_motion_rev_per_day: number; mean_motion_dot_rev_per_day2: number; mean_motion_ddot_rev_per_day3: number;
+  bstar: number; inclination_deg: number; raan_deg: number; eccentricity: number; arg_perigee_deg: number; mean_anomaly_deg: number;
+  rev_at_epoch: number; line1: string; line2: string;
+};
+
+export function toElementSet(r: WindowRow, catalogNumber: string): ElementSet {
+  return {
+    catalogNumber, catalogNumberInt: r.catalog_number_int, classification: r.classification as ElementSet['classification'],
+    internationalDesignator: r.international_designator, epoch: r.epoch, epochMs: r.epoch_ms, meanMotionRevPerDay: r.mean_motion_rev_per_day,
+    meanMotionDotRevPerDay2: r.mean_motion_dot_rev_per_day2, meanMotionDdotRevPerDay3: r.mean_motion_ddot_rev_per_day3, bstar: r.bstar,
+    inclinationDeg: r.inclination_deg, raanDeg: r.raan_deg, eccentricity: r.eccentricity, argPerigeeDeg: r.arg_perigee_deg,
+    meanAnomalyDeg: r.mean_anomaly_deg, ephemerisType: 0, elementSetNo: r.element_set_no, revAtEpoch: r.rev_at_epoch,
+    sourceLine: r.source_line, line1: r.line1, line2: r.line2,
+  };
+}
+
+type TrendKey = 'apogeeAltitudeKm' | 'perigeeAltitudeKm' | 'meanAltitudeKm' | 'semiMajorAxisKm' | 'specificEnergyJPerKg';
+
+/** A straight line for the chart: the engine's Theil–Sen slope through the median of the window's good points. */
+function rateLine(trend: Trend, key: TrendKey, slopePerDay: number) {
+  const good = trend.points.filter((p) => !p.outlier);
+  if (good.length < 2) return null;
+  const t0 = good[0]!.epochMs;
+  const intercept = median(Float64Array.from(good, (p) => p[key] - (slopePerDay * (p.epochMs - t0)) / DAY_MS));
+  const t1 = good[good.length - 1]!.epochMs;
+  return { fromMs: t0, toMs: t1, fromValue: intercept, toValue: intercept + (slopePerDay * (t1 - t0)) / DAY_MS, slopePerDay };
+}
+
+function sailCraftOf(c: SpacecraftRow, dragAreaM2: number): SailCraft {
+  return { massKg: c.massKg, sailAreaM2: c.sailAreaM2, reflectivity: c.sailReflectivity, dragCoefficient: c.dragCoefficient, dragAreaM2 };
+}
+
+/**
+ * Drag area while raising, orbit-averaged: the sail faces the flow on the usable (sunlit, receding) arc and is
+ * turned edge-on for the rest — an assumption of this desk, stated beside the numbers.
+ */
+export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAreaEdgeOnM2'>, usableFraction: number) {
+  return usableFraction * c.sailAreaM2 + (1 - usableFraction) * c.dragAreaEdgeOnM2;
+}
+
+export function createOrbitService({ db }: { db: Db }) {
+  const pool = (db as unknown as { $client: pg.Pool }).$client;
+
+  async function craftOf(id: string) {
+    const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
+    if (!row) throw spacecraftNotFound();
+    return row;
+  }
+
+  async function periodsOf(spacecraftId: string) {
+    return db.select().from(sailingPeriods).where(eq(sailingPeriods.spacecraftId, spacecraftId)).orderBy(asc(sailingPeriods.startAt));
+  }
+
+  function historyFilter(spacecraftId: string, q: Pick<HistoryQuery, 'from' | 'to'>) {
+    const where: SQL[] = [eq(elementSets.spacecraftId, spacecraftId)];
+    if (q.from) where.push(gte(elementSets.epochMs, Date.parse(q.from)));
+    if (q.to) where.push(lte(elementSets.epochMs, Date.parse(q.to)));
+    return and(...where)!;
+  }
+
+  const historySelect = {
+    id: elementSets.id,
+    epoch: elementSets.epoch,
+    epochMs: elementSets.epochMs,
+    elementSetNo: elementSets.elementSetNo,
+    semiMajorAxisKm: elementSets.semiMajorAxisKm,
+    eccentricity: elementSets.eccentricity,
+    inclinationDeg: elementSets.inclinationDeg,
+    apogeeAltitudeKm: elementSets.apogeeAltitudeKm,
+    perigeeAltitudeKm: elementSets.perigeeAltitudeKm,
+    bstar: elementSets.bstar,
+    outlier: elementSets.outlier,
+    sourceLine: elementSets.sourceLine,
+    fileId: elementSets.fileId,
+    fileName: elementSetFiles.filename,
+  };
+
+  async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
+    const { rows } = await pool.query<{
+      epoch_ms: number; apogee_altitude_km: number; perigee_altitude_km: number; mean_altitude_km: number;
+      semi_major_axis_km: number; specific_energy_j_per_kg: number; outlier: boolean;
+    }>({ text: TREND_SQL, values: [craft.id], rowMode: undefined });
+    const n = rows.length;
+    const series = {
+      epochMs: new Array<number>(n), apogeeKm: new Array<number>(n), perigeeKm: new Array<number>(n), meanAltitudeKm: new Array<number>(n),
+      semiMajorAxisKm: new Array<number>(n), energyJPerKg: new Array<number>(n), outlier: [] as number[],
+    };
+    for (let i = 0; i < n; i++) {
+      const r = rows[i]!;
+      series.epochMs[i] = r.epoch_ms;
+      series.apogeeKm[i] = r.apogee_altitude_km;
+      series.perigeeKm[i] = r.perigee_altitude_km;
+      series.meanAltitudeKm[i] = r.mean_altitude_km;
+      series.semiMajorAxisKm[i] = r.semi_major_axis_km;
+      series.energyJPerKg[i] = r.specific_energy_j_per_kg;
+      if (r.outlier) series.outlier.push(i);
+    }
+    const lastMs = n ? series.epochMs[n - 1]! : null;
+    const toMs = window.toMs ?? lastMs ?? Date.now();
+    const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
+    const { rows: win } = await pool.query<WindowRow>(WINDOW_SQL, [craft.id, fromMs, toMs]);
+    const sets = win.map((r) => toElementSet(r, craft.catalogNumber));
+    const trend = computeTrend(sets, { fromMs, toMs, catalogNumber: craft.catalogNumber });
+    const r = trend.rates;
+    const rateLines = r
+      ? {
+          apogee: rateLine(trend, 'apogeeAltitudeKm', r.apogeeKmPerDay),
+          perigee: rateLine(trend, 'perigeeAltitudeKm', r.perigeeKmPerDay),
+          meanAltitude: rateLine(trend, 'meanAltitudeKm', r.semiMajorAxisKmPerDay),
+          semiMajorAxis: rateLine(trend, 'semiMajorAxisKm', r.semiMajorAxisKmPerDay),
+          energy: rateLine(trend, 'specificEnergyJPerKg', r.energyJPerKgPerDay),
+        }
+      : null;
+    return {
+      series,
+      window: { fromMs, toMs, outlierEpochsMs: trend.points.filter((p) => p.outlier).map((p) => p.epochMs) },
+      rates: trend.rates,
+      intervals: trend.intervals,
+      counts: trend.counts,
+      spanDays: trend.spanDays,
+      rateLines,
+    };
+  }
+
+  return {
+    async listHistory(spacecraftId: string, q: HistoryQuery) {
+      await craftOf(spacecraftId);
+      const where = historyFilter(spacecraftId, q);
+      const col = sortColumns[q.sort];
+      const order = q.dir === 'asc' ? [asc(col), asc(elementSets.id)] : [desc(col), desc(elementSets.id)];
+      const [rows, [count]] = await Promise.all([
+        db
+          .select(historySelect)
+          .from(elementSets)
+          .innerJoin(elementSetFiles, eq(elementSetFiles.id, elementSets.fileId))
+          .where(where)
+          .orderBy(...order)
+          .limit(q.pageSize)
+          .offset((q.page - 1) * q.pageSize),
+        db.select({ n: sql<number>`count(*)::int` }).from(elementSets).where(where),
+      ]);
+      const total = count?.n ?? 0;
+      return {
+        rows: rows.map((r) => ({ ...r, epoch: r.epoch.toISOString() })),
+        page: q.page,
+        pageSize: q.pageSize,
+        total,
+        pageCount: Math.max(1, Math.ceil(total / q.pageSize)),
+      };
+    },
+
+    /** CSV of the filtered history, in the chosen order. */
+    async historyCsv(spacecraftId: string, q: HistoryQuery): Promise<string> {
+      await craftOf(spacecraftId);
+      const col = sortColumns[q.sort];
+      const rows = await db
+        .select(historySelect)
+        .from(elementSets)
+        .innerJoin(elementSetFiles, eq(elementSetFiles.id, elementSets.fileId))
+        .where(historyFilter(spacecraftId, q))
+        .orderBy(q.dir === 'asc' ? asc(col) : desc(col), q.dir === 'asc' ? asc(elementSets.id) : desc(elementSets.id));
+      const esc = (v: string) => (/[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v);
+      const lines = ['epoch_utc,element_set_no,semi_major_axis_km,eccentricity,inclination_deg,apogee_altitude_km,perigee_altitude_km,bstar_per_earth_radius,outlier,source_file,source_line'];
+      for (const r of rows) {
+        lines.push([
+          r.epoch.toISOString(), r.elementSetNo, r.semiMajorAxisKm.toFixed(4), r.eccentricity.toFixed(7), r.inclinationDeg.toFixed(4),
+          r.apogeeAltitudeKm.toFixed(4), r.perigeeAltitudeKm.toFixed(4), r.bstar.toExponential(5), r.outlier, esc(r.fileName), r.sourceLine,
+        ].join(','));
+      }
+      return lines.join('\r\n') + '\r\n';
+    },
+
+    async getTrend(spacecraftId: string, window: { fromMs?: number; toMs?: number }) {
+      const craft = await craftOf(spacecraftId);
+      const [trend, periods] = await Promise.all([loadTrend(craft, window), periodsOf(spacecraftId)]);
+      return { spacecraft: spacecraftView(craft), ...trend, sailingPeriods: periods.map(sailingPeriodView) };
+    },
+
+    async getSailYield(spacecraftId: string) {
+      const craft = await craftOf(spacecraftId);
+      const periods = await periodsOf(spacecraftId);
+      const { rows } = await pool.query<{ epoch_ms: number; e: number; a: number; outlier: boolean }>(
+        'select epoch_ms, specific_energy_j_per_kg as e, semi_major_axis_km as a, outlier from element_sets where spacecraft_id = $1 order by epoch_ms',
+        [craft.id],
+      );
+      const comparison = compareSailingPeriods(
+        rows.map((r) => ({ epochMs: r.epoch_ms, specificEnergyJPerKg: r.e, semiMajorAxisKm: r.a, outlier: r.outlier })),
+        periods.map((p) => ({ startMs: p.startAt.getTime(), endMs: p.endAt.getTime(), mode: p.mode as SailMode })),
+      );
+      const { rows: latestRows } = await pool.query<{ epoch_ms: number; mean_altitude_km: number; semi_major_axis_km: number; eccentricity: number; inclination_deg: number; raan_deg: number }>(
+        'select epoch_ms, mean_altitude_km, semi_major_axis_km, eccentricity, inclination_deg, raan_deg from element_sets where spacecraft_id = $1 and not outlier order by epoch_ms desc limit 1',
+        [craft.id],
+      );
+      const latest = latestRows[0];
+      if (!latest) return { spacecraft: spacecraftView(craft), comparison, model: null, caution: SAFETY_CAUTION };
+      const altitudeKm = latest.mean_altitude_km;
+      const betaDeg = betaAngleDeg({ epochMs: latest.epoch_ms, inclinationDeg: latest.inclination_deg, raanDeg: latest.raan_deg });
+      const geometry = sailThrustGeometry({ altitudeKm, betaDeg, samples: 720 });
+      const raisingArea = raisingDragAreaM2(craft, geometry.usableFraction);
+      const activities: SolarActivity[] = ['low', 'mean', 'high'];
+      const byActivity = activities.map((activity) => {
+        const raising = orbitEnergyBalance(sailCraftOf(craft, raisingArea), altitudeKm, { density: activity, betaDeg });
+        const edgeOn = orbitEnergyBalance(sailCraftOf(craft, craft.dragAreaEdgeOnM2), altitudeKm, { density: activity, betaDeg, sailing: false });
+        return {
+          activity,
+          densityKgPerM3: raising.densityKgPerM3,
+          expectedSailAccelMPerS2: raising.sailGainWPerKg / raising.speedMPerS,
+          dragAccelRaisingMPerS2: raising.dragLossWPerKg / raising.speedMPerS,
+          dragAccelEdgeOnMPerS2: edgeOn.dragLossWPerKg / edgeOn.speedMPerS,
+          netRaisingSemiMajorAxisKmPerDay: raising.semiMajorAxisRateKmPerDay,
+          edgeOnSemiMajorAxisKmPerDay: edgeOn.semiMajorAxisRateKmPerDay,
+          crossoverAltitudeKm: crossoverAltitudeKm(sailCraftOf(craft, raisingArea), { density: activity, betaDeg }),
+        };
+      });
+      const lifetime = estimateLifetime(
+        { epochMs: latest.epoch_ms, semiMajorAxisKm: latest.semi_major_axis_km, eccentricity: latest.eccentricity },
+        { massKg: craft.massKg, dragAreaM2: craft.dragAreaEdgeOnM2, dragCoefficient: craft.dragCoefficient },
+      );
+      return {
+        spacecraft: spacecraftView(craft),
+        comparison,
+        model: {
+          atEpochMs: latest.epoch_ms,
+          altitudeKm,
+          betaDeg,
+          sunlitFraction: geometry.sunlitFraction,
+          usableThrustFraction: geometry.usableFraction,
+          raisingDragAreaM2: raisingArea,
+          byActivity,
+          assumptions: [
+            'circular orbit at the latest set’s mean altitude; Sun elevation above the orbit plane (β) at that epoch',
+            'sail normal kept along the velocity on the sunlit arc where the craft recedes from the Sun, edge-on elsewhere',
+            `drag area while raising averaged over the orbit: ${raisingArea.toFixed(2)} m²; edge-on ${craft.dragAreaEdgeOnM2} m²`,
+          ],
+        },
+        lifetime: lifetime ? { ...lifetime, basis: 'sail edge-on (drag only)' } : null,
+        caution: SAFETY_CAUTION,
+      };
+    },
+
+    async listFiles(spacecraftId: string) {
+      await craftOf(spacecraftId);
+      const rows = await db
+        .select({
+          id: elementSetFiles.id, filename: elementSetFiles.filename, format: elementSetFiles.format, byteSize: elementSetFiles.byteSize,
+          contentSha256: elementSetFiles.contentSha256, recordCount: elementSetFiles.recordCount, importedCount: elementSetFiles.importedCount,
+          duplicateCount: elementSetFiles.duplicateCount, invalidCount: elementSetFiles.invalidCount, uploadedAt: elementSetFiles.uploadedAt,
+          uploadedBy: accounts.displayName,
+        })
+        .from(elementSetFiles)
+        .leftJoin(accounts, eq(accounts.id, elementSetFiles.uploadedBy))
+        .where(eq(elementSetFiles.spacecraftId, spacecraftId))
+        .orderBy(desc(elementSetFiles.uploadedAt));
+      return rows.map((r) => ({ ...r, uploadedAt: r.uploadedAt.toISOString() }));
+    },
+
+    async getFileOriginal(fileId: string) {
+      const [row] = await db
+        .select({ filename: elementSetFiles.filename, content: elementSetFiles.content })
+        .from(elementSetFiles)
+        .where(eq(elementSetFiles.id, fileId));
+      if (!row) throw fileNotFound();
+      return row;
+    },
+
+    async listSailingPeriods(spacecraftId: string) {
+      await craftOf(spacecraftId);
+      return (await periodsOf(spacecraftId)).map(sailingPeriodView);
+    },
+
+    async createSailingPeriod(actorId: string | null, spacecraftId: string, input: SailingPeriodInput) {
+      await craftOf(spacecraftId);
+      return db.transaction(async (tx) => {
+        const [row] = await tx
+          .insert(sailingPeriods)
+          .values({ spacecraftId, startAt: new Date(input.startAt), endAt: new Date(input.endAt), mode: input.mode, note: input.note, createdBy: actorId })
+          .returning();
+        const view = sailingPeriodView(row!);
+        await recordAudit(tx, { actorId, action: 'sailing_period.created', subjectType: 'sailing_period', subjectId: row!.id, after: view });
+        return view;
+      });
+    },
+
+    async updateSailingPeriod(actorId: string | null, id: string, input: SailingPeriodInput) {
+      return db.transaction(async (tx) => {
+        const [before] = await tx.select().from(sailingPeriods).where(eq(sailingPeriods.id, id)).for('update');
+        if (!before) throw sailingPeriodNotFound();
+        const [row] = await tx
+          .update(sailingPeriods)
+          .set({ startAt: new Date(input.startAt), endAt: new Date(input.endAt), mode: input.mode, note: input.note, updatedAt: new Date() })
+          .where(eq(sailingPeriods.id, id))
+          .returning();
+        const view = sailingPeriodView(row!);
+        await recordAudit(tx, { actorId, action: 'sailing_period.updated', subjectType: 'sailing_period', subjectId: id, before: sailingPeriodView(before), after: view });
+        return view;
+      });
+    },
+
+    async deleteSailingPeriod(actorId: string | null, id: string) {
+      await db.transaction(async (tx) => {
+        const [row] = await tx.delete(sailingPeriods).where(eq(sailingPeriods.id, id)).returning();
+        if (!row) throw sailingPeriodNotFound();
+        await recordAudit(tx, { actorId, action: 'sailing_period.deleted', subjectType: 'sailing_period', subjectId: id, before: sailingPeriodView(row) });
+      });
+    },
+
+    /** The public orbit summary: latest apogee/perigee and the trend since sail deployment. */
+    async publicSummary(slug: string) {
+      const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.slug, slug));
+      if (!craft) throw spacecraftNotFound();
+      const { rows } = await pool.query<{ epoch_ms: number; epoch: Date; apogee_altitude_km: number; perigee_altitude_km: number; mean_altitude_km: number }>(
+        `select epoch_ms, epoch, apogee_altitude_km, perigee_altitude_km, mean_altitude_km from element_sets
+          where spacecraft_id = $1 and not outlier order by epoch_ms desc limit 1`,
+        [craft.id],
+      );
+      const latest = rows[0];
+      const base = { spacecraft: { name: craft.name, slug: craft.slug, catalogNumber: craft.catalogNumber, sailDeployedAt: craft.sailDeployedAt?.toISOString() ?? null } };
+      if (!latest) return { ...base, latest: null, sinceSailDeployment: null, caution: SAFETY_CAUTION };
+      const fromMs = craft.sailDeployedAt?.getTime();
+      let since = null;
+      if (fromMs !== undefined) {
+        const { rows: first } = await pool.query<{ epoch_ms: number; apogee_altitude_km: number; perigee_altitude_km: number }>(
+          `select epoch_ms, apogee_altitude_km, perigee_altitude_km from element_sets
+            where spacecraft_id = $1 and not outlier and epoch_ms >= $2 order by epoch_ms limit 1`,
+          [craft.id, fromMs],
+        );
+        const f = first[0];
+        if (f) {
+          const days = (latest.epoch_ms - f.epoch_ms) / DAY_MS;
+          since = {
+            fromEpoch: new Date(f.epoch_ms).toISOString(),
+            days,
+            apogeeChangeKm: latest.apogee_altitude_km - f.apogee_altitude_km,
+            perigeeChangeKm: latest.perigee_altitude_km - f.perigee_altitude_km,
+            apogeeKmPerDay: days > 0 ? (latest.apogee_altitude_km - f.apogee_altitude_km) / days : null,
+            perigeeKmPerDay: days > 0 ? (latest.perigee_altitude_km - f.perigee_altitude_km) / days : null,
+          };
+        }
+      }
+      return {
+        ...base,
+        latest: { epoch: latest.epoch.toISOString(), apogeeKm: latest.apogee_altitude_km, perigeeKm: latest.perigee_altitude_km, meanAltitudeKm: latest.mean_altitude_km },
+        sinceSailDeployment: since,
+        caution: SAFETY_CAUTION,
+      };
+    },
+  };
+}
+
+export type OrbitService = ReturnType<typeof createOrbitService>;

@@ -1,0 +1,402 @@
+// Applies the processor's webhook events. Each event is applied once (its id goes into processed_events in
+// the same transaction as the change) and every handler reconciles from the processor's current objects,
+// so duplicates change nothing and events arriving out of order still end in the right state.
+import { and, eq } from 'drizzle-orm';
+import type Stripe from 'stripe';
+import type { Logger } from 'pino';
+import type { Db } from '../../db/client';
+import type { Config } from '../../config';
+import type { Mailer } from '../../lib/mailer';
+import { processedEvents } from './payments.tables';
+import { pledges, memberships } from '../pledges/pledges.tables';
+import { campaigns, tiers } from '../campaigns/campaigns.tables';
+import { accounts, emailPreferences } from '../accounts/accounts.tables';
+import { ledgerEntries } from '../ledger/ledger.tables';
+import { appendLedgerEntry, pledgeIdOfCharge } from '../ledger/ledger.repository';
+import {
+  lockPledge,
+  markAbandoned,
+  markFailed,
+  recordCharge,
+  recordDispute,
+  recordRefund,
+  refreshPledgeState,
+  type ChargeFacts,
+  type PledgeRow,
+  type Tx,
+} from '../pledges/pledge-ledger';
+import type { Processor } from './processor';
+import type { CampaignsService } from '../campaigns/campaigns.service';
+
+/** The event cannot be applied yet (what it refers to has not arrived); answering non-2xx makes the processor retry. */
+export class RetryLater extends Error {}
+
+type AfterCommit = () => Promise<void>;
+type Outcome = 'applied' | 'duplicate' | 'ignored';
+
+const uuidRe = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const idOf = (v: string | { id: string } | null | undefined) => (typeof v === 'string' ? v : (v?.id ?? null));
+const pledgeIdIn = (metadata: Stripe.Metadata | null | undefined) => {
+  const id = metadata?.pledge_id;
+  return id && uuidRe.test(id) ? id : null;
+};
+
+function subscriptionOfInvoice(invoice: Stripe.Invoice): { subscriptionId: string | null; pledgeId: string | null } {
+  const details = invoice.parent?.subscription_details;
+  const legacy = (invoice as unknown as { subscription?: string | { id: string } | null }).subscription;
+  return { subscriptionId: idOf(details?.subscription ?? legacy ?? null), pledgeId: pledgeIdIn(details?.metadata) };
+}
+
+function periodEndOf(sub: Stripe.Subscription): Date | null {
+  const fromItem = sub.items?.data?.[0]?.current_period_end;
+  const legacy = (sub as unknown as { current_period_end?: number }).current_period_end;
+  const end = fromItem ?? legacy;
+  return typeof end === 'number' ? new Date(end * 1000) : null;
+}
+
+export function createPaymentsService(deps: { db: Db; config: Config; mailer: Mailer; processor: Processor; campaigns: CampaignsService; logger: Logger }) {
+  const { db, config, mailer, processor } = deps;
+  const stripe = processor.stripe;
+
+  async function pledgeIdByColumn(column: 'paymentIntentId' | 'subscriptionId', value: string | null) {
+    if (!value) return null;
+    const [row] = await db.select({ id: pledges.id }).from(pledges).where(eq(pledges[column], value));
+    return row?.id ?? null;
+  }
+
+  async function pledgeIdForCharge(charge: Stripe.Charge): Promise<string | null> {
+    return (
+      pledgeIdIn(charge.metadata) ??
+      (await pledgeIdByColumn('paymentIntentId', idOf(charge.payment_intent as string | null))) ??
+      (await pledgeIdOfCharge(db, charge.id))
+    );
+  }
+
+  async function exists(pledgeId: string | null) {
+    if (!pledgeId) return null;
+    const [row] = await db.select({ id: pledges.id }).from(pledges).where(eq(pledges.id, pledgeId));
+    return row?.id ?? null;
+  }
+
+  async function chargesOfInvoice(invoice: Stripe.Invoice): Promise<ChargeFacts[]> {
+    const full = invoice.payments?.data ? invoice : await stripe.invoices.retrieve(invoice.id!, { expand: ['payments'] });
+    const out: ChargeFacts[] = [];
+    for (const p of full.payments?.data ?? []) {
+      const piId = idOf(p.payment?.payment_intent as string | null);
+      const chargeId = idOf(p.payment?.charge as string | null);
+      const facts = piId ? await processor.chargeOfPaymentIntent(piId, invoice.id) : chargeId ? await processor.chargeFacts(chargeId, invoice.id) : null;
+      if (facts) out.push(facts);
+    }
+    return out;
+  }
+
+  async function upsertMembership(tx: Tx, pledge: PledgeRow, sub: Stripe.Subscription) {
+    const values = {
+      status: sub.status,
+      currentPeriodEnd: periodEndOf(sub),
+      cancelAtPeriodEnd: sub.cancel_at_period_end,
+      endedAt: sub.ended_at ? new Date(sub.ended_at * 1000) : null,
+      updatedAt: new Date(),
+    };
+    const [row] = await tx
+      .insert(memberships)
+      .values({
+        pledgeId: pledge.id,
+        backerId: pledge.backerId,
+        tierId: pledge.tierId,
+        subscriptionId: sub.id,
+        customerId: idOf(sub.customer as string)!,
+        ...values,
+      })
+      .onConflictDoUpdate({ target: memberships.subscriptionId, set: values })
+      .returning();
+    if (pledge.subscriptionId !== sub.id) {
+      await tx.update(pledges).set({ subscriptionId: sub.id, processorCustomerId: idOf(sub.customer as string), updatedAt: new Date() }).where(eq(pledges.id, pledge.id));
+    }
+    return row!;
+  }
+
+  async function wantsMail(accountId: string, kind: 'receipts' | 'membership') {
+    const [prefs] = await db.select().from(emailPreferences).where(eq(emailPreferences.accountId, accountId));
+    return prefs ? prefs[kind] : true;
+  }
+
+  function confirmationMail(pledgeId: string): AfterCommit {
+    return async () => {
+      const [row] = await db
+        .select({ pledge: pledges, account: accounts, campaignTitle: campaigns.title, tierTitle: tiers.title })
+        .from(pledges)
+        .innerJoin(campaigns, eq(campaigns.id, pledges.campaignId))
+        .leftJoin(tiers, eq(tiers.id, pledges.tierId))
+        .leftJoin(accounts, eq(accounts.id, pledges.backerId))
+        .where(eq(pledges.id, pledgeId));
+      if (!row?.account || row.account.deletedAt || !(await wantsMail(row.account.id, 'receipts'))) return;
+      const [charge] = await db
+        .select({ id: ledgerEntries.id, amountMinor: ledgerEntries.amountMinor, currency: ledgerEntries.currency })
+        .from(ledgerEntries)
+        .where(and(eq(ledgerEntries.pledgeId, pledgeId), eq(ledgerEntries.kind, 'charge')))
+        .orderBy(ledgerEntries.occurredAt, ledgerEntries.id)
+        .limit(1);
+      if (!charge) return;
+      try {
+        await mailer.send('pledge-confirmation', row.account.email, {
+          displayName: row.account.displayName,
+          campaignTitle: row.campaignTitle,
+          ...(row.tierTitle ? { tierTitle: row.tierTitle } : {}),
+          amountMinor: charge.amountMinor,
+          currency: charge.currency,
+          receiptUrl: `${config.PUBLIC_URL}/my-support/receipts/${charge.id}`,
+        });
+      } catch (err) {
+        // Give the claim back so a later event of this pledge can try again.
+        await db.update(pledges).set({ confirmationSentAt: null }).where(eq(pledges.id, pledgeId));
+        throw err;
+      }
+    };
+  }
+
+  function renewalFailedMail(pledgeId: string, membershipId: string, invoice: Stripe.Invoice): AfterCommit {
+    return async () => {
+      const [row] = await db
+        .select({ account: accounts, campaignTitle: campaigns.title })
+        .from(pledges)
+        .innerJoin(campaigns, eq(campaigns.id, pledges.campaignId))
+        .leftJoin(accounts, eq(accounts.id, pledges.backerId))
+        .where(eq(pledges.id, pledgeId));
+      if (!row?.account || row.account.deletedAt || !(await wantsMail(row.account.id, 'membership'))) return;
+      await mailer.send('renewal-failed', row.account.email, {
+        displayName: row.account.displayName,
+        campaignTitle: row.campaignTitle,
+        amountMinor: invoice.amount_due,
+        currency: invoice.currency.toUpperCase(),
+        updateCardUrl: `${config.PUBLIC_URL}/my-support/memberships/${membershipId}/card`,
+        ...(invoice.next_payment_attempt ? { nextAttemptAt: new Date(invoice.next_payment_attempt * 1000) } : {}),
+      });
+    };
+  }
+
+  /** Records money facts for a locked pledge and moves its state; the first payment queues the confirmation. */
+  async function settle(tx: Tx, pledge: PledgeRow, apply: (p: PledgeRow) => Promise<void>, after: AfterCommit[]) {
+    await apply(pledge);
+    const { firstPaid } = await refreshPledgeState(tx, pledge);
+    if (firstPaid) after.push(confirmationMail(pledge.id));
+  }
+
+  type Handler = { pledgeId: string | null; run: (tx: Tx, pledge: PledgeRow | null, after: AfterCommit[]) => Promise<void> };
+
+  /** Works out which pledge the event is about (outside the transaction) and what to do with it (inside). */
+  async function route(event: Stripe.Event): Promise<Handler | null> {
+    switch (event.type) {
+      case 'checkout.session.completed':
+      case 'checkout.session.async_payment_succeeded': {
+        const s = event.data.object;
+        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? (s.client_reference_id && uuidRe.test(s.client_reference_id) ? s.client_reference_id : null));
+        if (!pledgeId) return null;
+        return {
+          pledgeId,
+          run: async (tx, pledge, after) => {
+            const session = await stripe.checkout.sessions.retrieve(s.id);
+            await tx
+              .update(pledges)
+              .set({
+                checkoutSessionId: session.id,
+                checkoutUrl: null,
+                paymentIntentId: idOf(session.payment_intent as string | null) ?? pledge!.paymentIntentId,
+                processorCustomerId: idOf(session.customer as string | null) ?? pledge!.processorCustomerId,
+                updatedAt: new Date(),
+              })
+              .where(eq(pledges.id, pledge!.id));
+            const current = (await lockPledge(tx, pledge!.id))!;
+            await settle(
+              tx,
+              current,
+              async (p) => {
+                if (session.mode === 'subscription' && session.subscription) {
+                  await upsertMembership(tx, p, await stripe.subscriptions.retrieve(idOf(session.subscription as string)!));
+                  const invoiceId = idOf(session.invoice as string | null);
+                  if (invoiceId) for (const facts of await chargesOfInvoice(await stripe.invoices.retrieve(invoiceId))) await recordCharge(tx, p, facts);
+                } else if (session.payment_intent) {
+                  const facts = await processor.chargeOfPaymentIntent(idOf(session.payment_intent as string)!);
+                  if (facts) await recordCharge(tx, p, facts);
+                }
+              },
+              after,
+            );
+          },
+        };
+      }
+
+      case 'checkout.session.expired': {
+        const s = event.data.object;
+        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? s.client_reference_id ?? null);
+        if (!pledgeId) return null;
+        return {
+          pledgeId,
+          run: async (tx, pledge) => {
+            await markAbandoned(tx, pledge!, 'The checkout link expired before a payment was made.');
+          },
+        };
+      }
+
+      case 'payment_intent.succeeded': {
+        const pi = event.data.object;
+        const pledgeId = await exists(pledgeIdIn(pi.metadata) ?? (await pledgeIdByColumn('paymentIntentId', pi.id)));
+        // Payments of memberships carry no pledge: their invoice events record them.
+        if (!pledgeId) return null;
+        return {
+          pledgeId,
+          run: async (tx, pledge, after) => {
+            if (!pledge!.paymentIntentId) await tx.update(pledges).set({ paymentIntentId: pi.id }).where(eq(pledges.id, pledge!.id));
+            const facts = await processor.chargeOfPaymentIntent(pi.id);
+            await settle(tx, pledge!, async (p) => void (facts && (await recordCharge(tx, p, facts))), after);
+          },
+        };
+      }
+
+      case 'payment_intent.payment_failed': {
+        const pi = event.data.object;
+        const pledgeId = await exists(pledgeIdIn(pi.metadata) ?? (await pledgeIdByColumn('paymentIntentId', pi.id)));
+        if (!pledgeId) return null;
+        return {
+          pledgeId,
+          run: async (tx, pledge) => {
+            // A later, successful try of the same checkout may already have landed: then this is history.
+            const current = await stripe.paymentIntents.retrieve(pi.id);
+            if (current.status === 'succeeded') return;
+            const err = pi.last_payment_error;
+            if (!pledge!.paymentIntentId) await tx.update(pledges).set({ paymentIntentId: pi.id }).where(eq(pledges.id, pledge!.id));
+            await markFailed(tx, pledge!, {
+              code: err?.decline_code ?? err?.code ?? 'payment_failed',
+              reason: err?.message ?? 'The payment did not go through.',
+            });
+          },
+        };
+      }
+
+      case 'charge.refunded':
+      case 'charge.refund.updated':
+      case 'refund.created':
+      case 'refund.updated':
+      case 'charge.dispute.created':
+      case 'charge.dispute.funds_withdrawn': {
+        const obj = event.data.object as Stripe.Charge | Stripe.Refund | Stripe.Dispute;
+        const chargeId = obj.object === 'charge' ? obj.id : idOf(obj.charge as string | null);
+        if (!chargeId) return null;
+        const charge = obj.object === 'charge' ? obj : await stripe.charges.retrieve(chargeId);
+        const pledgeId = await exists(await pledgeIdForCharge(charge));
+        // A refund or dispute of a charge we have not linked yet (its payment event is still on the way).
+        if (!pledgeId) throw new RetryLater(`no pledge yet for charge ${chargeId}`);
+        return {
+          pledgeId,
+          run: async (tx, pledge, after) => {
+            const facts = await processor.chargeFacts(chargeId);
+            const refunds = await stripe.refunds.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 1000 });
+            const disputes = event.type.startsWith('charge.dispute') ? await stripe.disputes.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 100 }) : [];
+            await settle(
+              tx,
+              pledge!,
+              async (p) => {
+                await recordCharge(tx, p, facts);
+                for (const r of refunds) await recordRefund(tx, p, r);
+                for (const d of disputes) await recordDispute(tx, p, d);
+              },
+              after,
+            );
+          },
+        };
+      }
+
+      case 'invoice.paid':
+      case 'invoice.payment_failed': {
+        const invoice = event.data.object;
+        const { subscriptionId, pledgeId: fromMeta } = subscriptionOfInvoice(invoice);
+        if (!subscriptionId) return null;
+        const pledgeId = await exists(fromMeta ?? (await pledgeIdByColumn('subscriptionId', subscriptionId)));
+        if (!pledgeId) throw new RetryLater(`no pledge yet for subscription ${subscriptionId}`);
+        return {
+          pledgeId,
+          run: async (tx, pledge, after) => {
+            const sub = await stripe.subscriptions.retrieve(subscriptionId);
+            const membership = await upsertMembership(tx, pledge!, sub);
+            if (event.type === 'invoice.paid') {
+              const charges = await chargesOfInvoice(invoice);
+              await settle(
+                tx,
+                pledge!,
+                async (p) => {
+                  for (const facts of charges) await recordCharge(tx, p, facts);
+                },
+                after,
+              );
+            } else if (invoice.billing_reason !== 'subscription_create') {
+              after.push(renewalFailedMail(pledge!.id, membership.id, invoice));
+            }
+          },
+        };
+      }
+
+      case 'customer.subscription.created':
+      case 'customer.subscription.updated':
+      case 'customer.subscription.deleted':
+      case 'customer.subscription.paused':
+      case 'customer.subscription.resumed': {
+        const sub = event.data.object;
+        const pledgeId = await exists(pledgeIdIn(sub.metadata) ?? (await pledgeIdByColumn('subscriptionId', sub.id)));
+        if (!pledgeId) return null;
+        return {
+          pledgeId,
+          run: async (tx, pledge) => {
+            await upsertMembership(tx, pledge!, await stripe.subscriptions.retrieve(sub.id));
+          },
+        };
+      }
+
+      case 'payout.paid': {
+        const payout = event.data.object;
+        return {
+          pledgeId: null,
+          run: async (tx) => {
+            await appendLedgerEntry(tx, {
+              kind: 'payout',
+              amountMinor: -payout.amount,
+              currency: payout.currency,
+              processorObjectId: payout.id,
+              processorBalanceTransactionId: idOf(payout.balance_transaction as string | null),
+              description: 'Payout to the bank account',
+              occurredAt: new Date((payout.arrival_date ?? payout.created) * 1000),
+            });
+          },
+        };
+      }
+
+      default:
+        return null;
+    }
+  }
+
+  return {
+    async handle(event: Stripe.Event): Promise<Outcome> {
+      const [seen] = await db.select({ id: processedEvents.eventId }).from(processedEvents).where(eq(processedEvents.eventId, event.id));
+      if (seen) return 'duplicate';
+      const handler = await route(event);
+      const after: AfterCommit[] = [];
+      const fresh = await db.transaction(async (tx) => {
+        const claimed = await tx.insert(processedEvents).values({ eventId: event.id, type: event.type }).onConflictDoNothing().returning();
+        if (claimed.length === 0) return false;
+        if (handler) {
+          const pledge = handler.pledgeId ? await lockPledge(tx, handler.pledgeId) : null;
+          await handler.run(tx, pledge ?? null, after);
+        }
+        return true;
+      });
+      if (!fresh) return 'duplicate';
+      if (handler) deps.campaigns.invalidate();
+      for (const fn of after) {
+        await fn().catch((err: unknown) => deps.logger.error({ err, eventId: event.id }, 'mail after a payment event failed'));
+      }
+      return handler ? 'applied' : 'ignored';
+    },
+  };
+}
+
+export type PaymentsService = ReturnType<typeof createPaymentsService>;
