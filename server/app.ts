@@ -20,6 +20,8 @@ import { createPassport } from './modules/auth/passport';
 import { createAuthRouter } from './modules/auth/auth.routes';
 import { createAccountRouter, createAdminRouter } from './modules/accounts/accounts.routes';
 import { createHealthRouter } from './modules/health/health.routes';
+import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
+import { createFunding } from './modules/pledges/funding';
 
 export type AppDeps = {
   db: Db;
@@ -81,6 +83,8 @@ export function createApp(deps: AppDeps): Express {
   app.use(pp.session());
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
+  const funding = createFunding({ db, pool, config, mailer, stripe: deps.stripe, logger });
+  mount(app, '/api/payments', funding.webhookRouter);
   app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
 
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
@@ -92,6 +96,15 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
   mount(app, '/api/account', createAccountRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));
+  mount(app, '/api/campaigns', funding.campaignsRouter);
+  mount(app, '/api/pledges', funding.pledgesRouter);
+  mount(app, '/api/my-support', funding.mySupportRouter);
+  mount(app, '/api/ledger', funding.ledgerRouter);
+
+  const orbitDesk = createOrbitModule({ db, logger });
+  mount(app, '/api/orbit', createOrbitRouter({ db, config, module: orbitDesk }));
+  mount(app, '/api/public/orbit', createPublicOrbitRouter({ module: orbitDesk }));
+  mount(app, '/api/public/snapshots', createPublicSnapshotsRouter({ module: orbitDesk }));
 
   app.use('/api', notFoundApi);
 

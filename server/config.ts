@@ -27,6 +27,8 @@ const configSchema = z.object({
   STRIPE_WEBHOOK_SECRET: z.string().min(1).default('whsec_lightkeel_local'),
   // host:port of the payment API; empty = the processor's own API.
   STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
+  // How long a public campaign read may be served from memory (progress is "consistent within seconds").
+  CAMPAIGN_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
 });
 
 export type Config = z.infer<typeof configSchema>;

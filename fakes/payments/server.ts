@@ -364,7 +364,7 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       return;
     }
     if (opts.apiKey && key !== opts.apiKey) {
-      sendJson(res, 401, { error: { type: 'invalid_request_error', code: 'api_key_invalid', message: `Invalid API Key provided: ${key.slice(0, 8)}****${key.slice(-4)}` } });
+      sendJson(res, 401, { error: { type: 'invalid_request_error', code: 'api_key_invalid', message: `Invalid API Key provided: ${key.length > 12 ? `${key.slice(0, 8)}****${key.slice(-4)}` : '****'}` } });
       return;
     }
     const method = req.method ?? 'GET';

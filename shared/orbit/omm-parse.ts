@@ -111,7 +111,10 @@ export function parseOmmXml(text: string): Parsed {
   const out: Parsed = { records: [], errors: [] };
   const valid = XMLValidator.validate(text);
   if (valid !== true) {
-    out.errors.push({ line: valid.err.line, columns: [valid.err.col, valid.err.col], message: `XML: ${valid.err.msg}`, expected: 'well-formed XML' });
+    const { line, col, msg } = valid.err;
+    const e: ParseError = { line: Number.isInteger(line) && line >= 1 ? line : 1, message: `XML: ${msg}`, expected: 'well-formed XML' };
+    if (Number.isInteger(col) && col >= 1) e.columns = [col, col];
+    out.errors.push(e);
     return out;
   }
   let doc: Record<string, unknown>;

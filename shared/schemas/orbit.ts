@@ -82,9 +82,17 @@ export const createSnapshotSchema = z.object({
   fromMs: z.number().finite(),
   toMs: z.number().finite(),
   series: z.array(snapshotSeriesSchema).min(1, { message: 'pick at least one series' }).max(5),
+  /** The window of the rate lines; defaults to the chart's window. */
+  rateFromMs: z.number().finite().optional(),
+  rateToMs: z.number().finite().optional(),
   annotations: z.array(snapshotAnnotationSchema).max(20).default([]),
   isPublic: z.boolean().default(false),
-}).refine((s) => s.toMs > s.fromMs, { message: 'must be after the start', path: ['toMs'] });
+})
+  .refine((s) => s.toMs > s.fromMs, { message: 'must be after the start', path: ['toMs'] })
+  .refine((s) => new Set(s.series.map((k) => (k === 'semiMajorAxis' ? 'a' : k === 'energy' ? 'e' : 'h'))).size <= 2, {
+    message: 'pick series of at most two kinds (altitudes, semi-major axis, energy): a chart has two axes',
+    path: ['series'],
+  });
 export type CreateSnapshotInput = z.output<typeof createSnapshotSchema>;
 
 export const updateSnapshotSchema = z.object({

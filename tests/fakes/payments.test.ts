@@ -397,6 +397,25 @@ describe('payments fake through the real SDK', () => {
     expect((await stripe.subscriptions.retrieve(sub.id)).status).toBe('active');
   });
 
+  it('creates no subscription on a declined first payment and expires an unused checkout after a day', async () => {
+    const price = await stripe.prices.create({ product_data: { name: 'Crew membership' }, currency: 'usd', unit_amount: 900, recurring: { interval: 'month' } });
+    const session = await stripe.checkout.sessions.create({ mode: 'subscription', line_items: [{ price: price.id, quantity: 1 }], success_url: 'http://127.0.0.1:9/ok', customer_email: 'try@example.test' });
+    const declined = await submitCard(session.url!, { card_number: '4000000000000341' });
+    expect(declined.status).toBe(402);
+    expect((await stripe.checkout.sessions.retrieve(session.id)).subscription).toBeNull();
+    expect((await stripe.subscriptions.list({ price: price.id, status: 'all' })).data).toHaveLength(0);
+    expect((await submitCard(session.url!, { card_number: '4242424242424242' })).status).toBe(303);
+    const subs = await stripe.subscriptions.list({ price: price.id });
+    expect(subs.data.map((s) => s.status)).toEqual(['active']);
+    const again = await fetch(session.url!);
+    expect(await again.text()).toContain('This checkout is complete.');
+
+    const unused = await stripe.checkout.sessions.create({ mode: 'payment', line_items: [{ price: (await stripe.prices.create({ product_data: { name: 'Patch' }, currency: 'usd', unit_amount: 500 })).id, quantity: 1 }], success_url: 'http://127.0.0.1:9/ok' });
+    await fake.clock.advance(DAY + 1);
+    expect(await stripe.checkout.sessions.retrieve(unused.id)).toMatchObject({ status: 'expired', url: null });
+    expect((await fetch(`${fake.url}/pay/${unused.id}`)).status).toBe(410);
+  });
+
   it('pays out available balance grouped with its balance transactions', async () => {
     await fake.clock.advance(3 * DAY);
     const { payouts } = (await control(fake, 'POST', '/_fake/payouts/run')) as { payouts: Stripe.Payout[] };

@@ -125,7 +125,8 @@ describe('OMM errors name the line and the keyword', () => {
   it('XML: malformed XML gives the validator\'s line', () => {
     const r = parseElementSets(XML.replace('</ECCENTRICITY>', '</ECCENTRICITYX>'));
     expect(r.records).toHaveLength(0);
-    expect(r.errors[0]!.line).toBe(15);
+    const expectedLine = XML.split('\n').findIndex((l) => l.includes('</ECCENTRICITY>')) + 1;
+    expect(r.errors[0]!.line).toBe(expectedLine);
     expect(r.errors[0]!.message).toMatch(/^XML:/);
   });
   it('XML: a bare <omm> root also parses', () => {

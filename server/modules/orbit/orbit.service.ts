@@ -130,7 +130,7 @@ export function createOrbitService({ db }: { db: Db }) {
     const { rows } = await pool.query<{
       epoch_ms: number; apogee_altitude_km: number; perigee_altitude_km: number; mean_altitude_km: number;
       semi_major_axis_km: number; specific_energy_j_per_kg: number; outlier: boolean;
-    }>({ text: TREND_SQL, values: [craft.id], rowMode: undefined });
+    }>(TREND_SQL, [craft.id]);
     const n = rows.length;
     const series = {
       epochMs: new Array<number>(n), apogeeKm: new Array<number>(n), perigeeKm: new Array<number>(n), meanAltitudeKm: new Array<number>(n),

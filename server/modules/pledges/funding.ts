@@ -1,0 +1,35 @@
+// Wires campaigns, pledges, the webhook, the ledger and my support from the app's dependencies, so that
+// app.ts mounts routers and the services share one processor client and one campaign cache.
+import type pg from 'pg';
+import type Stripe from 'stripe';
+import type { Logger } from 'pino';
+import type { Db } from '../../db/client';
+import type { Config } from '../../config';
+import type { Mailer } from '../../lib/mailer';
+import { createCampaignsService } from '../campaigns/campaigns.service';
+import { createCampaignsRouter } from '../campaigns/campaigns.routes';
+import { createProcessor } from '../payments/processor';
+import { createPaymentsService } from '../payments/payments.service';
+import { createPaymentsWebhookRouter } from '../payments/payments.routes';
+import { createPledgesService } from './pledges.service';
+import { createPledgesRouter } from './pledges.routes';
+import { createMySupportService } from '../my-support/my-support.service';
+import { createMySupportRouter } from '../my-support/my-support.routes';
+import { createLedgerRouter } from '../ledger/ledger.routes';
+
+export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer: Mailer; stripe: Stripe; logger: Logger }) {
+  const { db, pool, config, mailer, stripe, logger } = deps;
+  const campaigns = createCampaignsService({ db, pool, cacheMs: config.CAMPAIGN_CACHE_MS });
+  const processor = createProcessor({ db, stripe });
+  const payments = createPaymentsService({ db, config, mailer, processor, campaigns, logger });
+  const pledges = createPledgesService({ db, config, processor, campaigns, logger });
+  const mySupport = createMySupportService({ db, config, processor, pledges });
+  return {
+    services: { campaigns, payments, pledges, mySupport },
+    webhookRouter: createPaymentsWebhookRouter({ payments, stripe, config }),
+    campaignsRouter: createCampaignsRouter({ campaigns }),
+    pledgesRouter: createPledgesRouter({ pledges }),
+    mySupportRouter: createMySupportRouter({ mySupport }),
+    ledgerRouter: createLedgerRouter({ db }),
+  };
+}

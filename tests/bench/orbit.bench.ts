@@ -1,0 +1,94 @@
+// Orbit engine benchmarks, each against a bare satellite.js loop over the same inputs in the same run.
+import { eciToGeodetic, gstime, propagate, twoline2satrec } from 'satellite.js';
+import { deriveElementSet, formatTleFile, meanMotionForSemiMajorAxis, parseElementSets, sgp4AltitudeRange, type TleWriteInput } from '../../shared/orbit';
+import { timeMedianMs, type Benchmark } from './harness';
+
+function makeSets(count: number): TleWriteInput[] {
+  const t0 = Date.UTC(2025, 0, 1);
+  const out: TleWriteInput[] = [];
+  for (let k = 0; k < count; k++) {
+    const altitudeKm = 400 + (k % 600);
+    const e = 0.0005 + (k % 50) * 0.0004;
+    const i = 20 + (k % 80);
+    out.push({
+      catalogNumber: String(10_000 + (k % 90_000)).padStart(5, '0'), classification: 'U', internationalDesignator: '25001A',
+      epochMs: t0 + k * 600_000, meanMotionRevPerDay: meanMotionForSemiMajorAxis(6378.135 + altitudeKm, e, i),
+      meanMotionDotRevPerDay2: 1e-6 * (k % 7), meanMotionDdotRevPerDay3: 0, bstar: 1e-4 * (1 + (k % 9)),
+      inclinationDeg: i, raanDeg: (k * 7.3) % 360, eccentricity: e, argPerigeeDeg: (k * 13.1) % 360, meanAnomalyDeg: (k * 29.7) % 360,
+      elementSetNo: k % 9999, revAtEpoch: k % 99_999,
+    });
+  }
+  return out;
+}
+
+let sink = 0;
+
+export const benchmarks: Benchmark[] = [
+  {
+    id: 'orbit.parse',
+    goal: 1.3,
+    better: 'lower',
+    async run() {
+      const text = formatTleFile(makeSets(100_000));
+      const lines = text.split('\n');
+      const ours = await timeMedianMs(() => {
+        const r = parseElementSets(text);
+        for (const s of r.records) sink += deriveElementSet(s).semiMajorAxisKm;
+        if (r.records.length !== 100_000) throw new Error(`parsed ${r.records.length}`);
+      }, 5);
+      const bare = await timeMedianMs(() => {
+        for (let i = 0; i + 1 < lines.length; i += 2) sink += twoline2satrec(lines[i]!, lines[i + 1]!).a;
+      }, 5);
+      return { ratio: ours / bare, detail: `parse+derive ${ours.toFixed(0)} ms vs twoline2satrec ${bare.toFixed(0)} ms (100k sets)` };
+    },
+  },
+  {
+    id: 'orbit.sgp4-minmax',
+    goal: 1.2,
+    better: 'lower',
+    async run() {
+      const sets = parseElementSets(formatTleFile(makeSets(5_000))).records;
+      const samples = 60;
+      let peakRss = process.memoryUsage().rss, peakHeap = process.memoryUsage().heapUsed;
+      const sample = () => {
+        const m = process.memoryUsage();
+        peakRss = Math.max(peakRss, m.rss);
+        peakHeap = Math.max(peakHeap, m.heapUsed);
+      };
+      const ours = await timeMedianMs(() => {
+        for (let k = 0; k < sets.length; k++) {
+          const r = sgp4AltitudeRange(sets[k]!, { samplesPerRev: samples });
+          if (r.ok) sink += r.minAltitudeKm + r.maxAltitudeKm;
+          if (k % 1000 === 0) sample();
+        }
+      }, 5);
+      const bare = await timeMedianMs(() => {
+        for (let k = 0; k < sets.length; k++) {
+          const s = sets[k]!;
+          const sat = twoline2satrec(s.line1, s.line2);
+          const periodMin = (2 * Math.PI) / sat.no;
+          const epochMs = (sat.jdsatepoch - 2440587.5) * 86_400_000;
+          let min = Infinity, max = -Infinity;
+          for (let j = 0; j < samples; j++) {
+            const date = new Date(epochMs + ((j * periodMin) / samples) * 60_000);
+            const pv = propagate(sat, date);
+            if (!pv) break;
+            const h = eciToGeodetic(pv.position, gstime(date)).height;
+            if (h < min) min = h;
+            if (h > max) max = h;
+          }
+          sink += min + max;
+        }
+      }, 5);
+      sample();
+      return {
+        ratio: ours / bare,
+        detail: `ours ${ours.toFixed(0)} ms vs propagate+eciToGeodetic ${bare.toFixed(0)} ms (5k sets × ${samples}); peak rss ${(peakRss / 2 ** 20).toFixed(0)} MiB, heap ${(peakHeap / 2 ** 20).toFixed(0)} MiB`,
+      };
+    },
+  },
+];
+
+export function benchSink(): number {
+  return sink;
+}
