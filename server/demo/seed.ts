@@ -3,12 +3,14 @@ import type { Db } from '../db/client';
 import type { Config } from '../config';
 import { accounts } from '../modules/accounts/accounts.tables';
 import { seedDemoAccounts } from './accounts';
+import { orbitSeeder } from './orbit-seed';
+import { campaignSeeder } from './campaign-seed';
 
 export type SeedContext = { db: Db; config: Config; log: (message: string) => void; accountIds: Record<string, string> };
 export type Seeder = { name: string; run: (ctx: SeedContext) => Promise<void> };
 
 // Each feature adds its own seeder here; they run in order on an empty database.
-export const seeders: Seeder[] = [];
+export const seeders: Seeder[] = [orbitSeeder, campaignSeeder];
 
 export async function isDatabaseEmpty(db: Db) {
   const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(accounts);

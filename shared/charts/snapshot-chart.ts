@@ -34,7 +34,7 @@ export const SERIES: Record<SnapshotSeriesKey, { label: string; unit: string; gr
 const GROUP_LABEL: Record<AxisGroup, string> = { altitude: 'Altitude (km)', semiMajorAxis: 'Semi-major axis (km)', energy: 'Specific energy (MJ/kg)' };
 
 export const SAIL_MODE_STYLE: Record<SnapshotSailMode, { label: string; color: string; opacity: number }> = {
-  raising: { label: 'Raising', color: '#ffbe45', opacity: 0.16 },
+  raising: { label: 'Raising', color: '#ffbe45', opacity: 0.2 },
   'edge-on': { label: 'Edge-on', color: '#98a3b5', opacity: 0.12 },
   tumbling: { label: 'Tumbling', color: '#f87171', opacity: 0.12 },
   unknown: { label: 'Unknown', color: '#636e81', opacity: 0.1 },

@@ -78,3 +78,14 @@ export function sailThrustGeometry(opts: { altitudeKm: number; betaDeg?: number;
   }
   return { sunlitFraction: lit / n, usableFraction: usable / n, meanAlongTrackCos2: cos2 / n, meanAlongTrackCos: cos1 / n };
 }
+
+/** Sun geometry of an element set at its epoch: β angle, sunlit and usable-thrust fractions at a given altitude. */
+export function sunlightAtEpoch(opts: { epochMs: number; inclinationDeg: number; raanDeg: number; altitudeKm: number }): {
+  betaDeg: number;
+  sunlitFraction: number;
+  usableThrustFraction: number;
+} {
+  const betaDeg = betaAngleDeg(opts);
+  const lit = sunlitFraction({ altitudeKm: opts.altitudeKm, betaDeg });
+  return { betaDeg, sunlitFraction: lit, usableThrustFraction: usableThrustFraction({ sunlitFraction: lit }) };
+}

@@ -41,9 +41,12 @@ function clean(raw: string): string {
   return end === raw.length ? raw : raw.slice(0, end);
 }
 
-type FieldErr = (columns: [number, number], field: string, message: string, expected: string) => void;
+function pushError(errors: ParseError[], line: number, columns: [number, number], field: string, message: string, expected: string): void {
+  errors.push({ line, columns, field, message, expected });
+}
 
-function checkShape(line: string, lineNo: number, which: 1 | 2, spaces: number[], verifyChecksum: boolean, err: FieldErr): boolean {
+function checkShape(line: string, lineNo: number, which: 1 | 2, spaces: number[], verifyChecksum: boolean, errors: ParseError[]): boolean {
+  const err = (columns: [number, number], field: string, message: string, expected: string) => pushError(errors, lineNo, columns, field, message, expected);
   if (line.length < TLE_LINE_LENGTH) {
     err([1, line.length || 1], `line ${which}`, `line ${which} has ${line.length} characters`, `${TLE_LINE_LENGTH} characters`);
     return false;
@@ -70,8 +73,14 @@ function checkShape(line: string, lineNo: number, which: 1 | 2, spaces: number[]
       ok = false;
     }
   }
-  void lineNo;
   return ok;
+}
+
+function readAngle(l2: string, s: number, e: number, field: string, max: number, lineNo: number, errors: ParseError[]): number {
+  const v = readDecimal(l2, s, e);
+  if (!Number.isFinite(v)) pushError(errors, lineNo, [s + 1, e], field, `"${l2.slice(s, e)}" is not a number`, 'degrees, e.g. " 34.2682"');
+  else if (!(v >= 0 && v <= max)) pushError(errors, lineNo, [s + 1, e], field, `${v} is out of range`, `0 ≤ ${field} ≤ ${max}°`);
+  return v;
 }
 
 /**
@@ -87,15 +96,18 @@ export function parseTlePair(
   const line1No = opts.line1No, line2No = opts.line2No ?? opts.line1No + 1;
   const verify = opts.verifyChecksum !== false;
   const errors: ParseError[] = [];
-  let lineNo = line1No;
-  const err: FieldErr = (columns, field, message, expected) => errors.push({ line: lineNo, columns, field, message, expected });
-
-  const shape1 = checkShape(l1, line1No, 1, LINE1_SPACES, verify, err);
-  lineNo = line2No;
-  const shape2 = checkShape(l2, line2No, 2, LINE2_SPACES, verify, err);
+  const shape1 = checkShape(l1, line1No, 1, LINE1_SPACES, verify, errors);
+  const shape2 = checkShape(l2, line2No, 2, LINE2_SPACES, verify, errors);
   if (!shape1 || !shape2) return { record: null, errors };
+  return readFields(l1, l2, line1No, line2No, opts, errors);
+}
 
-  lineNo = line1No;
+function readFields(
+  l1: string, l2: string, line1No: number, line2No: number, opts: { name?: string; sourceLine?: number }, errors: ParseError[],
+): { record: ElementSet | null; errors: ParseError[] } {
+  let lineNo = line1No;
+  const err = (columns: [number, number], field: string, message: string, expected: string) => pushError(errors, lineNo, columns, field, message, expected);
+
   const catField1 = l1.slice(2, 7);
   const catalogNumberInt = parseCatalogNumber(catField1);
   if (!Number.isFinite(catalogNumberInt)) err([3, 7], 'catalog number', `"${catField1}" is not a catalog number`, 'five digits, or alpha-5 (letter + four digits)');
@@ -137,18 +149,12 @@ export function parseTlePair(
   const cat2 = parseCatalogNumber(catField2);
   if (!Number.isFinite(cat2)) err([3, 7], 'catalog number', `"${catField2}" is not a catalog number`, 'five digits, or alpha-5');
   else if (Number.isFinite(catalogNumberInt) && cat2 !== catalogNumberInt) err([3, 7], 'catalog number', `line 2 has catalog number "${catField2}" but line 1 has "${catField1}"`, `"${catField1}"`);
-  const angle = (s: number, e: number, field: string, max: number, maxIncl: boolean): number => {
-    const v = readDecimal(l2, s, e);
-    if (!Number.isFinite(v)) err([s + 1, e], field, `"${l2.slice(s, e)}" is not a number`, 'degrees, e.g. " 34.2682"');
-    else if (!(v >= 0 && (maxIncl ? v <= max : v < max + 1e-9))) err([s + 1, e], field, `${v} is out of range`, `0 ≤ ${field} ≤ ${max}°`);
-    return v;
-  };
-  const incl = angle(8, 16, 'inclination', 180, true);
-  const raan = angle(17, 25, 'right ascension of the ascending node', 360, true);
+  const incl = readAngle(l2, 8, 16, 'inclination', 180, lineNo, errors);
+  const raan = readAngle(l2, 17, 25, 'right ascension of the ascending node', 360, lineNo, errors);
   const ecc = readEccentricity(l2, 26);
   if (!Number.isFinite(ecc)) err([27, 33], 'eccentricity', `"${l2.slice(26, 33)}" is not seven digits`, 'seven digits with an assumed leading "0."');
-  const argp = angle(34, 42, 'argument of perigee', 360, true);
-  const ma = angle(43, 51, 'mean anomaly', 360, true);
+  const argp = readAngle(l2, 34, 42, 'argument of perigee', 360, lineNo, errors);
+  const ma = readAngle(l2, 43, 51, 'mean anomaly', 360, lineNo, errors);
   const n = readDecimal(l2, 52, 63);
   if (!Number.isFinite(n)) err([53, 63], 'mean motion', `"${l2.slice(52, 63)}" is not a number`, 'rev/day, e.g. "15.49165230"');
   else if (!(n > 0 && n <= MAX_MEAN_MOTION_REV_PER_DAY)) err([53, 63], 'mean motion', `${n} rev/day is out of range`, `0 < mean motion ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`);

@@ -43,3 +43,8 @@ export type AccountView = z.infer<typeof accountViewSchema>;
 export type ApiErrorBody = {
   error: { code: string; message: string; details?: { path: string; message: string }[]; errorId?: string };
 };
+
+export const updateAccountSchema = z.object({
+  displayName: z.string().trim().min(1, { message: 'Tell us what to call you' }).max(80),
+});
+export type UpdateAccountInput = z.infer<typeof updateAccountSchema>;

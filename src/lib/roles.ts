@@ -1,4 +1,4 @@
-import type { Role } from '@shared/schemas/auth';
+import { roles, type Role } from '@shared/schemas/auth';
 
 export const roleLabels: Record<Role, string> = {
   backer: 'Backer',
@@ -12,4 +12,9 @@ export const staffRoles: readonly Role[] = ['outreach', 'engineer', 'finance', '
 
 export function hasAnyRole(held: readonly Role[] | undefined, wanted: readonly Role[]): boolean {
   return !!held && wanted.some((role) => held.includes(role));
+}
+
+/** Roles in their fixed order (backer first), whatever order the server sent them in. */
+export function sortRoles(held: readonly Role[]): Role[] {
+  return [...held].sort((a, b) => roles.indexOf(a) - roles.indexOf(b));
 }

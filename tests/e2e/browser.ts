@@ -21,7 +21,7 @@ export async function newPage(browser: Browser, opts: { width?: number; height?:
   const problems: string[] = [];
   page.on('pageerror', (e) => problems.push(`pageerror: ${e.message}`));
   page.on('console', (m) => {
-    if (m.type() === 'error' && !/Failed to load resource: the server responded with a status of 40[13]/.test(m.text())) problems.push(`console: ${m.text()}`);
+    if (m.type() === 'error' && !/Failed to load resource: the server responded with a status of 4\d\d/.test(m.text())) problems.push(`console: ${m.text()}`);
   });
   return { page, context, problems };
 }

@@ -4,7 +4,7 @@ import {
   AU_M, atmosphericDensityKgPerM3, characteristicAccelerationMPerS2, circularSpeedMPerS, crossoverAltitudeKm,
   dragForceN, orbitEnergyBalance, photonMomentumKgMPerS, sailForceN, sailPressurePa, sailThrustGeometry,
   solarIrradianceWPerM2, solarRadiationPressurePa, sunlitFraction, usableThrustFraction, betaAngleDeg,
-  harrisPriesterDensityKgPerM3, cira72ExponentialDensityKgPerM3,
+  harrisPriesterDensityKgPerM3, cira72ExponentialDensityKgPerM3, sunlightAtEpoch,
 } from '../../shared/orbit';
 
 function expectRelative(actual: number, expected: number, tol = 1e-9) {
@@ -116,6 +116,12 @@ describe('sunlight and usable thrust', () => {
     expect(Math.abs(betaAngleDeg({ epochMs: Date.UTC(2025, 2, 20, 9), inclinationDeg: 0, raanDeg: 0 }))).toBeLessThan(0.5);
     // At the June solstice the Sun is 23.44° north of the equator.
     expect(betaAngleDeg({ epochMs: Date.UTC(2025, 5, 21, 3), inclinationDeg: 0, raanDeg: 0 })).toBeCloseTo(23.44, 1);
+  });
+  it('a dawn–dusk orbit (RAAN 90° from the Sun at the equinox, i = 98°) sees β near 90° − 8° and no shadow at 780 km', () => {
+    const s = sunlightAtEpoch({ epochMs: Date.UTC(2025, 2, 20, 9), inclinationDeg: 98, raanDeg: 270, altitudeKm: 780 });
+    expect(Math.abs(Math.abs(s.betaDeg) - 82)).toBeLessThan(1);
+    expect(s.sunlitFraction).toBe(1);
+    expect(s.usableThrustFraction).toBe(0.5);
   });
 });
 

@@ -8,9 +8,8 @@ import { accounts } from './accounts.tables';
 import { createAccountsRepository } from './accounts.repository';
 import { createAdminService } from './admin.service';
 import { listAudit, recordAudit } from '../audit/audit.repository';
-import { grantRoleSchema, roleSchema } from '../../../shared/schemas/auth';
+import { grantRoleSchema, roleSchema, updateAccountSchema } from '../../../shared/schemas/auth';
 
-export const updateAccountSchema = z.object({ displayName: z.string().trim().min(1).max(80) });
 
 export function createAccountRouter({ db }: { db: Db }) {
   const router = Router();

@@ -58,19 +58,21 @@ export function epochKey(catalogNumberInt: number, epochIso: string, elementSetN
   return `${catalogNumberInt}|${epochIso}|${elementSetNo}`;
 }
 
-/** Counts records an error list stands for: the errors of one two-line set sit on adjacent lines. */
-function countInvalidRecords(errors: ParseError[]): number {
+/**
+ * Counts the records an error list stands for: one two-line set can carry errors on both its lines, so an error
+ * on a "2 " line right after an error on its "1 " line is the same record.
+ */
+function countInvalidRecords(errors: ParseError[], text: string, format: string): number {
   const lines = [...new Set(errors.map((e) => e.line))].sort((a, b) => a - b);
+  if (format !== 'tle') return lines.length;
+  const textLines = text.split('\n');
+  const starts = (n: number, digit: string) => (textLines[n - 1] ?? '').startsWith(`${digit} `);
   let count = 0;
-  let prev = -10;
-  let merged = false;
-  for (const l of lines) {
-    if (l === prev + 1 && !merged) merged = true;
-    else {
-      count++;
-      merged = false;
-    }
-    prev = l;
+  for (let k = 0; k < lines.length; k++) {
+    const l = lines[k]!;
+    const prev = k > 0 ? lines[k - 1]! : -10;
+    if (prev === l - 1 && starts(prev, '1') && starts(l, '2')) continue;
+    count++;
   }
   return count;
 }
@@ -78,7 +80,7 @@ function countInvalidRecords(errors: ParseError[]): number {
 export function prepareSets(text: string, craft: { catalogNumberInt: number; catalogNumber: string; name: string }) {
   const parsed = parseElementSets(text, { maxErrors: Number.MAX_SAFE_INTEGER });
   const errors: ParseError[] = parsed.errors.slice();
-  const parseInvalid = countInvalidRecords(parsed.errors);
+  const parseInvalid = countInvalidRecords(parsed.errors, text, parsed.format);
   let ownInvalid = 0;
   const seen = new Set<string>();
   const prepared: PreparedSet[] = [];
@@ -179,10 +181,11 @@ function batchParams(spacecraftId: string, fileId: string, rows: PreparedSet[]):
 export async function refreshOutliers(pool: pg.Pool, spacecraftId: string, fromMs: number, toMs: number) {
   const start = binOf(fromMs) * OUTLIER_BIN_MS;
   const end = (binOf(toMs) + 1) * OUTLIER_BIN_MS;
+  // One bin either side gives the sets at the edges their neighbours; only the touched bins are written.
   const { rows } = await pool.query<{ id: string; epoch_ms: number; a: number; p: number }>(
     `select id, epoch_ms, semi_major_axis_km as a, perigee_altitude_km as p from element_sets
       where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms < $3`,
-    [spacecraftId, start, end],
+    [spacecraftId, start - OUTLIER_BIN_MS, end + OUTLIER_BIN_MS],
   );
   const flagged = flagOutliers(rows.map((r) => ({ id: Number(r.id), epochMs: r.epoch_ms, semiMajorAxisKm: r.a, perigeeAltitudeKm: r.p })));
   await pool.query(
@@ -291,6 +294,14 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     let rows = parsedCache.get(job.id);
     parsedCache.delete(job.id);
     if (!rows) rows = prepareSets(job.content ?? '', craft).prepared;
+    if (rows.length === 0) {
+      // Nothing new to store: no file row either, so an all-invalid or already-stored upload leaves no trace but the job.
+      await db
+        .update(ingestJobs)
+        .set({ status: 'imported', importedCount: 0, content: null, fileId: job.existingFileId, message: importMessage(0, job.duplicateCount), updatedAt: new Date() })
+        .where(eq(ingestJobs.id, job.id));
+      return;
+    }
     const client = await pool.connect();
     let imported = 0;
     let fileId: string;
@@ -467,6 +478,7 @@ export function previewMessage(fresh: number, duplicates: number, invalid: numbe
 }
 
 export function importMessage(imported: number, duplicates: number): string {
+  if (imported === 0 && duplicates === 0) return 'Nothing imported: the file held no valid element sets.';
   if (imported === 0) return `Nothing imported: all ${plural(duplicates, 'element set')} were already stored.`;
   return `Imported ${plural(imported, 'element set')}${duplicates ? `; skipped ${plural(duplicates, 'duplicate')}` : ''}.`;
 }

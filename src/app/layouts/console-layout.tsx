@@ -41,7 +41,7 @@ function ConsoleBody({ account }: { account: AccountView }) {
 export function ConsoleLayout() {
   return (
     <div className="flex min-h-dvh flex-col bg-night-950">
-      <SiteHeader areaLabel="Console" />
+      <SiteHeader areaLabel="Console" wide />
       <RequireAccount>{(account) => <ConsoleBody account={account} />}</RequireAccount>
     </div>
   );

@@ -95,7 +95,7 @@ function AccountMenu({ account, onSignOut, signingOut }: { account: AccountView;
   );
 }
 
-export function SiteHeader({ areaLabel }: { areaLabel?: string }) {
+export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wide?: boolean }) {
   const me = useMe();
   const account = me.data ?? null;
   const location = useLocation();
@@ -115,7 +115,7 @@ export function SiteHeader({ areaLabel }: { areaLabel?: string }) {
 
   return (
     <header className="sticky top-0 z-30 border-b border-foil-800/80 bg-night-950/90 backdrop-blur">
-      <div ref={container} className="mx-auto flex h-16 max-w-6xl items-center gap-4 px-4 sm:px-6">
+      <div ref={container} className={cn('mx-auto flex h-16 items-center gap-4 px-4 sm:px-6', wide ? 'max-w-7xl' : 'max-w-6xl')}>
         <Wordmark suffix={areaLabel} />
 
         <nav aria-label="Site" className="hidden flex-1 items-center gap-1 sm:flex">

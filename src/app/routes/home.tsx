@@ -40,9 +40,9 @@ const uses = [
 
 function SailIllustration() {
   return (
-    <svg viewBox="0 0 320 320" aria-hidden="true" className="h-auto w-full max-w-sm">
+    <svg viewBox="0 0 320 320" aria-hidden="true" className="h-auto w-full max-w-64 sm:max-w-sm">
       <defs>
-        <radialGradient id="sun-glow" cx="0.82" cy="0.18" r="0.5">
+        <radialGradient id="sun-glow" cx="0.5" cy="0.5" r="0.5">
           <stop offset="0" stopColor="#ffd27a" stopOpacity="0.55" />
           <stop offset="1" stopColor="#ffd27a" stopOpacity="0" />
         </radialGradient>
@@ -55,10 +55,10 @@ function SailIllustration() {
           <stop offset="1" stopColor="#454c58" />
         </linearGradient>
       </defs>
-      <rect width="320" height="320" fill="url(#sun-glow)" />
-      <circle cx="262" cy="58" r="16" fill="#ffbe45" />
+      <circle cx="240" cy="78" r="76" fill="url(#sun-glow)" />
+      <circle cx="240" cy="78" r="16" fill="#ffbe45" />
       {[0, 1, 2].map((i) => (
-        <line key={i} x1={240 - i * 14} y1={74 + i * 12} x2={196 - i * 14} y2={112 + i * 12} stroke="#ffbe45" strokeOpacity="0.5" strokeWidth="2" strokeDasharray="4 6" />
+        <line key={i} x1={222 - i * 12} y1={98 + i * 10} x2={190 - i * 12} y2={126 + i * 10} stroke="#ffbe45" strokeOpacity="0.5" strokeWidth="2" strokeDasharray="4 6" />
       ))}
       <ellipse cx="150" cy="176" rx="128" ry="40" fill="none" stroke="#5069b3" strokeOpacity="0.6" strokeDasharray="3 7" />
       <g transform="translate(150 170) rotate(-14)">

@@ -27,7 +27,7 @@ export function Component() {
       {done ? (
         <>
           <Alert tone="success" title="Password changed">
-            Sign in with your new password. Other devices stay signed in until they sign out.
+            Sign in with your new password.
           </Alert>
           <Link to="/sign-in" className={buttonClasses({ size: 'lg', className: 'w-full' })}>
             Sign in

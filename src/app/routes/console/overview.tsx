@@ -3,7 +3,7 @@ import { sectionsFor } from '@/app/site-map/console-sections';
 import { PageHeader } from '@/components/ui/page-header';
 import { useMe } from '@/features/auth/api/get-me';
 import { useDocumentTitle } from '@/lib/document-title';
-import { roleLabels } from '@/lib/roles';
+import { roleLabels, sortRoles } from '@/lib/roles';
 
 export function Component() {
   useDocumentTitle('Console');
@@ -16,7 +16,7 @@ export function Component() {
       <PageHeader
         eyebrow="Console"
         title="Your desks"
-        description={`Signed in as ${account.displayName} · ${account.roles.map((r) => roleLabels[r]).join(', ')}`}
+        description={`Signed in as ${account.displayName} · ${sortRoles(account.roles).map((r) => roleLabels[r]).join(', ')}`}
       />
       <ul className="grid gap-4 sm:grid-cols-2">
         {sections.map((section) => (

@@ -8,7 +8,7 @@ import { DisplayNameForm } from '@/features/account/components/display-name-form
 import { EmailStatus } from '@/features/account/components/email-status';
 import { getMeQueryOptions, useMe } from '@/features/auth/api/get-me';
 import { useDocumentTitle } from '@/lib/document-title';
-import { roleLabels } from '@/lib/roles';
+import { roleLabels, sortRoles } from '@/lib/roles';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'long' });
 
@@ -34,7 +34,7 @@ export function Component() {
             </dd>
             <dt className="text-foil-400">Roles</dt>
             <dd className="flex flex-wrap gap-1.5">
-              {account.roles.map((role) => (
+              {sortRoles(account.roles).map((role) => (
                 <Badge key={role}>{roleLabels[role]}</Badge>
               ))}
             </dd>

@@ -1,11 +1,10 @@
 import { useMutation } from '@tanstack/react-query';
-import { signUpSchema, type AccountView } from '@shared/schemas/auth';
-import type { z } from 'zod';
+import { updateAccountSchema, type AccountView, type UpdateAccountInput } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
 
-// shared/ has no account-update schema yet; the display-name rule is the sign-up one.
-export const updateAccountInputSchema = signUpSchema.pick({ displayName: true });
-export type UpdateAccountInput = z.infer<typeof updateAccountInputSchema>;
+// The same schema validates on the server (PATCH /api/account).
+export const updateAccountInputSchema = updateAccountSchema;
+export type { UpdateAccountInput };
 
 export function updateAccount(input: UpdateAccountInput): Promise<{ account: AccountView }> {
   return api.patch<{ account: AccountView }>('/api/account', input);

@@ -33,7 +33,7 @@ export function DisplayNameForm({ account, onSaved }: { account: AccountView; on
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Change display name">
+    <form onSubmit={onSubmit} noValidate className="space-y-4">
       {formError && <Alert title="Could not save">{formError}</Alert>}
       {saved && !form.formState.isDirty && <Alert tone="success">Display name saved.</Alert>}
       <TextField

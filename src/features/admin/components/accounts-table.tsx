@@ -22,6 +22,48 @@ const roleDuties: Record<Role, string> = {
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
 
+function RoleToggles({ account, onToggle }: { account: AccountView; onToggle: (change: PendingChange) => void }) {
+  return (
+    <div role="group" aria-label={`Roles for ${account.displayName}`} className="flex flex-wrap gap-1.5">
+      {roles.map((role) => {
+        const held = account.roles.includes(role);
+        return (
+          <button
+            key={role}
+            type="button"
+            aria-pressed={held}
+            onClick={() => onToggle({ account, role, change: held ? 'revoke' : 'grant' })}
+            className={cn(
+              'inline-flex min-h-8 items-center gap-1 rounded-full border px-3 text-xs font-semibold transition-colors',
+              held
+                ? 'border-amber-400 bg-amber-400/15 text-amber-200 hover:bg-amber-400/25'
+                : 'border-foil-700 text-foil-400 hover:border-foil-400 hover:text-foil-100',
+            )}
+          >
+            <span aria-hidden="true">{held ? '✓' : '+'}</span>
+            {roleLabels[role]}
+          </button>
+        );
+      })}
+    </div>
+  );
+}
+
+function AccountSummary({ account, isYou }: { account: AccountView; isYou: boolean }) {
+  return (
+    <>
+      <div className="font-semibold text-foil-50">
+        {account.displayName}
+        {isYou && <span className="ml-2 text-xs font-normal text-foil-400">(you)</span>}
+      </div>
+      <div className="break-all text-foil-300">{account.email}</div>
+      <div className="mt-1">
+        {account.emailVerified ? <Badge tone="good">E-mail verified</Badge> : <Badge tone="attention">E-mail not verified</Badge>}
+      </div>
+    </>
+  );
+}
+
 export function AccountsTable({
   accounts,
   currentAccountId,
@@ -63,7 +105,17 @@ export function AccountsTable({
   return (
     <>
       {lastDone && <Alert tone="success" className="mb-4">{lastDone}</Alert>}
-      <Table caption="Accounts and their roles">
+      <ul className="divide-y divide-foil-800/70 rounded-xl border border-foil-700/60 sm:hidden" aria-label="Accounts and their roles">
+        {accounts.map((account) => (
+          <li key={account.id} className="space-y-3 p-4 text-sm">
+            <div>
+              <AccountSummary account={account} isYou={account.id === currentAccountId} />
+            </div>
+            <RoleToggles account={account} onToggle={open} />
+          </li>
+        ))}
+      </ul>
+      <Table caption="Accounts and their roles" className="hidden sm:block">
         <THead>
           <tr>
             <Th>Account</Th>
@@ -75,41 +127,13 @@ export function AccountsTable({
           {accounts.map((account) => (
             <Tr key={account.id}>
               <Td>
-                <div className="font-semibold text-foil-50">
-                  {account.displayName}
-                  {account.id === currentAccountId && <span className="ml-2 text-xs font-normal text-foil-400">(you)</span>}
-                </div>
-                <div className="break-all text-foil-300">{account.email}</div>
-                <div className="mt-1">
-                  {account.emailVerified ? <Badge tone="good">E-mail verified</Badge> : <Badge tone="attention">E-mail not verified</Badge>}
-                </div>
+                <AccountSummary account={account} isYou={account.id === currentAccountId} />
               </Td>
               <Td className="hidden whitespace-nowrap text-foil-300 md:table-cell">
                 <time dateTime={account.createdAt}>{dateFormat.format(new Date(account.createdAt))}</time>
               </Td>
               <Td>
-                <div role="group" aria-label={`Roles for ${account.displayName}`} className="flex flex-wrap gap-1.5">
-                  {roles.map((role) => {
-                    const held = account.roles.includes(role);
-                    return (
-                      <button
-                        key={role}
-                        type="button"
-                        aria-pressed={held}
-                        onClick={() => open({ account, role, change: held ? 'revoke' : 'grant' })}
-                        className={cn(
-                          'inline-flex min-h-8 items-center gap-1 rounded-full border px-3 text-xs font-semibold transition-colors',
-                          held
-                            ? 'border-amber-400 bg-amber-400/15 text-amber-200 hover:bg-amber-400/25'
-                            : 'border-foil-700 text-foil-400 hover:border-foil-400 hover:text-foil-100',
-                        )}
-                      >
-                        <span aria-hidden="true">{held ? '✓' : '+'}</span>
-                        {roleLabels[role]}
-                      </button>
-                    );
-                  })}
-                </div>
+                <RoleToggles account={account} onToggle={open} />
               </Td>
             </Tr>
           ))}

@@ -18,8 +18,11 @@ function show(value: unknown): string {
 /** The keys that changed, each as before → after; a whole value when either side is not an object. */
 export function describeChange(before: unknown, after: unknown): { key: string | null; before: string; after: string }[] {
   const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+  if (before == null && after == null) return [];
+  // A record created or deleted: show its fields against nothing.
+  if (before == null && isRecord(after)) before = {};
+  if (after == null && isRecord(before)) after = {};
   if (!isRecord(before) || !isRecord(after)) {
-    if (before == null && after == null) return [];
     return [{ key: null, before: show(before), after: show(after) }];
   }
   const keys = [...new Set([...Object.keys(before), ...Object.keys(after)])];

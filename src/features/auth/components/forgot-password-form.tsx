@@ -40,7 +40,7 @@ export function ForgotPasswordForm() {
   }
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Request a password reset">
+    <form onSubmit={onSubmit} noValidate className="space-y-5">
       {formError && <Alert title="Could not send the link">{formError}</Alert>}
       <TextField
         label="E-mail"

@@ -34,7 +34,7 @@ export function ResetPasswordForm({ token, onDone }: { token: string; onDone: ()
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Choose a new password">
+    <form onSubmit={onSubmit} noValidate className="space-y-5">
       {(formError || errors.token) && (
         <Alert title="Could not set the password">
           {formError?.message ?? 'This reset link is incomplete.'}

@@ -31,7 +31,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (account: AccountView) 
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Sign in with e-mail">
+    <form onSubmit={onSubmit} noValidate className="space-y-5">
       {formError && <Alert title="Could not sign in">{formError}</Alert>}
       <TextField
         label="E-mail"

@@ -35,12 +35,12 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) 
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5" aria-label="Create an account">
+    <form onSubmit={onSubmit} noValidate className="space-y-5">
       {formError && <Alert title="Could not create the account">{formError}</Alert>}
       <TextField
         label="Display name"
         autoComplete="nickname"
-        hint="Shown on your account and, if you choose, beside your pledges."
+        hint="How we address you on Lightkeel and in our mail."
         error={errors.displayName?.message}
         {...form.register('displayName')}
       />

@@ -1,0 +1,52 @@
+import { NavLink } from 'react-router-dom';
+import { cn } from '@/lib/cn';
+import type { Spacecraft } from '../types';
+
+const tabs = [
+  { to: '/console/orbit', label: 'Trend', end: true },
+  { to: '/console/orbit/upload', label: 'Upload' },
+  { to: '/console/orbit/history', label: 'History' },
+  { to: '/console/orbit/sailing-periods', label: 'Sailing periods' },
+  { to: '/console/orbit/snapshots', label: 'Snapshots' },
+  { to: '/console/orbit/spacecraft', label: 'Spacecraft' },
+];
+
+export function OrbitDeskNav({ all, current, onChoose }: { all: Spacecraft[]; current: Spacecraft | null; onChoose: (id: string) => void }) {
+  return (
+    <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
+      <nav aria-label="Orbit desk" className="-mx-1 flex flex-wrap gap-1">
+        {tabs.map((t) => (
+          <NavLink
+            key={t.to}
+            to={t.to}
+            end={t.end}
+            className={({ isActive }) =>
+              cn(
+                'rounded-lg px-3 py-1.5 text-sm font-semibold transition-colors',
+                isActive ? 'bg-amber-400 text-night-950' : 'text-foil-200 hover:bg-night-800 hover:text-foil-50',
+              )
+            }
+          >
+            {t.label}
+          </NavLink>
+        ))}
+      </nav>
+      {all.length > 1 && current && (
+        <label className="flex items-center gap-2 text-sm text-foil-300">
+          Spacecraft
+          <select
+            className="rounded-lg border border-foil-700 bg-night-950 px-2 py-1 text-foil-50"
+            value={current.id}
+            onChange={(e) => onChoose(e.target.value)}
+          >
+            {all.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
+              </option>
+            ))}
+          </select>
+        </label>
+      )}
+    </div>
+  );
+}
