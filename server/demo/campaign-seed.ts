@@ -37,6 +37,7 @@ const names = [
   'Rosalind P.', 'Benedek', 'Class 6B, Harbour Road School', null, 'Yusuf A.', 'Fen', 'Odile M.', null, 'Cormac', 'Priya & Sam',
   'Ossian', null, 'Harriet W.', 'Dunmore amateur radio club',
 ];
+const laterNames = ['Saoirse', 'Tomasz R.', 'Aiko', 'Lowen', 'Marguerite', 'Dev & Ola', 'Ishbel', 'Ruairi', 'Nkechi', 'Halvard', 'Wilhelmina', 'Ptolemy K.'];
 const messages = [
   'Fly well, little sail.', null, 'For my grandfather, who watched the first satellites cross the sky.', null, 'Go Tern-1!',
   'Can’t wait for the first dispatch.', null, 'Keep the element sets coming.', null, 'From a fellow shed engineer.',
@@ -145,7 +146,7 @@ export const campaignSeeder: Seeder = {
 
     for (const [i, p] of plan.entries()) {
       // Past the list of names, most later backers chose to stay anonymous.
-      const name = i < names.length ? names[i]! : rand() < 0.7 ? null : `Backer ${String.fromCharCode(65 + (i % 26))}.`;
+      const name = i < names.length ? names[i]! : rand() < 0.7 ? null : (laterNames[i % laterNames.length] ?? null);
       await insertPledge(p, null, name, i < 30 ? (messages[i % messages.length] ?? null) : null);
     }
     // The demo backer account has one earlier pledge of its own, so my support is not empty.

@@ -23,8 +23,9 @@ export function msToDayOfYear(ms: number): { fullYear: number; dayOfYear: number
 const PAD2 = Array.from({ length: 100 }, (_, i) => String(i).padStart(2, '0'));
 const PAD3 = Array.from({ length: 1000 }, (_, i) => String(i).padStart(3, '0'));
 
-/** ISO 8601 UTC with milliseconds, same text as Date#toISOString (faster: no Date object for years 1000–9999). */
+/** ISO 8601 UTC with milliseconds, same text as Date#toISOString (faster: no Date object for years 1000–9999); '' when not a valid time. */
 export function msToIso(ms: number): string {
+  if (!Number.isFinite(ms) || Math.abs(ms) > 8.64e15) return '';
   const t = Math.round(ms);
   const days = Math.floor(t / 86_400_000);
   let rem = t - days * 86_400_000;

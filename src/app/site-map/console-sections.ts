@@ -17,6 +17,15 @@ export const consoleSections: ConsoleSection[] = [
       'Watch apogee, perigee and B* over time, and estimate the crossover altitude where sailing beats drag.',
       'Freeze a chart as a snapshot that outreach can embed in a dispatch.',
     ],
+    lazy: () => import('@/app/routes/console/orbit/trend'),
+    children: [
+      { path: 'upload', lazy: () => import('@/app/routes/console/orbit/upload') },
+      { path: 'history', lazy: () => import('@/app/routes/console/orbit/history') },
+      { path: 'sailing-periods', lazy: () => import('@/app/routes/console/orbit/sailing-periods') },
+      { path: 'snapshots', lazy: () => import('@/app/routes/console/orbit/snapshots') },
+      { path: 'snapshots/:snapshotId', lazy: () => import('@/app/routes/console/orbit/snapshot') },
+      { path: 'spacecraft', lazy: () => import('@/app/routes/console/orbit/spacecraft') },
+    ],
   },
   {
     id: 'dispatches',
@@ -29,6 +38,15 @@ export const consoleSections: ConsoleSection[] = [
       'Choose each dispatch’s audience: everyone, backers, chosen tiers or crew members.',
       'Embed snapshots from the orbit desk so backers see what the sail is doing.',
     ],
+  },
+  {
+    id: 'campaign',
+    path: 'campaign',
+    title: 'Campaign desk',
+    roles: ['outreach', 'admin'],
+    summary: 'The campaign’s goal, dates, story, reward tiers and stretch targets.',
+    duties: ['Edit the campaign page: goal, dates and story.', 'Add, change or hide reward tiers and crew memberships.', 'Set the stretch targets.'],
+    lazy: () => import('@/app/routes/console/campaign'),
   },
   {
     id: 'books',

@@ -8,4 +8,10 @@ export const publicPages: PublicPage[] = [
   { path: 'forgot-password', lazy: () => import('@/app/routes/forgot-password') },
   { path: 'reset-password', lazy: () => import('@/app/routes/reset-password') },
   { path: 'verify-email', lazy: () => import('@/app/routes/verify-email') },
+  { path: 'campaign', lazy: () => import('@/app/routes/campaign'), nav: { label: 'Campaign', order: 20 } },
+  { path: 'campaign/pledge', lazy: () => import('@/app/routes/campaign-pledge') },
+  { path: 'campaign/:slug', lazy: () => import('@/app/routes/campaign') },
+  { path: 'pledges/:id/thanks', lazy: () => import('@/app/routes/pledge-thanks') },
+  { path: 'pledges/:id/cancelled', lazy: () => import('@/app/routes/pledge-cancelled') },
+  { path: 'snapshots/:slug', lazy: () => import('@/app/routes/public-snapshot') },
 ];

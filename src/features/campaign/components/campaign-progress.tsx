@@ -27,7 +27,7 @@ export function CampaignProgress({ progress }: { progress: Progress }) {
           </dd>
         </div>
         <div>
-          <dt className="text-xs font-bold uppercase tracking-wider text-foil-500">Time</dt>
+          <dt className="text-xs font-bold uppercase tracking-wider text-foil-500">{progress.status === 'upcoming' ? 'Opens in' : 'Time left'}</dt>
           <dd className="text-lg font-bold text-foil-50">{timeLeft(progress.secondsLeft, progress.status)}</dd>
         </div>
       </dl>

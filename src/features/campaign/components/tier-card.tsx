@@ -12,7 +12,7 @@ export function TierCard({ tier, currency, open }: { tier: TierView; currency: s
         <h3 id={`tier-${tier.id}`} className="text-lg font-bold text-foil-50">
           {tier.title}
         </h3>
-        {tier.kind === 'monthly' ? <Badge tone="good">Crew membership</Badge> : tier.quantityLimit !== null && <Badge tone="attention">Limited</Badge>}
+        {tier.kind === 'monthly' ? <Badge tone="good">Monthly</Badge> : tier.quantityLimit !== null && <Badge tone="attention">Limited</Badge>}
       </div>
       <p className="mt-1 text-xl font-bold text-amber-300">
         {tier.kind === 'monthly' ? `${price} a month` : `${price} or more`}

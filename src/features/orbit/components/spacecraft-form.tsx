@@ -1,0 +1,58 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { spacecraftInputSchema } from '@shared/schemas/orbit';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/text-field';
+import { applyApiError } from '@/lib/form-errors';
+import { useSaveSpacecraft } from '../api/save-spacecraft';
+import type { Spacecraft } from '../types';
+import { useState } from 'react';
+
+type In = z.input<typeof spacecraftInputSchema>;
+type Out = z.output<typeof spacecraftInputSchema>;
+const fields = ['name', 'slug', 'catalogNumber', 'internationalDesignator', 'massKg', 'sailAreaM2', 'sailReflectivity', 'dragCoefficient', 'dragAreaEdgeOnM2', 'launchDate', 'sailDeployedAt'] as const;
+
+export function SpacecraftForm({ craft, onSaved }: { craft: Spacecraft | null; onSaved?: (c: Spacecraft) => void }) {
+  const save = useSaveSpacecraft();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<In, unknown, Out>({
+    resolver: zodResolver(spacecraftInputSchema),
+    defaultValues: craft
+      ? { ...craft, launchDate: craft.launchDate ?? '', sailDeployedAt: craft.sailDeployedAt ? craft.sailDeployedAt.slice(0, 16) : '' }
+      : { name: '', slug: '', catalogNumber: '', internationalDesignator: '', massKg: '', sailAreaM2: '', sailReflectivity: 0.9, dragCoefficient: 2.2, dragAreaEdgeOnM2: '', launchDate: '', sailDeployedAt: '' },
+  });
+  const err = (k: (typeof fields)[number]) => form.formState.errors[k]?.message as string | undefined;
+  return (
+    <form
+      noValidate
+      className="grid gap-4 sm:grid-cols-2"
+      onSubmit={form.handleSubmit((values) => {
+        setFormError(null);
+        const body = { ...values, sailDeployedAt: values.sailDeployedAt && values.sailDeployedAt.length === 16 ? `${values.sailDeployedAt}:00Z` : values.sailDeployedAt };
+        save.mutate(
+          { id: craft?.id, values: body },
+          { onSuccess: ({ spacecraft }) => onSaved?.(spacecraft), onError: (e) => setFormError(applyApiError(e, form.setError, { fields })) },
+        );
+      }, undefined)}
+    >
+      <TextField label="Name" {...form.register('name')} error={err('name')} />
+      <TextField label="Handle (for public links)" hint="e.g. tern-1" {...form.register('slug')} error={err('slug')} />
+      <TextField label="Catalog number" {...form.register('catalogNumber')} error={err('catalogNumber')} />
+      <TextField label="International designator" hint="e.g. 25061C" {...form.register('internationalDesignator')} error={err('internationalDesignator')} />
+      <TextField label="Mass (kg)" inputMode="decimal" {...form.register('massKg')} error={err('massKg')} />
+      <TextField label="Sail area (m²)" inputMode="decimal" {...form.register('sailAreaM2')} error={err('sailAreaM2')} />
+      <TextField label="Sail reflectivity (0–1)" inputMode="decimal" {...form.register('sailReflectivity')} error={err('sailReflectivity')} />
+      <TextField label="Drag coefficient" inputMode="decimal" {...form.register('dragCoefficient')} error={err('dragCoefficient')} />
+      <TextField label="Drag area edge-on (m²)" inputMode="decimal" {...form.register('dragAreaEdgeOnM2')} error={err('dragAreaEdgeOnM2')} />
+      <TextField label="Launch date" type="date" {...form.register('launchDate')} error={err('launchDate')} />
+      <TextField label="Sail deployed (UTC)" type="datetime-local" {...form.register('sailDeployedAt')} error={err('sailDeployedAt')} />
+      <div className="flex items-end sm:col-span-2">
+        <Button type="submit" loading={save.isPending}>{craft ? 'Save record' : 'Add spacecraft'}</Button>
+      </div>
+      {formError && <Alert className="sm:col-span-2" title="Not saved">{formError}</Alert>}
+      {save.isSuccess && !formError && <Alert tone="success" className="sm:col-span-2" title="Saved" />}
+    </form>
+  );
+}

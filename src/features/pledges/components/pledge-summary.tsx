@@ -1,0 +1,34 @@
+import type { PledgeView } from '@shared/schemas/campaign';
+import { money } from '../amount';
+
+export const pledgeStateLabels: Record<PledgeView['state'], string> = {
+  started: 'Waiting for payment',
+  paid: 'Paid',
+  partly_refunded: 'Partly refunded',
+  refunded: 'Refunded',
+  disputed: 'Disputed',
+  failed: 'Not paid',
+  abandoned: 'Cancelled',
+};
+
+export function PledgeSummary({ pledge }: { pledge: PledgeView }) {
+  return (
+    <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2 text-sm">
+      <dt className="text-foil-400">Campaign</dt>
+      <dd className="text-foil-100">{pledge.campaign.title}</dd>
+      <dt className="text-foil-400">Tier</dt>
+      <dd className="text-foil-100">{pledge.tier?.title ?? 'No reward'}</dd>
+      <dt className="text-foil-400">Amount</dt>
+      <dd className="font-semibold text-foil-50">
+        {money(pledge.amountMinor, pledge.currency)}
+        {pledge.kind === 'monthly' && ' a month'}
+      </dd>
+      <dt className="text-foil-400">Status</dt>
+      <dd className="text-foil-100" data-testid="pledge-state">
+        {pledgeStateLabels[pledge.state]}
+      </dd>
+      <dt className="text-foil-400">Shown as</dt>
+      <dd className="text-foil-100">{pledge.publicName ?? 'Anonymous'}</dd>
+    </dl>
+  );
+}
