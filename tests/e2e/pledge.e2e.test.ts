@@ -136,9 +136,10 @@ describe('the campaign desk', () => {
     await page.goto(`${baseUrl}/console/campaign`);
     await page.getByRole('heading', { name: 'Campaign desk' }).waitFor();
     await page.getByRole('button', { name: 'Edit Sail log postcard' }).click();
-    await page.getByLabel('Title', { exact: true }).last().fill('Sail log postcard, signed');
+    const form = page.getByRole('form', { name: 'Edit tier Sail log postcard' });
+    await form.getByLabel('Title', { exact: true }).fill('Sail log postcard, signed');
     await shot(page, 'pledge-14-campaign-desk-desktop');
-    await page.getByRole('button', { name: 'Save tier' }).click();
+    await form.getByRole('button', { name: 'Save tier' }).click();
     await page.getByText('Sail log postcard, signed ·').waitFor();
     await expect.poll(async () => {
       await page.goto(`${baseUrl}/campaign`);

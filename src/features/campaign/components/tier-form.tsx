@@ -40,7 +40,7 @@ export function TierForm({ slug, currency, tier, onDone }: { slug: string; curre
   };
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-3 rounded-xl border border-foil-700 p-4">
+    <form onSubmit={onSubmit} noValidate aria-label={tier ? `Edit tier ${tier.title}` : 'New tier'} className="space-y-3 rounded-xl border border-foil-700 p-4">
       {save.isError && <Alert title="Tier not saved">{errorMessage(save.error)}</Alert>}
       <div className="grid gap-3 sm:grid-cols-2">
         <TextField label="Title" value={v.title} onChange={(e) => setV({ ...v, title: e.target.value })} error={errors.title} />
