@@ -1,6 +1,6 @@
 // `npm run bench`: runs every benchmark in tests/bench/*.bench.ts on a throwaway PostgreSQL cluster,
 // prints a table and writes bench-results.json.
-import { mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -39,7 +39,10 @@ try {
   cluster.stop();
   removeFolder(root);
 }
-writeFileSync('bench-results.json', JSON.stringify(results, null, 2) + '\n');
+// A run of some benchmarks keeps the other benchmarks' last results.
+const previous: typeof results = only.length && existsSync('bench-results.json') ? JSON.parse(readFileSync('bench-results.json', 'utf8')) : [];
+const merged = [...previous.filter((p) => !results.some((r) => r.id === p.id)), ...results];
+writeFileSync('bench-results.json', JSON.stringify(merged, null, 2) + '\n');
 console.log('\n' + ['id'.padEnd(22), 'ratio'.padStart(8), 'goal'.padStart(10), 'met'.padStart(5), '  detail'].join(''));
 for (const r of results) {
   const goal = `${r.better === 'lower' ? '≤' : '≥'}${r.goal}`;

@@ -6,6 +6,11 @@ export type Db = NodePgDatabase<typeof schema>;
 
 export function createDb(url: string, opts: { max?: number } = {}) {
   const pool = new pg.Pool({ connectionString: url, max: opts.max ?? 10 });
+  // An idle client whose server connection ends (restart, failover, a dropped test database) emits
+  // 'error' on the pool; unhandled, that would crash the process. The pool replaces the client.
+  pool.on('error', (err) => {
+    if ((err as { code?: string }).code !== '57P01') process.stderr.write(`[db] idle client error: ${err.message}\n`);
+  });
   const db = drizzle(pool, { schema });
   return { db, pool };
 }
