@@ -138,8 +138,8 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
       const n = meanMotionForSemiMajorAxis(a, e, incl);
       const dnDt = (-1.5 * n * lastRates.total) / aTrue; // rev/day²
       const dragOnlyBstar = (o.craft.dragCoefficient * lastRates.dragArea) / (2 * o.craft.massKg) * BSTAR_RHO0_ER;
-      const apparent = lastRates.drag !== 0 ? lastRates.total / lastRates.drag : 1;
-      const bstar = Math.max(-0.5, Math.min(0.5, dragOnlyBstar * apparent * (1 + 0.1 * gaussian(rand))));
+      // The fit's B* follows the drag area of the current attitude; the sail's push shows in the mean motion.
+      const bstar = Math.max(-0.5, Math.min(0.5, dragOnlyBstar * (1 + 0.1 * gaussian(rand))));
       const set = {
         name: o.name,
         catalogNumber: o.catalogNumber,

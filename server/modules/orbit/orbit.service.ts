@@ -91,6 +91,7 @@ export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAre
 
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
+  const windowCache = new Map<string, Trend>();
 
   async function craftOf(id: string) {
     const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
@@ -149,9 +150,18 @@ export function createOrbitService({ db }: { db: Db }) {
     const lastMs = n ? series.epochMs[n - 1]! : null;
     const toMs = window.toMs ?? lastMs ?? Date.now();
     const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
-    const { rows: win } = await pool.query<WindowRow>(WINDOW_SQL, [craft.id, fromMs, toMs]);
-    const sets = win.map((r) => toElementSet(r, craft.catalogNumber));
-    const trend = computeTrend(sets, { fromMs, toMs, catalogNumber: craft.catalogNumber });
+    // Sets are only ever added, so the count and the newest id identify the history's state: the window's
+    // rates (the costly part, Theil–Sen over every pair) are reused until an import changes it.
+    const { rows: ver } = await pool.query<{ n: number; max: string | null }>('select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1', [craft.id]);
+    const cacheKey = `${craft.id}|${craft.catalogNumber}|${fromMs}|${toMs}|${ver[0]?.n}|${ver[0]?.max}`;
+    let trend = windowCache.get(cacheKey);
+    if (!trend) {
+      const { rows: win } = await pool.query<WindowRow>(WINDOW_SQL, [craft.id, fromMs, toMs]);
+      const sets = win.map((r) => toElementSet(r, craft.catalogNumber));
+      trend = computeTrend(sets, { fromMs, toMs, catalogNumber: craft.catalogNumber });
+      windowCache.set(cacheKey, trend);
+      while (windowCache.size > 32) windowCache.delete(windowCache.keys().next().value!);
+    }
     const r = trend.rates;
     const rateLines = r
       ? {

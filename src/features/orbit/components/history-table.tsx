@@ -93,7 +93,7 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
                   {hg.headers.map((h) => {
                     const sorted = h.column.getIsSorted();
                     return (
-                      <Th key={h.id} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined} className="whitespace-nowrap">
+                      <Th key={h.id} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined} className="whitespace-nowrap px-2.5 py-2.5">
                         {h.column.getCanSort() ? (
                           <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-foil-50" onClick={h.column.getToggleSortingHandler()}>
                             {flexRender(h.column.columnDef.header, h.getContext())}
@@ -112,7 +112,7 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
               {table.getRowModel().rows.map((r) => (
                 <Tr key={r.id} className={r.original.outlier ? 'bg-red-950/20' : undefined}>
                   {r.getVisibleCells().map((c) => (
-                    <Td key={c.id} className="whitespace-nowrap tabular-nums">{flexRender(c.column.columnDef.cell, c.getContext())}</Td>
+                    <Td key={c.id} className="whitespace-nowrap px-2.5 py-2 tabular-nums">{flexRender(c.column.columnDef.cell, c.getContext())}</Td>
                   ))}
                 </Tr>
               ))}
