@@ -143,6 +143,8 @@ describe('the campaign desk', () => {
     await page.getByText('Sail log postcard, signed ·').waitFor();
     await expect.poll(async () => {
       await page.goto(`${baseUrl}/campaign`);
+      // count() does not wait: let the campaign render before counting its tier headings.
+      await page.getByRole('heading', { name: 'Reward tiers' }).waitFor();
       return page.getByRole('heading', { name: 'Sail log postcard, signed' }).count();
     }, { timeout: 15_000, interval: 1000 }).toBe(1);
     expect(problems).toEqual([]);
