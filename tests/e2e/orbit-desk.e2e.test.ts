@@ -55,7 +55,9 @@ describe('the orbit desk in the browser', () => {
     await page.getByText('Snapshot saved').waitFor();
     await page.getByRole('link', { name: /Open “Tern-1 after the latest upload”/ }).click();
     await page.getByRole('heading', { name: 'Tern-1 after the latest upload' }).waitFor();
-    expect(await page.locator('svg[role="img"] path[data-series="apogee"]').count()).toBe(1);
+    const apogee = page.locator('svg[role="img"] path[data-series="apogee"]');
+    await apogee.first().waitFor();
+    expect(await apogee.count()).toBe(1);
     await shot(page, 'orbit-04-snapshot-desktop');
 
     await page.goto(`${baseUrl}/console/orbit/history`);
