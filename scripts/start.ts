@@ -63,8 +63,8 @@ try {
   cleanups.push(() => fakes.close());
 
   const { db, pool } = createDb(databaseUrl, { max: 2 });
-  if (await isDatabaseEmpty(db)) await seedDemo({ db, config, log: say });
-  else say('demo data already present (reusing .data/pg)');
+  if (!(await isDatabaseEmpty(db))) say('reusing the data in .data/pg (adding only demo data it lacks)');
+  await seedDemo({ db, config, log: say });
   await pool.end();
 
   const bin = (name: string) => path.join(repo, 'node_modules', '.bin', name);

@@ -45,6 +45,7 @@ const messages = [
 
 export const campaignSeeder: Seeder = {
   name: 'the Tern-1 campaign, tiers and demo pledges',
+  isSeeded: async (db) => (await db.select({ id: campaigns.id }).from(campaigns).where(eq(campaigns.slug, 'tern-1'))).length > 0,
   run: async ({ db, accountIds, log }) => {
     const [existing] = await db.select({ id: campaigns.id }).from(campaigns).where(eq(campaigns.slug, 'tern-1'));
     if (existing) return;

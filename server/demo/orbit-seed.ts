@@ -16,6 +16,7 @@ const PERIOD_NOTES: Record<string, string> = {
 /** Tern-1's record, a simulated history ingested through the same path as an upload, its sailing log and one public snapshot. */
 export const orbitSeeder: Seeder = {
   name: 'orbit desk (Tern-1 history)',
+  isSeeded: async (db) => Boolean(await createSpacecraftRepository({ db }).findBySlug('tern-1')),
   run: async ({ db, log, accountIds }) => {
     const engineerId = accountIds['engineer@saltmarsh.example'] ?? null;
     const repo = createSpacecraftRepository({ db });

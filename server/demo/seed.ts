@@ -7,9 +7,14 @@ import { orbitSeeder } from './orbit-seed';
 import { campaignSeeder } from './campaign-seed';
 
 export type SeedContext = { db: Db; config: Config; log: (message: string) => void; accountIds: Record<string, string> };
-export type Seeder = { name: string; run: (ctx: SeedContext) => Promise<void> };
+export type Seeder = {
+  name: string;
+  run: (ctx: SeedContext) => Promise<void>;
+  /** True when this seeder's data is already there; a kept database then gets only what it lacks. */
+  isSeeded: (db: Db) => Promise<boolean>;
+};
 
-// Each feature adds its own seeder here; they run in order on an empty database.
+// Each feature adds its own seeder here; they run in order, each only where its data is missing.
 export const seeders: Seeder[] = [orbitSeeder, campaignSeeder];
 
 export async function isDatabaseEmpty(db: Db) {
@@ -18,9 +23,11 @@ export async function isDatabaseEmpty(db: Db) {
 }
 
 export async function seedDemo({ db, config, log }: { db: Db; config: Config; log: (m: string) => void }) {
-  log('seeding the demo scenario: the Saltmarsh Orbital Society and Tern-1');
+  const fresh = await isDatabaseEmpty(db);
+  if (fresh) log('seeding the demo scenario: the Saltmarsh Orbital Society and Tern-1');
   const accountIds = await seedDemoAccounts(db);
   for (const s of seeders) {
+    if (await s.isSeeded(db)) continue;
     log(`seeding ${s.name} …`);
     await s.run({ db, config, log, accountIds });
   }
