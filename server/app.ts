@@ -44,7 +44,17 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   if (config.TRUST_PROXY) app.set('trust proxy', 1);
 
-  app.use(pinoHttp({ logger, autoLogging: config.LOG_LEVEL !== 'silent' }));
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: config.LOG_LEVEL !== 'silent',
+      // One short line per request: headers (cookies included) stay out of the logs.
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
+    }),
+  );
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -1,6 +1,6 @@
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { OAuth2Issuer, OAuth2Service, type MutableRedirectUri, type MutableResponse, type MutableToken } from 'oauth2-mock-server';
+import { closeServer, listenOnLoopback } from '../lib/loopback-server';
 
 /** The userinfo shape of Google's OpenID Connect endpoint (what passport-google-oauth20 parses). */
 export interface Profile {
@@ -141,14 +141,7 @@ export async function createIdentityFake(opts: IdentityFakeOptions = {}): Promis
       .catch((err: Error) => reply(400, { error: 'invalid_request', error_description: err.message }));
   });
 
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(opts.port ?? 0, '127.0.0.1', () => {
-      server.off('error', reject);
-      resolve();
-    });
-  });
-  const port = (server.address() as AddressInfo).port;
+  const port = await listenOnLoopback(server, opts.port ?? 0);
   issuer.url = `http://127.0.0.1:${port}`;
 
   return {
@@ -157,10 +150,6 @@ export async function createIdentityFake(opts: IdentityFakeOptions = {}): Promis
     setNextProfile(profile) {
       current = { ...defaultProfile, ...checkProfile(profile) };
     },
-    close: () =>
-      new Promise<void>((resolve, reject) => {
-        server.close((err) => (err ? reject(err) : resolve()));
-        server.closeAllConnections();
-      }),
+    close: () => closeServer(server),
   };
 }

@@ -1,9 +1,9 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdirSync, readFileSync, renameSync, writeFileSync, existsSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { dirname } from 'node:path';
 import express, { type NextFunction, type Request, type Response } from 'express';
+import { closeServer, listenOnLoopback } from '../lib/loopback-server';
 import { renderNotFound, renderOutboxList, renderOutboxMessage } from './outbox-page';
 import { ApiError, bareAddress, MAX_BATCH_EMAILS, validateEmail, type EmailInput } from './validate';
 
@@ -303,14 +303,7 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   }
 
   const server: Server = createServer(app);
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(opts.port ?? 0, '127.0.0.1', () => {
-      server.off('error', reject);
-      resolve();
-    });
-  });
-  const port = (server.address() as AddressInfo).port;
+  const port = await listenOnLoopback(server, opts.port ?? 0);
 
   return {
     url: `http://127.0.0.1:${port}`,
@@ -318,10 +311,6 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
     messages: newestFirst,
     clear,
     faults: { set: setFaults, get: () => ({ ...faultState }) },
-    close: () =>
-      new Promise<void>((resolve, reject) => {
-        server.close((err) => (err ? reject(err) : resolve()));
-        server.closeAllConnections();
-      }),
+    close: () => closeServer(server),
   };
 }

@@ -46,24 +46,23 @@ export function ommFieldsToElementSet(
   const errors: ParseError[] = [];
   const err = (field: string, message: string, expected: string) => errors.push({ line: fieldLine(field), field, message, expected });
 
+  const checked = (key: string, raw: OmmValue, expected: string, ok: (v: number) => boolean): number => {
+    const v = asNumber(raw);
+    if (!Number.isFinite(v)) err(key, `${key} "${String(raw)}" is not a number`, expected);
+    else if (!ok(v)) err(key, `${key} ${v} is out of range`, expected);
+    return v;
+  };
   const required = (key: string, expected: string, ok: (v: number) => boolean): number => {
     const raw = fields[key];
     if (asText(raw) === undefined) {
       err(key, `${key} is missing`, expected);
       return NaN;
     }
-    const v = asNumber(raw);
-    if (!Number.isFinite(v)) err(key, `${key} "${String(raw)}" is not a number`, expected);
-    else if (!ok(v)) err(key, `${key} ${v} is out of range`, expected);
-    return v;
+    return checked(key, raw, expected, ok);
   };
   const optional = (key: string, fallback: number, expected: string, ok: (v: number) => boolean): number => {
     const raw = fields[key];
-    if (asText(raw) === undefined) return fallback;
-    const v = asNumber(raw);
-    if (!Number.isFinite(v)) err(key, `${key} "${String(raw)}" is not a number`, expected);
-    else if (!ok(v)) err(key, `${key} ${v} is out of range`, expected);
-    return v;
+    return asText(raw) === undefined ? fallback : checked(key, raw, expected, ok);
   };
 
   const theory = asText(fields.MEAN_ELEMENT_THEORY)?.toUpperCase();

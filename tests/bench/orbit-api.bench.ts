@@ -176,10 +176,11 @@ const trend: Benchmark = {
       await agent.post(`/api/orbit/uploads/${started.body.upload.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
       const done = await settle(agent, started.body.upload.id);
       if (done.importedCount !== N) throw new Error(`imported ${done.importedCount}`);
-      const ours: number[] = [], bare: number[] = [];
+      const ours: number[] = [], cached: number[] = [], bare: number[] = [];
       const c0 = performance.now();
-      await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
+      const first = await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
       const coldMs = performance.now() - c0;
+      const lastMs = first.body.window.toMs as number;
       // Same rows over HTTP both ways: the bare side is a plain route that selects them and sends them as JSON.
       const express = (await import('express')).default;
       const bareApp = express();
@@ -188,18 +189,26 @@ const trend: Benchmark = {
         res.json(rows);
       });
       const bareAgent = request(bareApp);
+      // The ratio is of the uncached computation: every round asks for a window the endpoint has not seen (the default
+      // 30 days with its end moved on by k ms: the same sets), so the window rates are computed afresh each time.
+      const windowOf = (k: number) => ({ from: new Date(lastMs - 30 * DAY_MS).toISOString(), to: new Date(lastMs + k).toISOString() });
       for (let k = 0; k < 12; k++) {
         const t0 = performance.now();
-        const r = await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
+        const r = await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).query(windowOf(k + 1)).expect(200);
         if (k > 1) ours.push(performance.now() - t0);
         if (r.body.series.epochMs.length !== N) throw new Error('trend lost rows');
+        if (r.body.rates === null || r.body.counts.inWindow !== first.body.counts.inWindow) throw new Error('trend window differs');
         const t1 = performance.now();
         const b = await bareAgent.get('/rows').expect(200);
         if (k > 1) bare.push(performance.now() - t1);
         if (b.body.length !== N) throw new Error('select lost rows');
+        // The same window again: the cached rates.
+        const t2 = performance.now();
+        await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).query(windowOf(k + 1)).expect(200);
+        if (k > 1) cached.push(performance.now() - t2);
       }
-      const o = median(ours), b = median(bare);
-      return { ratio: o / b, detail: `${N.toLocaleString('en-GB')} sets: trend endpoint ${o.toFixed(1)} ms vs bare SELECT as JSON ${b.toFixed(1)} ms (median of 10; window rates reused per history state — first call after an import ${coldMs.toFixed(0)} ms)` };
+      const o = median(ours), b = median(bare), c = median(cached);
+      return { ratio: o / b, detail: `${N.toLocaleString('en-GB')} sets: uncached trend endpoint ${o.toFixed(1)} ms vs bare SELECT as JSON ${b.toFixed(1)} ms (median of 10, a window not seen before each time; cached window ${c.toFixed(1)} ms; first call after the import ${coldMs.toFixed(0)} ms)` };
     } finally {
       await d.drop();
     }

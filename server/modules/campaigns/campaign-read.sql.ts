@@ -1,3 +1,5 @@
+import type { CampaignView, StretchTargetView, TierView } from '../../../shared/schemas/campaign';
+
 // The one query behind the public campaign endpoint: the campaign, its tiers and stretch targets, and the
 // progress derived from the ledger (net of refunds and disputes), as a single JSON row. The benchmark runs
 // this same text in a bare handler, so keep it here and nowhere else.
@@ -28,29 +30,10 @@ SELECT json_build_object(
 FROM campaigns c
 WHERE c.slug = $1`;
 
-export type CampaignReadRow = {
-  id: string;
-  slug: string;
-  title: string;
-  summary: string;
-  story: string;
-  goalMinor: number;
-  currency: string;
-  startsAt: string;
-  endsAt: string;
-  tiers: {
-    id: string;
-    title: string;
-    description: string;
-    minAmountMinor: number;
-    kind: 'one-time' | 'monthly';
-    quantityLimit: number | null;
-    soldCount: number;
-    estimatedDelivery: string | null;
-    position: number;
-    active: boolean;
-  }[];
-  stretchTargets: { id: string; amountMinor: number; title: string; description: string }[];
+/** The row's JSON: the view's own fields, plus the raw counts the view's derived fields come from. */
+export type CampaignReadRow = Omit<CampaignView, 'tiers' | 'stretchTargets' | 'progress'> & {
+  tiers: (Omit<TierView, 'remaining' | 'soldOut'> & { soldCount: number })[];
+  stretchTargets: Omit<StretchTargetView, 'reached'>[];
   raisedMinor: number;
   backers: number;
 };

@@ -1,6 +1,7 @@
 import { Link, useParams } from 'react-router-dom';
-import { Alert } from '@/components/ui/alert';
-import { Button, buttonClasses } from '@/components/ui/button';
+import type { TierView } from '@shared/schemas/campaign';
+import { buttonClasses } from '@/components/ui/button';
+import { PageLoadError } from '@/components/ui/page-load-error';
 import { PageSpinner } from '@/components/ui/spinner';
 import { FEATURED_CAMPAIGN, useCampaign } from '@/features/campaign/api/get-campaign';
 import { BackerWall } from '@/features/campaign/components/backer-wall';
@@ -8,7 +9,39 @@ import { CampaignProgress } from '@/features/campaign/components/campaign-progre
 import { StretchTargets } from '@/features/campaign/components/stretch-targets';
 import { TierCard } from '@/features/campaign/components/tier-card';
 import { useDocumentTitle } from '@/lib/document-title';
-import { errorMessage } from '@/lib/form-errors';
+
+function TierGroup({
+  id,
+  title,
+  intro,
+  className,
+  tiers,
+  currency,
+  open,
+}: {
+  id: string;
+  title: string;
+  intro?: string;
+  className: string;
+  tiers: TierView[];
+  currency: string;
+  open: boolean;
+}) {
+  if (tiers.length === 0) return null;
+  return (
+    <section aria-labelledby={id} className={className}>
+      <h2 id={id} className="text-2xl font-bold text-foil-50">
+        {title}
+      </h2>
+      {intro && <p className="mt-1 text-sm text-foil-400">{intro}</p>}
+      <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+        {tiers.map((t) => (
+          <TierCard key={t.id} tier={t} currency={currency} open={open} />
+        ))}
+      </div>
+    </section>
+  );
+}
 
 export function Component() {
   const { slug = FEATURED_CAMPAIGN } = useParams();
@@ -16,18 +49,7 @@ export function Component() {
   useDocumentTitle(campaign.data?.title ?? 'Campaign');
 
   if (campaign.isPending) return <PageSpinner label="Loading the campaign…" />;
-  if (campaign.isError) {
-    return (
-      <div className="mx-auto max-w-xl px-4 py-16">
-        <Alert title="Could not load the campaign">
-          <p>{errorMessage(campaign.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-3" onClick={() => campaign.refetch()}>
-            Try again
-          </Button>
-        </Alert>
-      </div>
-    );
-  }
+  if (campaign.isError) return <PageLoadError title="Could not load the campaign" error={campaign.error} onRetry={() => campaign.refetch()} />;
   const c = campaign.data;
   const open = c.progress.status === 'open';
   const oneTime = c.tiers.filter((t) => t.kind === 'one-time');
@@ -67,31 +89,16 @@ export function Component() {
         </section>
       </div>
 
-      {oneTime.length > 0 && (
-        <section aria-labelledby="tiers-title" className="mt-12">
-          <h2 id="tiers-title" className="text-2xl font-bold text-foil-50">
-            Reward tiers
-          </h2>
-          <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            {oneTime.map((t) => (
-              <TierCard key={t.id} tier={t} currency={c.currency} open={open} />
-            ))}
-          </div>
-        </section>
-      )}
-      {monthly.length > 0 && (
-        <section aria-labelledby="crew-title" className="mt-10">
-          <h2 id="crew-title" className="text-2xl font-bold text-foil-50">
-            Crew memberships
-          </h2>
-          <p className="mt-1 text-sm text-foil-400">Monthly support, renewed each month until you stop it from My support.</p>
-          <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            {monthly.map((t) => (
-              <TierCard key={t.id} tier={t} currency={c.currency} open={open} />
-            ))}
-          </div>
-        </section>
-      )}
+      <TierGroup id="tiers-title" title="Reward tiers" className="mt-12" tiers={oneTime} currency={c.currency} open={open} />
+      <TierGroup
+        id="crew-title"
+        title="Crew memberships"
+        intro="Monthly support, renewed each month until you stop it from My support."
+        className="mt-10"
+        tiers={monthly}
+        currency={c.currency}
+        open={open}
+      />
       <div className="mt-12 grid gap-10 lg:grid-cols-2">
         <StretchTargets targets={c.stretchTargets} currency={c.currency} />
         <BackerWall slug={c.slug} />

@@ -1,6 +1,4 @@
-import { formatMoney } from '@shared/money';
-
-export const money = (amountMinor: number, currency: string) => formatMoney(amountMinor, currency, 'en-US');
+export { money } from '@/lib/money';
 
 /** "12 days", "5 hours"; the label next to it says whether that is left or until opening. */
 export function timeLeft(secondsLeft: number, status: 'upcoming' | 'open' | 'ended'): string {

@@ -1,6 +1,6 @@
-import { currencyExponent, formatMoney } from '@shared/money';
+import { currencyExponent } from '@shared/money';
 
-export const money = (amountMinor: number, currency: string) => formatMoney(amountMinor, currency, 'en-US');
+export { money } from '@/lib/money';
 
 /** Typed major units ("35", "35.50", "1,200") → integer minor units, from the digits, never through a float. */
 export function parseAmountToMinor(text: string, currency: string): { minor: number } | { error: string } {

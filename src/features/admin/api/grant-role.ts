@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AccountView, Role } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { adminKeys } from './keys';
+import { invalidateAfterRoleChange } from './keys';
 
 export function grantRole({ accountId, role }: { accountId: string; role: Role }): Promise<{ account: AccountView }> {
   return api.post<{ account: AccountView }>(`/api/admin/accounts/${encodeURIComponent(accountId)}/roles`, { role });
@@ -12,10 +12,7 @@ export function useGrantRole({ onSuccess }: { onSuccess?: (account: AccountView)
   return useMutation({
     mutationFn: grantRole,
     onSuccess: async ({ account }) => {
-      await Promise.all([
-        queryClient.invalidateQueries({ queryKey: adminKeys.accounts() }),
-        queryClient.invalidateQueries({ queryKey: adminKeys.audit() }),
-      ]);
+      await invalidateAfterRoleChange(queryClient);
       onSuccess?.(account);
     },
   });

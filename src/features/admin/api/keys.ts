@@ -1,3 +1,5 @@
+import type { QueryClient } from '@tanstack/react-query';
+
 export const adminKeys = {
   all: ['admin'] as const,
   accounts: () => [...adminKeys.all, 'accounts'] as const,
@@ -5,3 +7,11 @@ export const adminKeys = {
   audit: () => [...adminKeys.all, 'audit'] as const,
   auditList: (limit: number) => [...adminKeys.audit(), { limit }] as const,
 };
+
+/** A role change shows in the account list and adds an audit entry. */
+export function invalidateAfterRoleChange(queryClient: QueryClient): Promise<unknown> {
+  return Promise.all([
+    queryClient.invalidateQueries({ queryKey: adminKeys.accounts() }),
+    queryClient.invalidateQueries({ queryKey: adminKeys.audit() }),
+  ]);
+}

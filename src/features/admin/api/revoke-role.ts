@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AccountView, Role } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { adminKeys } from './keys';
+import { invalidateAfterRoleChange } from './keys';
 
 export function revokeRole({ accountId, role }: { accountId: string; role: Role }): Promise<{ account: AccountView }> {
   return api.delete<{ account: AccountView }>(
@@ -14,10 +14,7 @@ export function useRevokeRole({ onSuccess }: { onSuccess?: (account: AccountView
   return useMutation({
     mutationFn: revokeRole,
     onSuccess: async ({ account }) => {
-      await Promise.all([
-        queryClient.invalidateQueries({ queryKey: adminKeys.accounts() }),
-        queryClient.invalidateQueries({ queryKey: adminKeys.audit() }),
-      ]);
+      await invalidateAfterRoleChange(queryClient);
       onSuccess?.(account);
     },
   });

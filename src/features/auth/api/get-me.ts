@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { AccountView } from '@shared/schemas/auth';
 import { api, isApiError } from '@/lib/api-client';
 
@@ -29,4 +29,10 @@ export function getMeQueryOptions() {
 
 export function useMe() {
   return useQuery(getMeQueryOptions());
+}
+
+/** After sign-in or sign-up: anything cached belonged to whoever was signed in before. */
+export function adoptSignedInAccount(queryClient: QueryClient, account: AccountView): void {
+  queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
+  queryClient.setQueryData(getMeQueryOptions().queryKey, account);
 }

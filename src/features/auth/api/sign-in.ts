@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AccountView, SignInInput } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { authKeys, getMeQueryOptions } from './get-me';
+import { adoptSignedInAccount } from './get-me';
 
 export function signIn(input: SignInInput): Promise<{ account: AccountView }> {
   return api.post<{ account: AccountView }>('/api/auth/sign-in', input, { rotatesSession: true });
@@ -12,9 +12,7 @@ export function useSignIn({ onSuccess }: { onSuccess?: (account: AccountView) =>
   return useMutation({
     mutationFn: signIn,
     onSuccess: ({ account }) => {
-      // Anything cached belonged to whoever was signed in before.
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
-      queryClient.setQueryData(getMeQueryOptions().queryKey, account);
+      adoptSignedInAccount(queryClient, account);
       onSuccess?.(account);
     },
   });

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AccountView, SignUpInput } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { authKeys, getMeQueryOptions } from './get-me';
+import { adoptSignedInAccount } from './get-me';
 
 export function signUp(input: SignUpInput): Promise<{ account: AccountView }> {
   return api.post<{ account: AccountView }>('/api/auth/sign-up', input, { rotatesSession: true });
@@ -12,8 +12,7 @@ export function useSignUp({ onSuccess }: { onSuccess?: (account: AccountView) =>
   return useMutation({
     mutationFn: signUp,
     onSuccess: ({ account }) => {
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authKeys.all[0] });
-      queryClient.setQueryData(getMeQueryOptions().queryKey, account);
+      adoptSignedInAccount(queryClient, account);
       onSuccess?.(account);
     },
   });

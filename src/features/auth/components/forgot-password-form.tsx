@@ -4,10 +4,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { requestPasswordResetSchema } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/text-field';
 import { applyApiError } from '@/lib/form-errors';
 import { useRequestPasswordReset } from '../api/request-password-reset';
+import { AuthForm, EmailField } from './auth-form';
 
 type Values = z.input<typeof requestPasswordResetSchema>;
 
@@ -40,19 +39,13 @@ export function ForgotPasswordForm() {
   }
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
-      {formError && <Alert title="Could not send the link">{formError}</Alert>}
-      <TextField
-        label="E-mail"
-        type="email"
-        autoComplete="email"
-        inputMode="email"
-        error={form.formState.errors.email?.message}
-        {...form.register('email')}
-      />
-      <Button type="submit" size="lg" className="w-full" loading={request.isPending}>
-        Send reset link
-      </Button>
-    </form>
+    <AuthForm
+      onSubmit={onSubmit}
+      problem={formError && <Alert title="Could not send the link">{formError}</Alert>}
+      submitLabel="Send reset link"
+      pending={request.isPending}
+    >
+      <EmailField error={form.formState.errors.email?.message} {...form.register('email')} />
+    </AuthForm>
   );
 }

@@ -4,11 +4,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { resetPasswordSchema } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-client';
 import { applyApiError } from '@/lib/form-errors';
 import { useResetPassword } from '../api/reset-password';
+import { AuthForm, PasswordField } from './auth-form';
 
 type Values = z.input<typeof resetPasswordSchema>;
 
@@ -34,25 +33,27 @@ export function ResetPasswordForm({ token, onDone }: { token: string; onDone: ()
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
-      {(formError || errors.token) && (
-        <Alert title="Could not set the password">
-          {formError?.message ?? 'This reset link is incomplete.'}
-          {(formError?.tokenProblem || errors.token) && ' Reset links work once and expire; ask for a new one below.'}
-        </Alert>
-      )}
+    <AuthForm
+      onSubmit={onSubmit}
+      problem={
+        (formError || errors.token) && (
+          <Alert title="Could not set the password">
+            {formError?.message ?? 'This reset link is incomplete.'}
+            {(formError?.tokenProblem || errors.token) && ' Reset links work once and expire; ask for a new one below.'}
+          </Alert>
+        )
+      }
+      submitLabel="Set new password"
+      pending={reset.isPending}
+    >
       <input type="hidden" {...form.register('token')} />
-      <TextField
+      <PasswordField
         label="New password"
-        type="password"
         autoComplete="new-password"
         hint="At least 10 characters."
         error={errors.password?.message}
         {...form.register('password')}
       />
-      <Button type="submit" size="lg" className="w-full" loading={reset.isPending}>
-        Set new password
-      </Button>
-    </form>
+    </AuthForm>
   );
 }

@@ -4,10 +4,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { signInSchema, type AccountView } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/text-field';
 import { applyApiError } from '@/lib/form-errors';
 import { useSignIn } from '../api/sign-in';
+import { AuthForm, EmailField, PasswordField } from './auth-form';
 
 type Values = z.input<typeof signInSchema>;
 
@@ -31,26 +30,14 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (account: AccountView) 
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
-      {formError && <Alert title="Could not sign in">{formError}</Alert>}
-      <TextField
-        label="E-mail"
-        type="email"
-        autoComplete="email"
-        inputMode="email"
-        error={errors.email?.message}
-        {...form.register('email')}
-      />
-      <TextField
-        label="Password"
-        type="password"
-        autoComplete="current-password"
-        error={errors.password?.message}
-        {...form.register('password')}
-      />
-      <Button type="submit" size="lg" className="w-full" loading={signIn.isPending}>
-        Sign in
-      </Button>
-    </form>
+    <AuthForm
+      onSubmit={onSubmit}
+      problem={formError && <Alert title="Could not sign in">{formError}</Alert>}
+      submitLabel="Sign in"
+      pending={signIn.isPending}
+    >
+      <EmailField error={errors.email?.message} {...form.register('email')} />
+      <PasswordField autoComplete="current-password" error={errors.password?.message} {...form.register('password')} />
+    </AuthForm>
   );
 }

@@ -4,10 +4,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { signUpSchema, type AccountView } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/text-field';
 import { applyApiError } from '@/lib/form-errors';
 import { useSignUp } from '../api/sign-up';
+import { AuthForm, EmailField, PasswordField } from './auth-form';
 
 type Values = z.input<typeof signUpSchema>;
 
@@ -35,8 +35,12 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) 
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
-      {formError && <Alert title="Could not create the account">{formError}</Alert>}
+    <AuthForm
+      onSubmit={onSubmit}
+      problem={formError && <Alert title="Could not create the account">{formError}</Alert>}
+      submitLabel="Create account"
+      pending={signUp.isPending}
+    >
       <TextField
         label="Display name"
         autoComplete="nickname"
@@ -44,25 +48,13 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) 
         error={errors.displayName?.message}
         {...form.register('displayName')}
       />
-      <TextField
-        label="E-mail"
-        type="email"
-        autoComplete="email"
-        inputMode="email"
-        error={errors.email?.message}
-        {...form.register('email')}
-      />
-      <TextField
-        label="Password"
-        type="password"
+      <EmailField error={errors.email?.message} {...form.register('email')} />
+      <PasswordField
         autoComplete="new-password"
         hint="At least 10 characters. A short sentence works well."
         error={errors.password?.message}
         {...form.register('password')}
       />
-      <Button type="submit" size="lg" className="w-full" loading={signUp.isPending}>
-        Create account
-      </Button>
-    </form>
+    </AuthForm>
   );
 }

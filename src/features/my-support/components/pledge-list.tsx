@@ -1,7 +1,8 @@
 import { Link } from 'react-router-dom';
 import { Badge } from '@/components/ui/badge';
+import { pledgeStateLabels } from '@/lib/pledge-state';
 import type { MyPledge } from '../api/get-my-pledges';
-import { dateFormat, money, stateLabels, stateTone } from '../format';
+import { dateFormat, money, stateTone } from '../format';
 
 const paymentLabel = { charge: 'Payment', refund: 'Refund', dispute: 'Disputed by the card holder' } as const;
 
@@ -20,7 +21,7 @@ export function PledgeList({ pledges }: { pledges: MyPledge[] }) {
                 {p.campaign.title} · started {dateFormat.format(new Date(p.createdAt))} · shown as {p.publicName ?? 'anonymous'}
               </p>
             </div>
-            <Badge tone={stateTone(p.state)}>{stateLabels[p.state]}</Badge>
+            <Badge tone={stateTone(p.state)}>{pledgeStateLabels[p.state]}</Badge>
           </div>
           {p.failureReason && (p.state === 'failed' || p.state === 'abandoned') && <p className="mt-2 text-sm text-amber-200">{p.failureReason}</p>}
           {p.checkoutUrl && p.state === 'started' && (

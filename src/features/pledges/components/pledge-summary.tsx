@@ -1,15 +1,6 @@
 import type { PledgeView } from '@shared/schemas/campaign';
+import { pledgeStateLabels } from '@/lib/pledge-state';
 import { money } from '../amount';
-
-export const pledgeStateLabels: Record<PledgeView['state'], string> = {
-  started: 'Waiting for payment',
-  paid: 'Paid',
-  partly_refunded: 'Partly refunded',
-  refunded: 'Refunded',
-  disputed: 'Disputed',
-  failed: 'Not paid',
-  abandoned: 'Cancelled',
-};
 
 export function PledgeSummary({ pledge }: { pledge: PledgeView }) {
   return (
