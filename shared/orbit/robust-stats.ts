@@ -33,19 +33,52 @@ export type TheilSenFit = {
 
 const MAX_PAIRS = 400_000;
 
-/** Float64Array.prototype.sort's order: −0 before +0 (NaN is kept out of the selection by the caller). */
+type Pairs = { i: Int32Array; j: Int32Array; dx: Float64Array; count: number };
+
+/**
+ * The pairs the slopes are taken over: every pair with distinct x up to MAX_PAIRS of them, above that a deterministic
+ * sample (xorshift32 from a fixed seed, so the same pairs every time for the same n).
+ */
+function pairsOf(x: ArrayLike<number>, n: number): Pairs {
+  const total = (n * (n - 1)) / 2;
+  const size = total <= MAX_PAIRS ? total : MAX_PAIRS;
+  const pi = new Int32Array(size), pj = new Int32Array(size), pdx = new Float64Array(size);
+  let c = 0;
+  if (total <= MAX_PAIRS) {
+    for (let i = 0; i < n; i++) {
+      const xi = x[i]!;
+      for (let j = i + 1; j < n; j++) {
+        const dx = x[j]! - xi;
+        if (dx !== 0) { pi[c] = i; pj[c] = j; pdx[c++] = dx; }
+      }
+    }
+  } else {
+    // xorshift32 kept in int32 arithmetic (a local small integer, no boxed doubles): the same bits as the unsigned form.
+    let seed = 0x9e3779b9 | 0;
+    for (let k = 0; k < MAX_PAIRS; k++) {
+      seed ^= seed << 13; seed ^= seed >>> 17; seed ^= seed << 5;
+      const i = Math.floor(((seed >>> 0) / 4294967296) * n);
+      seed ^= seed << 13; seed ^= seed >>> 17; seed ^= seed << 5;
+      const j = Math.floor(((seed >>> 0) / 4294967296) * n);
+      const dx = x[j]! - x[i]!;
+      if (dx !== 0) { pi[c] = i; pj[c] = j; pdx[c++] = dx; }
+    }
+  }
+  return { i: pi, j: pj, dx: pdx, count: c };
+}
+
+/** Float64Array.prototype.sort's order on non-NaN values: −0 before +0. */
 function before(a: number, b: number): boolean {
   return a < b || (a === 0 && b === 0 && 1 / a < 0 && 1 / b > 0);
 }
 
 /**
- * Moves the value of rank k (0-based, in sort order) of a[lo…hi] to a[k], smaller ones before it and larger after
- * (Hoare's selection, median-of-three pivot): the order statistics a sort would give, in linear expected time.
+ * Moves the value of rank k (0-based, in sort order) of a[lo…hi] to a[k], no larger ones before it and no smaller
+ * after (Hoare's selection with a median-of-three pivot; a holds no NaN).
  */
-function selectRank(a: Float64Array, lo: number, hi: number, k: number): number {
+function selectRank(a: Float64Array, lo: number, hi: number, k: number): void {
   while (hi > lo) {
     const mid = lo + ((hi - lo) >> 1);
-    // Median of three into a[mid] as the pivot.
     if (before(a[mid]!, a[lo]!)) { const t = a[mid]!; a[mid] = a[lo]!; a[lo] = t; }
     if (before(a[hi]!, a[lo]!)) { const t = a[hi]!; a[hi] = a[lo]!; a[lo] = t; }
     if (before(a[hi]!, a[mid]!)) { const t = a[hi]!; a[hi] = a[mid]!; a[mid] = t; }
@@ -58,88 +91,86 @@ function selectRank(a: Float64Array, lo: number, hi: number, k: number): number 
     }
     if (k <= j) hi = j;
     else if (k >= i) lo = i;
-    else return a[k]!;
+    else return;
   }
-  return a[k]!;
 }
 
+/** Values of the ascending ranks[from…to] of a[lo…hi] into out, selecting the middle one first and splitting there. */
+function selectRanks(a: Float64Array, lo: number, hi: number, ranks: readonly number[], from: number, to: number, out: number[]): void {
+  if (from > to) return;
+  const m = (from + to) >> 1, k = ranks[m]!;
+  selectRank(a, lo, hi, k);
+  out[m] = a[k]!;
+  selectRanks(a, lo, k - 1, ranks, from, m - 1, out);
+  selectRanks(a, k + 1, hi, ranks, m + 1, to, out);
+}
+
+const SAMPLE = 4096;
+
 /**
- * Theil–Sen line through (x, y). Up to ~900 points every pair is used; above that a deterministic sample of
- * pairs (fixed-seed generator) keeps the cost bounded — the common practice for large n — and the 95 % interval
- * is Sen's rank interval scaled to the sampled pairs. The median and the interval ends are order statistics of the
- * pairwise slopes, picked by selection (linear) rather than a full sort (n log n): the same values a sort gives.
+ * Values of the given ascending ranks (0-based) of the sorted pairwise slopes, without sorting them all: the ranks
+ * needed (the median and Sen's interval) sit in a narrow band. A sample of the slopes bounds that band; one pass
+ * counts the slopes below it and keeps those inside, and the ranks are selected among the kept ones. The bounds
+ * are inclusive, so ties at a bound are all kept, and the selection orders −0 before +0 as a sort does; should the
+ * band miss a wanted rank, every slope is sorted instead. Either way the values are exactly those of a full sort.
  */
-export function theilSen(x: ArrayLike<number>, y: ArrayLike<number>): TheilSenFit | null {
-  const n = Math.min(x.length, y.length);
-  if (n < 2) return null;
-  const total = (n * (n - 1)) / 2;
-  let slopes: Float64Array;
-  // Finite-or-infinite slopes are gathered at the front; NaN ones (only from non-finite y) rank last, as in a sort.
-  let count = 0;
-  let nans = 0;
-  if (total <= MAX_PAIRS) {
-    slopes = new Float64Array(total);
-    for (let i = 0; i < n; i++) {
-      const xi = x[i]!, yi = y[i]!;
-      for (let j = i + 1; j < n; j++) {
-        const dx = x[j]! - xi;
-        if (dx !== 0) {
-          const v = (y[j]! - yi) / dx;
-          if (v === v) slopes[count++] = v;
-          else nans++;
+function slopeRanks(y: Float64Array, p: Pairs, ranks: readonly number[]): number[] {
+  const count = p.count;
+  const { i: pi, j: pj, dx } = p;
+  const lo = ranks[0]!, hi = ranks[ranks.length - 1]!;
+  if (count > 8 * SAMPLE) {
+    const stride = Math.floor(count / SAMPLE);
+    const sample = new Float64Array(SAMPLE);
+    for (let q = 0; q < SAMPLE; q++) { const k = q * stride; sample[q] = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!; }
+    sample.sort();
+    // Sample positions of the wanted ranks, widened by 5 standard deviations of a sample quantile (σ ≤ √m / 2).
+    const margin = Math.ceil(2.5 * Math.sqrt(SAMPLE)) + 2;
+    const a = Math.floor((lo / count) * SAMPLE) - margin, b = Math.ceil((hi / count) * SAMPLE) + margin;
+    if (a > 0 && b < SAMPLE - 1) {
+      const lowBound = sample[a]!, highBound = sample[b]!;
+      if (lowBound === lowBound && highBound === highBound) {
+        // Branch-free: every slope is written at the next free place, which moves on only for one inside the band
+        // (NaN is in neither count). A store past the end is dropped by the typed array; kept then tells.
+        const band = new Float64Array(Math.min(count, 4 * (b - a) * stride + 1024));
+        let below = 0, kept = 0;
+        for (let k = 0; k < count; k++) {
+          const v = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!;
+          band[kept] = v;
+          const under = +(v < lowBound);
+          below += under;
+          kept += +(v <= highBound) - under;
+        }
+        if (kept < band.length && below <= lo && hi < below + kept) {
+          const out: number[] = [];
+          selectRanks(band, 0, kept - 1, ranks.map((r) => r - below), 0, ranks.length - 1, out);
+          return out;
         }
       }
     }
-  } else {
-    slopes = new Float64Array(MAX_PAIRS);
-    let seed = 0x9e3779b9;
-    const rand = () => {
-      seed ^= seed << 13; seed >>>= 0;
-      seed ^= seed >>> 17;
-      seed ^= seed << 5; seed >>>= 0;
-      return seed / 4294967296;
-    };
-    for (let k = 0; k < MAX_PAIRS; k++) {
-      const i = Math.floor(rand() * n), j = Math.floor(rand() * n);
-      const dx = x[j]! - x[i]!;
-      if (dx !== 0) {
-        const v = (y[j]! - y[i]!) / dx;
-        if (v === v) slopes[count++] = v;
-        else nans++;
-      }
-    }
   }
-  const finite = count;
-  count += nans;
+  const all = new Float64Array(count);
+  for (let k = 0; k < count; k++) all[k] = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!;
+  all.sort();
+  return ranks.map((r) => all[r]!);
+}
+
+function fitOverPairs(x: ArrayLike<number>, yIn: ArrayLike<number>, n: number, p: Pairs): TheilSenFit | null {
+  const count = p.count;
   if (count === 0) return null;
-  const s = slopes.subarray(0, count);
-  s.fill(NaN, finite);
+  const y = yIn instanceof Float64Array && yIn.length === n ? yIn : Float64Array.from({ length: n }, (_, k) => yIn[k]!);
+  const total = (n * (n - 1)) / 2;
   const mid = count >> 1;
-  // Rank r of the sorted slopes; each call leaves s partitioned around r, so later picks search one side only.
-  let upper = mid < finite ? selectRank(s, 0, finite - 1, mid) : NaN;
-  let lower = NaN;
-  if (count % 2 === 0) {
-    if (mid - 1 < finite) {
-      if (mid < finite) {
-        // Rank mid − 1 is the largest of s[0…mid − 1].
-        lower = s[0]!;
-        for (let k = 1; k < mid; k++) if (before(lower, s[k]!)) lower = s[k]!;
-      } else lower = selectRank(s, 0, finite - 1, mid - 1);
-    }
-  }
-  const slope = count % 2 ? upper : (lower + upper) / 2;
-  const resid0 = new Float64Array(n);
-  for (let i = 0; i < n; i++) resid0[i] = y[i]! - slope * x[i]!;
-  const intercept = median(resid0);
   // Sen (1968): C = z·√(n(n−1)(2n+5)/18) ranks either side of the median, scaled to the sampled pair count.
   const c = 1.96 * Math.sqrt((n * (n - 1) * (2 * n + 5)) / 18) * (count / total);
   const lowRank = Math.max(0, Math.floor((count - c) / 2));
   const highRank = Math.min(count - 1, Math.ceil((count + c) / 2));
-  const rankOf = (r: number, lo: number, hi: number) => (r < finite ? selectRank(s, lo, Math.min(hi, finite - 1), r) : NaN);
-  // lowRank ≤ mid ≤ highRank: the selections above left everything below rank mid in s[0…mid − 1], the rest after.
-  const slopeLow = lowRank === mid ? upper : lowRank < mid ? rankOf(lowRank, 0, mid - 1) : rankOf(lowRank, mid, count - 1);
-  const slopeHigh = highRank === mid ? upper : highRank > mid ? rankOf(highRank, mid + 1, count - 1) : rankOf(highRank, 0, mid - 1);
-  upper = 0; // only the values above are used from here on
+  const ranks = [...new Set([lowRank, count % 2 ? mid : mid - 1, mid, highRank])].sort((u, v) => u - v);
+  const values = slopeRanks(y, p, ranks);
+  const at = (rank: number) => values[ranks.indexOf(rank)]!;
+  const slope = count % 2 ? at(mid) : (at(mid - 1) + at(mid)) / 2;
+  const resid0 = new Float64Array(n);
+  for (let i = 0; i < n; i++) resid0[i] = y[i]! - slope * x[i]!;
+  const intercept = median(resid0);
   let xm = 0;
   for (let i = 0; i < n; i++) xm += x[i]!;
   xm /= n;
@@ -148,7 +179,27 @@ export function theilSen(x: ArrayLike<number>, y: ArrayLike<number>): TheilSenFi
   for (let i = 0; i < n; i++) resid0[i] = y[i]! - (intercept + slope * x[i]!);
   const residualSigma = MAD_TO_SIGMA * medianAbsoluteDeviation(resid0, 0);
   return {
-    slope, intercept, slopeLow, slopeHigh, pairCount: count, residualSigma,
+    slope, intercept, slopeLow: at(lowRank), slopeHigh: at(highRank), pairCount: count, residualSigma,
     slopeStandardError: sxx > 0 ? residualSigma / Math.sqrt(sxx) : Infinity,
   };
+}
+
+/**
+ * Theil–Sen line through (x, y). Up to ~900 points every pair is used; above that a deterministic sample of
+ * 400 000 pairs (fixed-seed generator) keeps the cost bounded — the common practice for large n — and the 95 %
+ * interval is Sen's rank interval scaled to the sampled pairs. The median and the interval ends are the order
+ * statistics a full sort of the pairwise slopes gives, found without sorting them all (see slopeRanks).
+ */
+export function theilSen(x: ArrayLike<number>, y: ArrayLike<number>): TheilSenFit | null {
+  const n = Math.min(x.length, y.length);
+  if (n < 2) return null;
+  return fitOverPairs(x, y, n, pairsOf(x, n));
+}
+
+/** theilSen(x, y) for each y of x's length, the pairs drawn once; every result equals theilSen's own. */
+export function theilSenMany(x: ArrayLike<number>, ys: readonly ArrayLike<number>[]): (TheilSenFit | null)[] {
+  const n = x.length;
+  if (n < 2 || ys.some((y) => y.length !== n)) return ys.map((y) => theilSen(x, y));
+  const pairs = pairsOf(x, n);
+  return ys.map((y) => fitOverPairs(x, y, n, pairs));
 }

@@ -3,7 +3,7 @@
 import { MU_WGS72_KM3_PER_S2 } from './constants';
 import { deriveElementSet } from './derived';
 import { alongTrackAccelerationMPerS2 } from './physics';
-import { median, medianAbsoluteDeviation, theilSen } from './robust-stats';
+import { median, medianAbsoluteDeviation, theilSenMany } from './robust-stats';
 import type { ElementSet } from './types';
 
 export type TrendPoint = {
@@ -108,36 +108,55 @@ export function computeTrend(sets: readonly ElementSet[], opts: TrendOptions = {
     catalogNumber, points, counts, fromMs: opts.fromMs ?? null, toMs: opts.toMs ?? null,
     spanDays: points.length ? (points[points.length - 1]!.epochMs - points[0]!.epochMs) / 86_400_000 : 0,
   };
-  if (points.length < 3) {
-    counts.used = points.length;
-    return { ...base, rates: null, intervals: null };
-  }
+  const fit = fitTrendSamples(points, opts.outlierThreshold);
+  counts.outliers = fit.outliers;
+  counts.used = fit.used;
+  return { ...base, rates: fit.rates, intervals: fit.intervals };
+}
+
+/** What the outlier screen and the rate fits read and write of a point; a TrendPoint has all of it. */
+export type TrendSample = {
+  epochMs: number;
+  semiMajorAxisKm: number;
+  apogeeAltitudeKm: number;
+  perigeeAltitudeKm: number;
+  specificEnergyJPerKg: number;
+  outlier: boolean;
+  outlierScore: number;
+};
+
+/**
+ * The outlier screen and the rates of computeTrend over points already of one object, de-duplicated and sorted by
+ * epoch, with their derived values (for instance as stored at import): sets `outlier` and `outlierScore` on each.
+ */
+export function fitTrendSamples(points: TrendSample[], outlierThreshold = 3.5): Pick<Trend, 'rates' | 'intervals'> & { outliers: number; used: number } {
+  if (points.length < 3) return { rates: null, intervals: null, outliers: 0, used: points.length };
   const t0 = points[0]!.epochMs;
   const xDays = Float64Array.from(points, (p) => (p.epochMs - t0) / 86_400_000);
-  const threshold = opts.outlierThreshold ?? 3.5;
-  for (const key of ['semiMajorAxisKm', 'perigeeAltitudeKm'] as const) {
-    const y = Float64Array.from(points, (p) => p[key]);
-    const fit = theilSen(xDays, y);
-    if (!fit) continue;
-    const resid = Float64Array.from(points, (p, i) => p[key] - (fit.intercept + fit.slope * xDays[i]!));
+  const threshold = outlierThreshold;
+  const screenKeys = ['semiMajorAxisKm', 'perigeeAltitudeKm'] as const;
+  const screenY = screenKeys.map((key) => Float64Array.from(points, (p) => p[key]));
+  // One pass over the pairs for both screening fits (theilSenMany gives each what theilSen would).
+  theilSenMany(xDays, screenY).forEach((fit, k) => {
+    if (!fit) return;
+    const y = screenY[k]!;
+    const resid = Float64Array.from(y, (v, i) => v - (fit.intercept + fit.slope * xDays[i]!));
     const z = modifiedZ(resid);
     points.forEach((p, i) => { p.outlierScore = Math.max(p.outlierScore, z[i]!); });
-  }
+  });
   for (const p of points) p.outlier = p.outlierScore > threshold;
   const good = points.filter((p) => !p.outlier);
-  counts.outliers = points.length - good.length;
-  counts.used = good.length;
-  if (good.length < 2) return { ...base, rates: null, intervals: null };
+  const tally = { outliers: points.length - good.length, used: good.length };
+  if (good.length < 2) return { rates: null, intervals: null, ...tally };
   const gx = Float64Array.from(good, (p) => (p.epochMs - t0) / 86_400_000);
-  const fitOf = (key: 'apogeeAltitudeKm' | 'perigeeAltitudeKm' | 'semiMajorAxisKm' | 'specificEnergyJPerKg') =>
-    theilSen(gx, Float64Array.from(good, (p) => p[key]))!;
-  const apo = fitOf('apogeeAltitudeKm'), peri = fitOf('perigeeAltitudeKm'), sma = fitOf('semiMajorAxisKm'), energy = fitOf('specificEnergyJPerKg');
-  if (!apo || !peri || !sma || !energy) return { ...base, rates: null, intervals: null };
+  const rateKeys = ['apogeeAltitudeKm', 'perigeeAltitudeKm', 'semiMajorAxisKm', 'specificEnergyJPerKg'] as const;
+  const [apo, peri, sma, energy] = theilSenMany(gx, rateKeys.map((key) => Float64Array.from(good, (p) => p[key])));
+  if (!apo || !peri || !sma || !energy) return { rates: null, intervals: null, ...tally };
   const aMedianKm = median(Float64Array.from(good, (p) => p.semiMajorAxisKm));
   const mu = MU_WGS72_KM3_PER_S2 * 1e9;
   const accel = (v: number) => alongTrackAccelerationMPerS2(v, aMedianKm, mu);
   return {
-    ...base,
+    ...tally,
     rates: {
       apogeeKmPerDay: apo.slope, perigeeKmPerDay: peri.slope, semiMajorAxisKmPerDay: sma.slope,
       energyJPerKgPerDay: energy.slope, alongTrackAccelMPerS2: accel(energy.slope),

@@ -10,7 +10,7 @@ import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
 import { deriveElementSet } from '../../../shared/orbit/derived';
 import type { ElementSet, ParseError } from '../../../shared/orbit/types';
-import { binOf, flagOutliers, OUTLIER_BIN_MS } from './outliers';
+import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
 import { emptyUpload, notText, unrecognisedFormat, uploadNotFound, uploadNotReady, spacecraftNotFound } from './orbit.errors';
 
@@ -172,10 +172,38 @@ function* copyChunks(rows: PreparedSet[], onChunk: (n: number) => unknown, prefi
   }
 }
 
+/** The 30-day bins that hold epochs between `fromMs` and `toMs`: [start, end). */
+function outlierRange(fromMs: number, toMs: number) {
+  return { start: binOf(fromMs) * OUTLIER_BIN_MS, end: (binOf(toMs) + 1) * OUTLIER_BIN_MS };
+}
+
+/**
+ * The outlier flags an import of `rows` (none of them stored yet) leaves in the bins it touches, from the stored sets
+ * around them and the rows themselves, by the same rule as refreshOutliers: which of the rows are outliers, and
+ * which stored sets of those bins change flag. Runs in turns, alongside the COPY of the rows.
+ */
+async function importOutliers(client: pg.PoolClient, spacecraftId: string, rows: readonly PreparedSet[], fromMs: number, toMs: number) {
+  const { start, end } = outlierRange(fromMs, toMs);
+  const { rows: stored } = await client.query<{ id: string; epoch_ms: number; a: number; p: number; outlier: boolean }>(
+    `select id, epoch_ms, semi_major_axis_km as a, perigee_altitude_km as p, outlier from element_sets
+      where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms < $3`,
+    [spacecraftId, start - OUTLIER_BIN_MS, end + OUTLIER_BIN_MS],
+  );
+  // New rows have no id yet: they go in as −1, −2, … (stored ids are positive).
+  const input: OutlierInput[] = stored.map((r) => ({ id: Number(r.id), epochMs: r.epoch_ms, semiMajorAxisKm: r.a, perigeeAltitudeKm: r.p }));
+  for (let k = 0; k < rows.length; k++) {
+    const r = rows[k]!;
+    input.push({ id: -(k + 1), epochMs: r.epochMs, semiMajorAxisKm: r.semiMajorAxisKm, perigeeAltitudeKm: r.perigeeAltitudeKm });
+  }
+  const flagged = await flagOutliersInTurns(input);
+  const newOutliers = rows.filter((_, k) => flagged.has(-(k + 1)));
+  const changed = stored.filter((r) => r.epoch_ms >= start && r.epoch_ms < end && flagged.has(Number(r.id)) !== r.outlier);
+  return { newOutliers, changed: changed.map((r) => ({ id: r.id, outlier: !r.outlier })) };
+}
+
 /** Re-checks the outlier flags of the 30-day bins that hold epochs between `fromMs` and `toMs`. */
-export async function refreshOutliers(pool: pg.Pool, spacecraftId: string, fromMs: number, toMs: number) {
-  const start = binOf(fromMs) * OUTLIER_BIN_MS;
-  const end = (binOf(toMs) + 1) * OUTLIER_BIN_MS;
+export async function refreshOutliers(pool: Pick<pg.Pool, 'query'>, spacecraftId: string, fromMs: number, toMs: number) {
+  const { start, end } = outlierRange(fromMs, toMs);
   // One bin either side gives the sets at the edges their neighbours; only the touched bins are written.
   const { rows } = await pool.query<{ id: string; epoch_ms: number; a: number; p: number }>(
     `select id, epoch_ms, semi_major_axis_km as a, perigee_altitude_km as p from element_sets
@@ -243,7 +271,25 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
   }
 
   async function runPreview(jobId: string, text: string, craft: typeof spacecraft.$inferSelect) {
+    // The database stores (and compresses) the held text while this process parses it: the query is handed to
+    // the connection first, then the parse runs; the job is previewed only once both are done.
+    const writer = await pool.connect();
+    const held = writer
+      .query('update orbit_ingest_jobs set content = $2 where id = $1', [jobId, text])
+      .then(() => null, (error: unknown) => ({ error }))
+      .finally(() => writer.release());
+    // Let the socket take the text before the parse holds the event loop (bounded: a slow reader only costs overlap).
+    const socket = (writer as unknown as { connection?: { stream?: NodeJS.WritableStream & { writableLength?: number } } }).connection?.stream;
+    if (socket && (socket.writableLength ?? 0) > 0) {
+      await new Promise<void>((resolve) => {
+        const timer = setTimeout(done, 2000);
+        function done() { clearTimeout(timer); socket!.removeListener('drain', done); resolve(); }
+        socket.once('drain', done);
+      });
+    }
     const result = prepareSets(text, craft);
+    const heldResult = await held;
+    if (heldResult) throw heldResult.error;
     const total = result.prepared.length;
     await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
     // Count what the history already holds, in batches so progress moves on large files.
@@ -307,12 +353,17 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         .where(eq(ingestJobs.id, job.id));
       return;
     }
+    let lo = Infinity, hi = -Infinity;
+    for (const r of rows) { if (r.epochMs < lo) lo = r.epochMs; if (r.epochMs > hi) hi = r.epochMs; }
     const client = await pool.connect();
     let imported = 0;
     let fileId: string;
     try {
       await client.query('begin');
-      // One row per distinct file content; a concurrent import of the same bytes waits here, then reuses it.
+      // One import per spacecraft at a time: the outlier flags below are worked out from the stored sets around the
+      // new ones, which must not change under them. A concurrent import of the same bytes waits here, then reuses the file row.
+      await client.query('select pg_advisory_xact_lock(hashtext($1))', [`element_sets:${craft.id}`]);
+      // One row per distinct file content.
       // The original text moves from the job row to the file row inside the database, not through this process again.
       const ins = await client.query<{ id: string }>(
         `insert into element_set_files (spacecraft_id, content_sha256, filename, format, byte_size, content, record_count, imported_count, duplicate_count, invalid_count, uploaded_by)
@@ -328,23 +379,49 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
       }
       await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [job.id, rows.length]);
       const progress = (n: number) => pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [job.id, n]).catch(() => undefined);
+      // The outlier screen of the touched bins runs in turns while the COPY streams (the database does most of
+      // that work), so the rows go in once, unflagged, and only the few outliers are marked after.
+      // (Its SELECT is queued on this client ahead of the COPY; the settled form keeps a failure from going unhandled.)
+      const outliers = importOutliers(client, craft.id, rows, lo, hi).then((value) => ({ value }), (error: unknown) => ({ error }));
       // Straight COPY into the table first. Should any set be there already (a concurrent import of the same
       // file won the race), the unique key refuses the COPY; then COPY into a scratch table and
       // INSERT … ON CONFLICT DO NOTHING. Either way the key, not this code, keeps every set single.
       await client.query('savepoint direct_copy');
+      let direct = true;
       try {
-        const direct = client.query(copyFrom(`copy element_sets (spacecraft_id, file_id, ${INSERT_COLUMNS.map(([n]) => n).join(', ')}) from stdin`));
-        await pipeline(Readable.from(copyChunks(rows, progress, `${craft.id}\t${fileId}\t`)), direct);
+        const copy = client.query(copyFrom(`copy element_sets (spacecraft_id, file_id, ${INSERT_COLUMNS.map(([n]) => n).join(', ')}) from stdin`));
+        await pipeline(Readable.from(copyChunks(rows, progress, `${craft.id}\t${fileId}\t`)), copy);
         await client.query('release savepoint direct_copy');
         imported = rows.length;
       } catch (err) {
         if ((err as { code?: string }).code !== '23505') throw err;
+        direct = false;
         await client.query('rollback to savepoint direct_copy');
         await client.query(`create temp table element_sets_incoming (${INCOMING_COLUMNS}) on commit drop`);
         const copy = client.query(copyFrom(`copy element_sets_incoming from stdin`));
         await pipeline(Readable.from(copyChunks(rows, progress, '')), copy);
         const res = await client.query(INSERT_FROM_INCOMING, [craft.id, fileId]);
         imported = res.rowCount ?? 0;
+      }
+      const screen = await outliers;
+      if ('error' in screen) throw screen.error;
+      const { newOutliers, changed } = screen.value;
+      if (direct) {
+        // Every row went in: mark the new outliers (by the unique key) and the stored sets whose flag changed.
+        if (newOutliers.length) {
+          await client.query(
+            `update element_sets e set outlier = true from unnest($3::timestamptz[], $4::int4[]) as k(epoch, no)
+              where e.spacecraft_id = $1 and e.catalog_number_int = $2 and e.epoch = k.epoch and e.element_set_no = k.no`,
+            [craft.id, craft.catalogNumberInt, newOutliers.map((r) => r.epoch), newOutliers.map((r) => r.elementSetNo)],
+          );
+        }
+        if (changed.length) {
+          await client.query('update element_sets e set outlier = k.outlier from unnest($1::bigint[], $2::bool[]) as k(id, outlier) where e.id = k.id',
+            [changed.map((c) => c.id), changed.map((c) => c.outlier)]);
+        }
+      } else if (imported > 0) {
+        // Some rows were stored already, so the screen above counted them twice: redo it from the table.
+        await refreshOutliers(client, craft.id, lo, hi);
       }
       if (newFile) {
         await client.query('update element_set_files set imported_count = $2, duplicate_count = $3 where id = $1', [fileId, imported, job.duplicateCount + (rows.length - imported)]);
@@ -359,11 +436,6 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
       throw err;
     } finally {
       client.release();
-    }
-    if (imported > 0 && rows.length > 0) {
-      let lo = Infinity, hi = -Infinity;
-      for (const r of rows) { if (r.epochMs < lo) lo = r.epochMs; if (r.epochMs > hi) hi = r.epochMs; }
-      await refreshOutliers(pool, craft.id, lo, hi);
     }
     const skipped = rows.length - imported;
     await db
@@ -425,11 +497,12 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
           filename: input.filename.slice(0, 200) || 'pasted.txt',
           byteSize: input.bytes.length,
           contentSha256: sha,
-          content: text,
           format,
           existingFileId: existing?.id ?? null,
         })
         .returning(jobColumns);
+      // The text is held on the job row (for an import after a restart, and to move into the file row) by the
+      // preview, which writes it while it parses.
       track(row!.id, () => runPreview(row!.id, text, craft));
       return view(row!);
     },

@@ -3,13 +3,13 @@ import type pg from 'pg';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit } from '../audit/audit.repository';
-import { computeTrend, type Trend } from '../../../shared/orbit/trends';
+import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { median } from '../../../shared/orbit/robust-stats';
 import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
 import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/sail-drag-balance';
 import { estimateLifetime } from '../../../shared/orbit/lifetime';
-import type { ElementSet, SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
+import type { SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, spacecraftNotFound } from './orbit.errors';
@@ -38,43 +38,50 @@ export function sailingPeriodView(p: PeriodRow) {
   return { id: p.id, spacecraftId: p.spacecraftId, startAt: p.startAt.toISOString(), endAt: p.endAt.toISOString(), mode: p.mode, note: p.note, createdAt: p.createdAt.toISOString(), updatedAt: p.updatedAt.toISOString() };
 }
 
-/** Rows as the trend reads them: everything SGP4-derived is stored at import, so the trend only selects. */
-const TREND_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier
+/**
+ * Rows as the trend reads them: everything SGP4-derived is stored at import, so the trend only selects — once, for
+ * both the series and the rate window (a slice of the same rows). Arrays, not row objects: 20k sets make 20k objects.
+ */
+const TREND_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier, element_set_no
   from element_sets where spacecraft_id = $1 order by epoch_ms, element_set_no`;
+type TrendRow = [epochMs: number, apogeeKm: number, perigeeKm: number, meanAltitudeKm: number, semiMajorAxisKm: number, energyJPerKg: number, outlier: boolean, elementSetNo: number];
 
-const WINDOW_SQL = `select epoch_ms, to_char(epoch at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as epoch, element_set_no, source_line,
-  catalog_number_int, classification, international_designator, mean_motion_rev_per_day, mean_motion_dot_rev_per_day2,
-  mean_motion_ddot_rev_per_day3, bstar, inclination_deg, raan_deg, eccentricity, arg_perigee_deg, mean_anomaly_deg, rev_at_epoch, line1, line2
-  from element_sets where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms <= $3 order by epoch_ms`;
-
-type WindowRow = {
-  epoch_ms: number; epoch: string; element_set_no: number; source_line: number; catalog_number_int: number; classification: string;
-  international_designator: string; mean_motion_rev_per_day: number; mean_motion_dot_rev_per_day2: number; mean_motion_ddot_rev_per_day3: number;
-  bstar: number; inclination_deg: number; raan_deg: number; eccentricity: number; arg_perigee_deg: number; mean_anomaly_deg: number;
-  rev_at_epoch: number; line1: string; line2: string;
-};
-
-export function toElementSet(r: WindowRow, catalogNumber: string): ElementSet {
-  return {
-    catalogNumber, catalogNumberInt: r.catalog_number_int, classification: r.classification as ElementSet['classification'],
-    internationalDesignator: r.international_designator, epoch: r.epoch, epochMs: r.epoch_ms, meanMotionRevPerDay: r.mean_motion_rev_per_day,
-    meanMotionDotRevPerDay2: r.mean_motion_dot_rev_per_day2, meanMotionDdotRevPerDay3: r.mean_motion_ddot_rev_per_day3, bstar: r.bstar,
-    inclinationDeg: r.inclination_deg, raanDeg: r.raan_deg, eccentricity: r.eccentricity, argPerigeeDeg: r.arg_perigee_deg,
-    meanAnomalyDeg: r.mean_anomaly_deg, ephemerisType: 0, elementSetNo: r.element_set_no, revAtEpoch: r.rev_at_epoch,
-    sourceLine: r.source_line, line1: r.line1, line2: r.line2,
-  };
-}
+type WindowPoint = TrendSample & { meanAltitudeKm: number };
+/** The rate window's result: the costly part (Theil–Sen fits over the window's pairs), kept per history state. */
+type WindowTrend = Pick<Trend, 'rates' | 'intervals' | 'counts' | 'spanDays'> & { points: WindowPoint[] };
 
 type TrendKey = 'apogeeAltitudeKm' | 'perigeeAltitudeKm' | 'meanAltitudeKm' | 'semiMajorAxisKm' | 'specificEnergyJPerKg';
 
 /** A straight line for the chart: the engine's Theil–Sen slope through the median of the window's good points. */
-function rateLine(trend: Trend, key: TrendKey, slopePerDay: number) {
+function rateLine(trend: WindowTrend, key: TrendKey, slopePerDay: number) {
   const good = trend.points.filter((p) => !p.outlier);
   if (good.length < 2) return null;
   const t0 = good[0]!.epochMs;
   const intercept = median(Float64Array.from(good, (p) => p[key] - (slopePerDay * (p.epochMs - t0)) / DAY_MS));
   const t1 = good[good.length - 1]!.epochMs;
   return { fromMs: t0, toMs: t1, fromValue: intercept, toValue: intercept + (slopePerDay * (t1 - t0)) / DAY_MS, slopePerDay };
+}
+
+/**
+ * The rate window over the stored rows (sorted by epoch): the engine's computeTrend — same de-duplication, outlier
+ * screen and Theil–Sen fits — on the derived values stored at import instead of deriving them again.
+ */
+function windowTrend(rows: readonly TrendRow[], fromMs: number, toMs: number, catalogNumber: string): WindowTrend {
+  const inWindow: { catalogNumber: string; epochMs: number; elementSetNo: number; row: TrendRow }[] = [];
+  for (const row of rows) if (row[0] >= fromMs && row[0] <= toMs) inWindow.push({ catalogNumber, epochMs: row[0], elementSetNo: row[7], row });
+  const { sets: unique, duplicatesRemoved } = dedupeElementSets(inWindow);
+  const points: WindowPoint[] = unique.map(({ row: r }) => ({
+    epochMs: r[0], apogeeAltitudeKm: r[1], perigeeAltitudeKm: r[2], meanAltitudeKm: r[3], semiMajorAxisKm: r[4], specificEnergyJPerKg: r[5],
+    outlier: false, outlierScore: 0,
+  }));
+  const fit = fitTrendSamples(points);
+  return {
+    points,
+    rates: fit.rates,
+    intervals: fit.intervals,
+    counts: { input: inWindow.length, inWindow: inWindow.length, duplicatesRemoved, outliers: fit.outliers, used: fit.used, otherObjects: 0 },
+    spanDays: points.length ? (points[points.length - 1]!.epochMs - points[0]!.epochMs) / DAY_MS : 0,
+  };
 }
 
 function sailCraftOf(c: SpacecraftRow, dragAreaM2: number): SailCraft {
@@ -91,7 +98,7 @@ export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAre
 
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
-  const windowCache = new Map<string, Trend>();
+  const windowCache = new Map<string, WindowTrend>();
 
   async function craftOf(id: string) {
     const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
@@ -128,10 +135,12 @@ export function createOrbitService({ db }: { db: Db }) {
   };
 
   async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
-    const { rows } = await pool.query<{
-      epoch_ms: number; apogee_altitude_km: number; perigee_altitude_km: number; mean_altitude_km: number;
-      semi_major_axis_km: number; specific_energy_j_per_kg: number; outlier: boolean;
-    }>(TREND_SQL, [craft.id]);
+    // Sets are only ever added, so the count and the newest id identify the history's state: the window's rates are
+    // reused until an import changes it. Asked alongside the rows (another pooled connection), not after them.
+    const [{ rows }, { rows: ver }] = await Promise.all([
+      pool.query<TrendRow>({ text: TREND_SQL, values: [craft.id], rowMode: 'array' }),
+      pool.query<{ n: number; max: string | null }>('select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1', [craft.id]),
+    ]);
     const n = rows.length;
     const series = {
       epochMs: new Array<number>(n), apogeeKm: new Array<number>(n), perigeeKm: new Array<number>(n), meanAltitudeKm: new Array<number>(n),
@@ -139,26 +148,21 @@ export function createOrbitService({ db }: { db: Db }) {
     };
     for (let i = 0; i < n; i++) {
       const r = rows[i]!;
-      series.epochMs[i] = r.epoch_ms;
-      series.apogeeKm[i] = r.apogee_altitude_km;
-      series.perigeeKm[i] = r.perigee_altitude_km;
-      series.meanAltitudeKm[i] = r.mean_altitude_km;
-      series.semiMajorAxisKm[i] = r.semi_major_axis_km;
-      series.energyJPerKg[i] = r.specific_energy_j_per_kg;
-      if (r.outlier) series.outlier.push(i);
+      series.epochMs[i] = r[0];
+      series.apogeeKm[i] = r[1];
+      series.perigeeKm[i] = r[2];
+      series.meanAltitudeKm[i] = r[3];
+      series.semiMajorAxisKm[i] = r[4];
+      series.energyJPerKg[i] = r[5];
+      if (r[6]) series.outlier.push(i);
     }
     const lastMs = n ? series.epochMs[n - 1]! : null;
     const toMs = window.toMs ?? lastMs ?? Date.now();
     const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
-    // Sets are only ever added, so the count and the newest id identify the history's state: the window's
-    // rates (the costly part, Theil–Sen over every pair) are reused until an import changes it.
-    const { rows: ver } = await pool.query<{ n: number; max: string | null }>('select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1', [craft.id]);
-    const cacheKey = `${craft.id}|${craft.catalogNumber}|${fromMs}|${toMs}|${ver[0]?.n}|${ver[0]?.max}`;
+    const cacheKey = `${craft.id}|${fromMs}|${toMs}|${ver[0]?.n}|${ver[0]?.max}`;
     let trend = windowCache.get(cacheKey);
     if (!trend) {
-      const { rows: win } = await pool.query<WindowRow>(WINDOW_SQL, [craft.id, fromMs, toMs]);
-      const sets = win.map((r) => toElementSet(r, craft.catalogNumber));
-      trend = computeTrend(sets, { fromMs, toMs, catalogNumber: craft.catalogNumber });
+      trend = windowTrend(rows, fromMs, toMs, craft.catalogNumber);
       windowCache.set(cacheKey, trend);
       while (windowCache.size > 32) windowCache.delete(windowCache.keys().next().value!);
     }
