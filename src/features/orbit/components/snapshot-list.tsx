@@ -18,7 +18,7 @@ function SnapshotItem({ s, canChange, onDelete }: { s: SnapshotSummary; canChang
   const link = `${window.location.origin}${s.publicPath}`;
   return (
     <li className="flex flex-col gap-3 rounded-xl border border-foil-800 bg-night-950/40 p-3 sm:flex-row">
-      <img src={`/api/orbit/snapshots/${s.id}/chart.svg`} alt="" className="aspect-video w-full shrink-0 rounded-lg bg-night-900 object-cover sm:w-56" loading="lazy" />
+      <img src={`/api/orbit/snapshots/${s.id}/chart.svg`} alt="" className="aspect-[16/9] w-full shrink-0 rounded-lg bg-night-900 object-cover sm:w-56" loading="lazy" />
       <div className="min-w-0 flex-1 space-y-1.5">
         {renaming ? (
           <form className="flex gap-2" onSubmit={(e) => { e.preventDefault(); update.mutate({ id: s.id, patch: { title } }, { onSuccess: () => setRenaming(false) }); }}>
