@@ -25,6 +25,12 @@ export type DerivedElements = {
   decayRateKmPerDay: number;
 };
 
+/** The derived values kept with each stored set and each trend point. */
+export type OrbitSummary = Pick<
+  DerivedElements,
+  'semiMajorAxisKm' | 'apogeeAltitudeKm' | 'perigeeAltitudeKm' | 'meanAltitudeKm' | 'periodMin' | 'specificEnergyJPerKg'
+>;
+
 export type DeriveInput = Pick<ElementSet, 'meanMotionRevPerDay' | 'eccentricity' | 'inclinationDeg' | 'meanMotionDotRevPerDay2'>;
 
 /** SGP4's un-Kozai step (initl), in rad/min. */

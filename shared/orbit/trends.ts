@@ -1,24 +1,18 @@
 // Trends over a history of element sets: sort, de-duplicate, flag outliers (modified z-score of Theil–Sen
 // residuals, Iglewicz & Hoaglin 1993: |0.6745·(r − median)/MAD| > 3.5), robust rates over a window.
 import { MU_WGS72_KM3_PER_S2 } from './constants';
-import { deriveElementSet } from './derived';
+import { deriveElementSet, type OrbitSummary } from './derived';
 import { alongTrackAccelerationMPerS2 } from './physics';
 import { median, medianAbsoluteDeviation, theilSenMany } from './robust-stats';
 import type { ElementSet } from './types';
 
-export type TrendPoint = {
+export type TrendPoint = OrbitSummary & {
   catalogNumber: string;
   epochMs: number;
   epoch: string;
   elementSetNo: number;
   sourceLine: number;
   bstar: number;
-  semiMajorAxisKm: number;
-  apogeeAltitudeKm: number;
-  perigeeAltitudeKm: number;
-  meanAltitudeKm: number;
-  periodMin: number;
-  specificEnergyJPerKg: number;
   decayRateKmPerDay: number;
   outlier: boolean;
   /** Largest modified z-score of this point's residuals (semi-major axis, perigee). */

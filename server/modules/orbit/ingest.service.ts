@@ -8,7 +8,7 @@ import type { Db } from '../../db/client';
 import { recordAudit } from '../audit/audit.repository';
 import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
-import { deriveElementSet } from '../../../shared/orbit/derived';
+import { deriveElementSet, type OrbitSummary } from '../../../shared/orbit/derived';
 import type { ElementSet, ParseError } from '../../../shared/orbit/types';
 import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
@@ -29,14 +29,7 @@ const STALE_AFTER_MS = 5 * 60_000;
 const PARSED_CACHE_MAX = 8;
 
 /** An element set ready to store: the parsed fields and the derived orbit. */
-export type PreparedSet = ElementSet & {
-  semiMajorAxisKm: number;
-  apogeeAltitudeKm: number;
-  perigeeAltitudeKm: number;
-  meanAltitudeKm: number;
-  periodMin: number;
-  specificEnergyJPerKg: number;
-};
+export type PreparedSet = ElementSet & OrbitSummary;
 
 export type UploadInput = { spacecraftId: string; accountId: string | null; filename: string; bytes: Buffer };
 

@@ -22,8 +22,8 @@ export const DEFAULT_RATE_WINDOW_DAYS = 30;
 export const SAFETY_CAUTION =
   'Estimates from simple models — not for collision or re-entry safety decisions; rely on official space-surveillance providers.';
 
-const sortColumns = {
-  epoch: elementSets.epochMs,
+// The stored orbit columns the history table shows, and may sort by (epoch sorts by its number).
+const orbitColumns = {
   elementSetNo: elementSets.elementSetNo,
   semiMajorAxisKm: elementSets.semiMajorAxisKm,
   eccentricity: elementSets.eccentricity,
@@ -32,6 +32,7 @@ const sortColumns = {
   perigeeAltitudeKm: elementSets.perigeeAltitudeKm,
   bstar: elementSets.bstar,
 } as const;
+const sortColumns = { epoch: elementSets.epochMs, ...orbitColumns } as const;
 
 type PeriodRow = typeof sailingPeriods.$inferSelect;
 export function sailingPeriodView(p: PeriodRow) {
@@ -121,13 +122,7 @@ export function createOrbitService({ db }: { db: Db }) {
     id: elementSets.id,
     epoch: elementSets.epoch,
     epochMs: elementSets.epochMs,
-    elementSetNo: elementSets.elementSetNo,
-    semiMajorAxisKm: elementSets.semiMajorAxisKm,
-    eccentricity: elementSets.eccentricity,
-    inclinationDeg: elementSets.inclinationDeg,
-    apogeeAltitudeKm: elementSets.apogeeAltitudeKm,
-    perigeeAltitudeKm: elementSets.perigeeAltitudeKm,
-    bstar: elementSets.bstar,
+    ...orbitColumns,
     outlier: elementSets.outlier,
     sourceLine: elementSets.sourceLine,
     fileId: elementSets.fileId,
