@@ -20,7 +20,9 @@ try {
   const adminUrl = cluster.url('postgres');
   await ensureDatabase(adminUrl, 'lightkeel_template');
   await migrateDatabase(cluster.url('lightkeel_template'));
-  const files = readdirSync(benchDir).filter((f) => f.endsWith('.bench.ts')).sort();
+  const files = readdirSync(benchDir)
+    .filter((f) => f.endsWith('.bench.ts'))
+    .sort();
   for (const file of files) {
     const mod = (await import(pathToFileURL(path.join(benchDir, file)).href)) as { benchmarks: Benchmark[] };
     for (const b of mod.benchmarks) {
@@ -40,12 +42,15 @@ try {
   removeFolder(root);
 }
 // A run of some benchmarks keeps the other benchmarks' last results.
-const previous: typeof results = only.length && existsSync('bench-results.json') ? JSON.parse(readFileSync('bench-results.json', 'utf8')) : [];
+const previous: typeof results =
+  only.length && existsSync('bench-results.json') ? JSON.parse(readFileSync('bench-results.json', 'utf8')) : [];
 const merged = [...previous.filter((p) => !results.some((r) => r.id === p.id)), ...results];
 writeFileSync('bench-results.json', JSON.stringify(merged, null, 2) + '\n');
 console.log('\n' + ['id'.padEnd(22), 'ratio'.padStart(8), 'goal'.padStart(10), 'met'.padStart(5), '  detail'].join(''));
 for (const r of results) {
   const goal = `${r.better === 'lower' ? '≤' : '≥'}${r.goal}`;
-  console.log([r.id.padEnd(22), String(r.ratio ?? '—').padStart(8), goal.padStart(10), (r.met ? 'yes' : 'no').padStart(5), '  ' + r.detail].join(''));
+  console.log(
+    [r.id.padEnd(22), String(r.ratio ?? '—').padStart(8), goal.padStart(10), (r.met ? 'yes' : 'no').padStart(5), '  ' + r.detail].join(''),
+  );
 }
 console.log('\nwritten: bench-results.json');

@@ -73,7 +73,12 @@ export function createApp(deps: AppDeps): Express {
     session({
       name: 'lk.sid',
       secret: config.SESSION_SECRET,
-      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: config.NODE_ENV === 'test' ? false : 900 }),
+      store: new PgStore({
+        pool,
+        tableName: 'session',
+        createTableIfMissing: false,
+        pruneSessionInterval: config.NODE_ENV === 'test' ? false : 900,
+      }),
       resave: false,
       saveUninitialized: false,
       rolling: true,
@@ -100,7 +105,9 @@ export function createApp(deps: AppDeps): Express {
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
   });
-  app.use('/api', (req, res, next) => (CSRF_EXEMPT.has(req.originalUrl.split('?')[0]!) ? next() : csrfSynchronisedProtection(req, res, next)));
+  app.use('/api', (req, res, next) =>
+    CSRF_EXEMPT.has(req.originalUrl.split('?')[0]!) ? next() : csrfSynchronisedProtection(req, res, next),
+  );
 
   mount(app, '/api/health', createHealthRouter({ db }));
   mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));

@@ -6,13 +6,23 @@ const configSchema = z.object({
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
   PUBLIC_URL: z.url().default('http://127.0.0.1:3000'),
-  DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL').default('postgres://postgres@127.0.0.1:54329/lightkeel'),
+  DATABASE_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL')
+    .default('postgres://postgres@127.0.0.1:54329/lightkeel'),
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(20),
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').default('lightkeel-local-session-secret-change-me'),
-  TRUST_PROXY: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  TRUST_PROXY: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   JSON_BODY_LIMIT: z.string().default('100kb'),
-  UPLOAD_LIMIT_BYTES: z.coerce.number().int().min(1024).default(20 * 1024 * 1024),
+  UPLOAD_LIMIT_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(20 * 1024 * 1024),
   SIGN_IN_LIMIT_PER_IP: z.coerce.number().int().min(1).default(30),
   SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(8),
   SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),

@@ -17,7 +17,15 @@ try {
 
 const logger = pino({ level: config.LOG_LEVEL });
 const { db, pool } = createDb(config.DATABASE_URL, { max: config.DATABASE_POOL_MAX });
-const app = createApp({ db, pool, config, logger, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config), clientDir: defaultClientDir });
+const app = createApp({
+  db,
+  pool,
+  config,
+  logger,
+  mailer: createMailerFromConfig(config),
+  stripe: createStripeFromConfig(config),
+  clientDir: defaultClientDir,
+});
 
 const server = app.listen(config.PORT, config.HOST, () => {
   logger.info(`Lightkeel listening on http://${config.HOST}:${config.PORT}`);

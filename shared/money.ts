@@ -30,8 +30,7 @@ function assertMinorUnits(amountMinor: number): void {
 /** Digits after the decimal point for a currency, e.g. 2 for USD, 0 for JPY, 3 for KWD. */
 export function currencyExponent(currency: string): number {
   const code = assertCurrency(currency);
-  return new Intl.NumberFormat('en', { style: 'currency', currency: code }).resolvedOptions()
-    .maximumFractionDigits ?? 2;
+  return new Intl.NumberFormat('en', { style: 'currency', currency: code }).resolvedOptions().maximumFractionDigits ?? 2;
 }
 
 /** Exact decimal string of an amount in major units ("1234.50"), built from digits, never from a float. */

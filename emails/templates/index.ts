@@ -19,7 +19,11 @@ export const emailDataSchemas = {
   'password-reset': z.object({
     displayName: text,
     resetUrl: link,
-    expiresInMinutes: z.number().int().positive().max(7 * 24 * 60),
+    expiresInMinutes: z
+      .number()
+      .int()
+      .positive()
+      .max(7 * 24 * 60),
   }),
   'pledge-confirmation': z.object({
     displayName: text,

@@ -9,7 +9,9 @@ if (!Number.isInteger(port) || port < 0 || port > 65535) {
 
 const fake = await createIdentityFake({ port });
 const endpoints = googleEndpoints(fake.issuerUrl);
-console.log(`identity fake listening on ${fake.issuerUrl} (authorize ${endpoints.authorizationURL}, token ${endpoints.tokenURL}, userinfo ${endpoints.userProfileURL})`);
+console.log(
+  `identity fake listening on ${fake.issuerUrl} (authorize ${endpoints.authorizationURL}, token ${endpoints.tokenURL}, userinfo ${endpoints.userProfileURL})`,
+);
 
 let stopping = false;
 async function stop(signal: string) {

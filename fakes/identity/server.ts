@@ -23,7 +23,9 @@ export const defaultProfile: Profile = {
   email_verified: true,
   picture:
     'data:image/svg+xml;base64,' +
-    Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="64" height="64"><rect width="64" height="64" fill="#0b1431"/><circle cx="32" cy="32" r="14" fill="#f5a21b"/></svg>').toString('base64'),
+    Buffer.from(
+      '<svg xmlns="http://www.w3.org/2000/svg" width="64" height="64"><rect width="64" height="64" fill="#0b1431"/><circle cx="32" cy="32" r="14" fill="#f5a21b"/></svg>',
+    ).toString('base64'),
 };
 
 export interface IdentityFake {

@@ -114,5 +114,8 @@ ${dl}
 }
 
 export function renderNotFound(id: string): string {
-  return page('Not found', `<h1>No such message</h1><p>The outbox holds no message with id <code>${esc(id)}</code>.</p><p><a href="/outbox">← All messages</a></p>`);
+  return page(
+    'Not found',
+    `<h1>No such message</h1><p>The outbox holds no message with id <code>${esc(id)}</code>.</p><p><a href="/outbox">← All messages</a></p>`,
+  );
 }

@@ -149,7 +149,10 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
     }
     const now = Date.now();
     for (const [k, v] of idempotency) if (now - v.at > IDEMPOTENCY_TTL_MS) idempotency.delete(k);
-    const hash = createHash('sha256').update(req.path).update(JSON.stringify(req.body ?? null)).digest('hex');
+    const hash = createHash('sha256')
+      .update(req.path)
+      .update(JSON.stringify(req.body ?? null))
+      .digest('hex');
     const seen = idempotency.get(key);
     if (seen) {
       if (seen.hash !== hash) {
@@ -201,9 +204,7 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
       const batchId = randomUUID();
       const data = results.flatMap((r) => (r.input ? [{ id: accept(r.input, batchId).id }] : []));
       persist();
-      return mode === 'permissive'
-        ? { data, errors: failed.map((r) => ({ index: r.index, message: r.error?.message ?? '' })) }
-        : { data };
+      return mode === 'permissive' ? { data, errors: failed.map((r) => ({ index: r.index, message: r.error?.message ?? '' })) } : { data };
     });
   });
 
@@ -244,9 +245,7 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   });
   app.get('/_fake/messages', (req, res) => {
     const to = typeof req.query.to === 'string' ? req.query.to.trim().toLowerCase() : '';
-    const list = newestFirst().filter(
-      (m) => !to || [...m.to, ...(m.cc ?? []), ...(m.bcc ?? [])].some((a) => bareAddress(a) === to),
-    );
+    const list = newestFirst().filter((m) => !to || [...m.to, ...(m.cc ?? []), ...(m.bcc ?? [])].some((a) => bareAddress(a) === to));
     res.json({ object: 'list', data: list });
   });
   app.delete('/_fake/messages', (_req, res) => {
@@ -256,7 +255,8 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
 
   const outboxHeaders = (res: Response) =>
     res.set({
-      'Content-Security-Policy': "default-src 'none'; style-src 'unsafe-inline'; frame-src 'self'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'",
+      'Content-Security-Policy':
+        "default-src 'none'; style-src 'unsafe-inline'; frame-src 'self'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'",
       'X-Content-Type-Options': 'nosniff',
       'Referrer-Policy': 'no-referrer',
       'Cache-Control': 'no-store',
@@ -266,7 +266,11 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   });
   app.get('/outbox/:id', (req, res) => {
     const m = store.find((s) => s.id === req.params.id);
-    if (!m) return void outboxHeaders(res).status(404).type('html').send(renderNotFound(String(req.params.id)));
+    if (!m)
+      return void outboxHeaders(res)
+        .status(404)
+        .type('html')
+        .send(renderNotFound(String(req.params.id)));
     outboxHeaders(res).type('html').send(renderOutboxMessage(m));
   });
   app.get('/outbox/:id/html', (req, res) => {
@@ -275,7 +279,8 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
     // The message HTML is untrusted: no scripts, no network, only framed by the outbox itself.
     res
       .set({
-        'Content-Security-Policy': "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:; font-src data:; frame-ancestors 'self'",
+        'Content-Security-Policy':
+          "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:; font-src data:; frame-ancestors 'self'",
         'X-Content-Type-Options': 'nosniff',
         'Cache-Control': 'no-store',
       })
@@ -287,7 +292,8 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   app.use((err: unknown, _req: Request, res: Response, _next: NextFunction) => {
     if (err instanceof ApiError) return sendError(res, err);
     const e = err as { type?: string; status?: number; message?: string };
-    if (e?.type === 'entity.parse.failed') return sendError(res, new ApiError(400, 'validation_error', 'The request body is not valid JSON.'));
+    if (e?.type === 'entity.parse.failed')
+      return sendError(res, new ApiError(400, 'validation_error', 'The request body is not valid JSON.'));
     if (e?.type === 'entity.too.large') return sendError(res, new ApiError(413, 'validation_error', 'The request body is too large.'));
     sendError(res, new ApiError(500, 'internal_server_error', `Unexpected error in the local mail fake: ${e?.message ?? String(err)}`));
   });

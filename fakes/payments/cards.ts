@@ -63,7 +63,8 @@ export const defaultFeeSchedule: FeeSchedule = { percentBasisPoints: 290, fixedM
  * 50 × 2.9 % = 1.45 → 1; 1550 × 2.9 % = 44.95 → 45).
  */
 export function cardFeeMinor(amountMinor: number, schedule: FeeSchedule = defaultFeeSchedule): number {
-  if (!Number.isSafeInteger(amountMinor) || amountMinor < 0) throw new Error(`amountMinor must be a non-negative integer, got ${amountMinor}`);
+  if (!Number.isSafeInteger(amountMinor) || amountMinor < 0)
+    throw new Error(`amountMinor must be a non-negative integer, got ${amountMinor}`);
   const percentPart = Math.floor((amountMinor * schedule.percentBasisPoints + 5000) / 10000);
   return percentPart + schedule.fixedMinor;
 }

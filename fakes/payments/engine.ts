@@ -183,7 +183,13 @@ export class Engine {
     return customer;
   }
 
-  private newCustomer(fields: { email: string | null; name: string | null; description?: string | null; phone?: string | null; metadata?: Record<string, string> }): ApiObject {
+  private newCustomer(fields: {
+    email: string | null;
+    name: string | null;
+    description?: string | null;
+    phone?: string | null;
+    metadata?: Record<string, string>;
+  }): ApiObject {
     const id = newId('cus', 14);
     const customer = this.store.insert('customer', {
       id,
@@ -233,7 +239,8 @@ export class Engine {
       const pmId = settings.str('default_payment_method');
       if (pmId) {
         const pm = this.find('payment_method', pmId, 'PaymentMethod', settings.name('default_payment_method'));
-        if (pm.customer !== customer.id) throw invalid(`The payment method ${pmId} is not attached to customer ${customer.id}.`, settings.name('default_payment_method'));
+        if (pm.customer !== customer.id)
+          throw invalid(`The payment method ${pmId} is not attached to customer ${customer.id}.`, settings.name('default_payment_method'));
       }
       previous.invoice_settings = clone(customer.invoice_settings);
       customer.invoice_settings.default_payment_method = pmId ?? null;
@@ -245,7 +252,8 @@ export class Engine {
   deleteCustomer(id: string): ApiObject {
     const customer = this.find('customer', id, 'customer');
     for (const sub of this.store.all('subscription')) {
-      if (sub.customer === id && sub.status !== 'canceled' && sub.status !== 'incomplete_expired') this.endSubscription(sub, 'cancellation_requested');
+      if (sub.customer === id && sub.status !== 'canceled' && sub.status !== 'incomplete_expired')
+        this.endSubscription(sub, 'cancellation_requested');
     }
     this.store.remove('customer', id);
     this.emit('customer.deleted', customer);
@@ -254,7 +262,18 @@ export class Engine {
 
   // ---------- products and prices ----------
   createProduct(r: Reader): ApiObject {
-    r.rejectUnknown(['name', 'description', 'metadata', 'active', 'id', 'default_price_data', 'images', 'url', 'statement_descriptor', 'unit_label']);
+    r.rejectUnknown([
+      'name',
+      'description',
+      'metadata',
+      'active',
+      'id',
+      'default_price_data',
+      'images',
+      'url',
+      'statement_descriptor',
+      'unit_label',
+    ]);
     const name = r.str('name', { required: true, maxLength: 250 })!;
     const explicitId = r.str('id');
     if (explicitId && this.store.get(explicitId)) throw invalid(`Product already exists.`, 'id', 'resource_already_exists');
@@ -273,7 +292,13 @@ export class Engine {
     return product;
   }
 
-  private newProduct(fields: { id?: string; name: string; description: string | null; metadata: Record<string, string>; active: boolean }): ApiObject {
+  private newProduct(fields: {
+    id?: string;
+    name: string;
+    description: string | null;
+    metadata: Record<string, string>;
+    active: boolean;
+  }): ApiObject {
     const now = this.now();
     const product = this.store.insert('product', {
       id: fields.id ?? newId('prod', 14),
@@ -304,10 +329,10 @@ export class Engine {
     r.rejectUnknown(['name', 'description', 'metadata', 'active', 'default_price']);
     const product = this.find('product', id, 'product');
     const previous: Record<string, unknown> = {};
-    if (r.has('name')) (previous.name = product.name), (product.name = r.str('name', { required: true }));
-    if (r.has('description')) (previous.description = product.description), (product.description = r.str('description') ?? null);
-    if (r.has('active')) (previous.active = product.active), (product.active = r.bool('active'));
-    if (r.has('metadata')) (previous.metadata = product.metadata), (product.metadata = mergeMetadata(product.metadata, r.metadata()));
+    if (r.has('name')) ((previous.name = product.name), (product.name = r.str('name', { required: true })));
+    if (r.has('description')) ((previous.description = product.description), (product.description = r.str('description') ?? null));
+    if (r.has('active')) ((previous.active = product.active), (product.active = r.bool('active')));
+    if (r.has('metadata')) ((previous.metadata = product.metadata), (product.metadata = mergeMetadata(product.metadata, r.metadata())));
     if (r.has('default_price')) {
       const priceId = r.str('default_price');
       if (priceId) {
@@ -323,7 +348,19 @@ export class Engine {
   }
 
   createPrice(r: Reader): ApiObject {
-    r.rejectUnknown(['product', 'product_data', 'currency', 'unit_amount', 'recurring', 'metadata', 'nickname', 'lookup_key', 'active', 'tax_behavior', 'transfer_lookup_key']);
+    r.rejectUnknown([
+      'product',
+      'product_data',
+      'currency',
+      'unit_amount',
+      'recurring',
+      'metadata',
+      'nickname',
+      'lookup_key',
+      'active',
+      'tax_behavior',
+      'transfer_lookup_key',
+    ]);
     let productId = r.str('product');
     const productData = r.obj('product_data');
     if (!productId && !productData) throw missingParam('product');
@@ -346,7 +383,11 @@ export class Engine {
         else throw invalid(`A price (\`${clash.id}\`) already uses that lookup key.`, 'lookup_key');
       }
     }
-    return this.newPriceFrom(r, productId, null, { nickname: r.str('nickname') ?? null, lookupKey: lookupKey ?? null, active: r.bool('active') ?? true });
+    return this.newPriceFrom(r, productId, null, {
+      nickname: r.str('nickname') ?? null,
+      lookupKey: lookupKey ?? null,
+      active: r.bool('active') ?? true,
+    });
   }
 
   /** Builds a price from `currency`, `unit_amount`, `recurring[...]` in `r` (top-level params or a `price_data` hash). */
@@ -359,7 +400,8 @@ export class Engine {
     if (allowed) r.rejectUnknown(allowed);
     const currencyRaw = r.str('currency', { required: true })!;
     const currency = currencyRaw.toLowerCase();
-    if (!/^[a-z]{3}$/.test(currency)) throw invalid(`Invalid currency: ${currencyRaw}. It must be a three-letter ISO currency code.`, r.name('currency'));
+    if (!/^[a-z]{3}$/.test(currency))
+      throw invalid(`Invalid currency: ${currencyRaw}. It must be a three-letter ISO currency code.`, r.name('currency'));
     const unitAmount = r.int('unit_amount', { required: true, min: 0, max: 99_999_999 })!;
     const rec = r.obj('recurring');
     let recurring: Record<string, unknown> | null = null;
@@ -398,10 +440,10 @@ export class Engine {
     r.rejectUnknown(['active', 'metadata', 'nickname', 'lookup_key']);
     const price = this.find('price', id, 'price');
     const previous: Record<string, unknown> = {};
-    if (r.has('active')) (previous.active = price.active), (price.active = r.bool('active'));
-    if (r.has('nickname')) (previous.nickname = price.nickname), (price.nickname = r.str('nickname') ?? null);
-    if (r.has('lookup_key')) (previous.lookup_key = price.lookup_key), (price.lookup_key = r.str('lookup_key') ?? null);
-    if (r.has('metadata')) (previous.metadata = price.metadata), (price.metadata = mergeMetadata(price.metadata, r.metadata()));
+    if (r.has('active')) ((previous.active = price.active), (price.active = r.bool('active')));
+    if (r.has('nickname')) ((previous.nickname = price.nickname), (price.nickname = r.str('nickname') ?? null));
+    if (r.has('lookup_key')) ((previous.lookup_key = price.lookup_key), (price.lookup_key = r.str('lookup_key') ?? null));
+    if (r.has('metadata')) ((previous.metadata = price.metadata), (price.metadata = mergeMetadata(price.metadata, r.metadata())));
     this.emit('price.updated', price, previous);
     return price;
   }
@@ -409,25 +451,46 @@ export class Engine {
   // ---------- checkout ----------
   createCheckoutSession(r: Reader): ApiObject {
     r.rejectUnknown([
-      'mode', 'line_items', 'success_url', 'cancel_url', 'customer', 'customer_email', 'customer_creation', 'metadata',
-      'client_reference_id', 'subscription_data', 'payment_intent_data', 'expires_at', 'locale', 'payment_method_types',
-      'submit_type', 'billing_address_collection', 'allow_promotion_codes', 'ui_mode',
+      'mode',
+      'line_items',
+      'success_url',
+      'cancel_url',
+      'customer',
+      'customer_email',
+      'customer_creation',
+      'metadata',
+      'client_reference_id',
+      'subscription_data',
+      'payment_intent_data',
+      'expires_at',
+      'locale',
+      'payment_method_types',
+      'submit_type',
+      'billing_address_collection',
+      'allow_promotion_codes',
+      'ui_mode',
     ]);
     const mode = r.str('mode', { required: true, oneOf: ['payment', 'subscription', 'setup'] })!;
-    if (mode === 'setup') throw invalid('This local processor does not support mode `setup`; use a billing portal session to change a card.', 'mode');
+    if (mode === 'setup')
+      throw invalid('This local processor does not support mode `setup`; use a billing portal session to change a card.', 'mode');
     const uiMode = r.str('ui_mode', { oneOf: ['hosted'] });
     void uiMode;
     const successUrl = r.str('success_url', { required: true, maxLength: 5000 })!;
     const cancelUrl = r.str('cancel_url', { maxLength: 5000 }) ?? null;
-    for (const [param, url] of [['success_url', successUrl], ['cancel_url', cancelUrl]] as const) {
+    for (const [param, url] of [
+      ['success_url', successUrl],
+      ['cancel_url', cancelUrl],
+    ] as const) {
       if (url && !/^https?:\/\//.test(url)) throw invalid(`Not a valid URL`, param, 'url_invalid');
     }
     const customerId = r.str('customer');
     const customerEmail = r.str('customer_email');
-    if (customerId && customerEmail) throw invalid('You may only specify one of these parameters: customer, customer_email.', 'customer_email');
+    if (customerId && customerEmail)
+      throw invalid('You may only specify one of these parameters: customer, customer_email.', 'customer_email');
     if (customerId) this.find('customer', customerId, 'customer', 'customer');
     const customerCreation = r.str('customer_creation', { oneOf: ['always', 'if_required'] });
-    if (customerCreation && mode !== 'payment') throw invalid('`customer_creation` can only be used in `payment` mode.', 'customer_creation');
+    if (customerCreation && mode !== 'payment')
+      throw invalid('`customer_creation` can only be used in `payment` mode.', 'customer_creation');
     const clientReferenceId = r.str('client_reference_id', { maxLength: 200 }) ?? null;
 
     const items = r.list('line_items', { required: true })!;
@@ -458,10 +521,18 @@ export class Engine {
             active: false,
           }).id;
         } else throw missingParam(priceData!.name('product'));
-        price = this.newPriceFrom(priceData!, productId, ['currency', 'unit_amount', 'product', 'product_data', 'recurring', 'tax_behavior'], { active: false });
+        price = this.newPriceFrom(
+          priceData!,
+          productId,
+          ['currency', 'unit_amount', 'product', 'product_data', 'recurring', 'tax_behavior'],
+          { active: false },
+        );
       }
       if (mode === 'payment' && price.type === 'recurring') {
-        throw invalid('You specified `payment` mode but passed a recurring price. Either switch to `subscription` mode or use only one-time prices.', item.name(priceId ? 'price' : 'price_data'));
+        throw invalid(
+          'You specified `payment` mode but passed a recurring price. Either switch to `subscription` mode or use only one-time prices.',
+          item.name(priceId ? 'price' : 'price_data'),
+        );
       }
       const product = this.store.get(price.product);
       lineItems.push({
@@ -483,20 +554,28 @@ export class Engine {
     if (lineItems.some((li) => li.currency !== currency)) throw invalid('All line items must use the same currency.', 'line_items');
     if (mode === 'subscription') {
       const recurring = lineItems.filter((li) => li.price.type === 'recurring');
-      if (recurring.length === 0) throw invalid('You must provide at least one recurring price in `subscription` mode when using prices.', 'line_items');
+      if (recurring.length === 0)
+        throw invalid('You must provide at least one recurring price in `subscription` mode when using prices.', 'line_items');
       const first = recurring[0]!.price.recurring;
-      if (recurring.some((li) => li.price.recurring.interval !== first.interval || li.price.recurring.interval_count !== first.interval_count)) {
+      if (
+        recurring.some((li) => li.price.recurring.interval !== first.interval || li.price.recurring.interval_count !== first.interval_count)
+      ) {
         throw invalid('All recurring prices must have the same billing interval.', 'line_items');
       }
     }
     const amountTotal = lineItems.reduce((sum, li) => sum + (li.amount_total as number), 0);
     const minimum = minimumChargeMinor[currency];
     if (minimum !== undefined && amountTotal < minimum && !(mode === 'subscription' && amountTotal === 0)) {
-      throw invalid(`The Checkout Session's total amount due must add up to at least ${minimum} ${currency} (minor units).`, 'line_items', 'amount_too_small');
+      throw invalid(
+        `The Checkout Session's total amount due must add up to at least ${minimum} ${currency} (minor units).`,
+        'line_items',
+        'amount_too_small',
+      );
     }
 
     const subscriptionData = r.obj('subscription_data');
-    if (subscriptionData && mode !== 'subscription') throw invalid('`subscription_data` can only be used in `subscription` mode.', 'subscription_data');
+    if (subscriptionData && mode !== 'subscription')
+      throw invalid('`subscription_data` can only be used in `subscription` mode.', 'subscription_data');
     subscriptionData?.rejectUnknown(['metadata', 'description']);
     const piData = r.obj('payment_intent_data');
     if (piData && mode !== 'payment') throw invalid('`payment_intent_data` can only be used in `payment` mode.', 'payment_intent_data');
@@ -554,7 +633,11 @@ export class Engine {
   }
 
   expireSession(session: ApiObject): ApiObject {
-    if (session.status !== 'open') throw invalid(`Only Checkout Sessions with a status in ["open"] can be expired. This Checkout Session has a status of "${session.status}".`, 'session');
+    if (session.status !== 'open')
+      throw invalid(
+        `Only Checkout Sessions with a status in ["open"] can be expired. This Checkout Session has a status of "${session.status}".`,
+        'session',
+      );
     session.status = 'expired';
     session.url = null;
     this.emit('checkout.session.expired', session);
@@ -611,7 +694,12 @@ export class Engine {
     return { ok: true, redirectUrl: String(session.success_url).replaceAll('{CHECKOUT_SESSION_ID}', session.id) };
   }
 
-  private startSubscription(session: ApiObject, customer: ApiObject, pm: ApiObject, pi: ApiObject): { subscription: ApiObject; invoice: ApiObject } {
+  private startSubscription(
+    session: ApiObject,
+    customer: ApiObject,
+    pm: ApiObject,
+    pi: ApiObject,
+  ): { subscription: ApiObject; invoice: ApiObject } {
     const lineItems = this.store.internal(session.id).sessionLineItems ?? [];
     const recurring = lineItems.filter((li) => li.price.type === 'recurring');
     const { interval, interval_count: intervalCount } = recurring[0]!.price.recurring;
@@ -792,8 +880,13 @@ export class Engine {
   }
 
   /** Charges the card behind `pm` for the intent. `forcedDecline` models a card on file that now fails. */
-  confirm(pi: ApiObject, pm: ApiObject, forcedDecline: Decline | null): { ok: true; charge: ApiObject } | { ok: false; decline: Decline; charge: ApiObject } {
-    if (pi.status === 'succeeded') throw invalid('This PaymentIntent has already succeeded and cannot be confirmed again.', 'intent', 'payment_intent_unexpected_state');
+  confirm(
+    pi: ApiObject,
+    pm: ApiObject,
+    forcedDecline: Decline | null,
+  ): { ok: true; charge: ApiObject } | { ok: false; decline: Decline; charge: ApiObject } {
+    if (pi.status === 'succeeded')
+      throw invalid('This PaymentIntent has already succeeded and cannot be confirmed again.', 'intent', 'payment_intent_unexpected_state');
     if (pi.status === 'canceled') throw invalid('This PaymentIntent is canceled.', 'intent', 'payment_intent_unexpected_state');
     const behaviour = (this.store.internal(pm.id).cardBehaviour ?? 'succeeds') as CardBehaviour;
     const decline = forcedDecline ?? declineFor(behaviour);
@@ -824,14 +917,36 @@ export class Engine {
       metadata: clone(pi.metadata),
       on_behalf_of: null,
       outcome: decline
-        ? { network_status: 'declined_by_network', reason: decline.declineCode, risk_level: 'normal', risk_score: 20, seller_message: 'The bank did not return any further details with this decline.', type: 'issuer_declined' }
-        : { network_status: 'approved_by_network', reason: null, risk_level: 'normal', risk_score: 20, seller_message: 'Payment complete.', type: 'authorized' },
+        ? {
+            network_status: 'declined_by_network',
+            reason: decline.declineCode,
+            risk_level: 'normal',
+            risk_score: 20,
+            seller_message: 'The bank did not return any further details with this decline.',
+            type: 'issuer_declined',
+          }
+        : {
+            network_status: 'approved_by_network',
+            reason: null,
+            risk_level: 'normal',
+            risk_score: 20,
+            seller_message: 'Payment complete.',
+            type: 'authorized',
+          },
       paid: !decline,
       payment_intent: pi.id,
       payment_method: pm.id,
       payment_method_details: {
         type: 'card',
-        card: { brand: pm.card.brand, country: 'US', exp_month: pm.card.exp_month, exp_year: pm.card.exp_year, funding: 'credit', last4: pm.card.last4, network: 'visa' },
+        card: {
+          brand: pm.card.brand,
+          country: 'US',
+          exp_month: pm.card.exp_month,
+          exp_year: pm.card.exp_year,
+          funding: 'credit',
+          last4: pm.card.last4,
+          network: 'visa',
+        },
       },
       receipt_email: pi.receipt_email,
       receipt_url: null,
@@ -892,12 +1007,26 @@ export class Engine {
   }
 
   createPaymentIntent(r: Reader): ApiObject {
-    r.rejectUnknown(['amount', 'currency', 'customer', 'description', 'metadata', 'payment_method', 'confirm', 'receipt_email', 'off_session', 'payment_method_types', 'automatic_payment_methods', 'statement_descriptor']);
+    r.rejectUnknown([
+      'amount',
+      'currency',
+      'customer',
+      'description',
+      'metadata',
+      'payment_method',
+      'confirm',
+      'receipt_email',
+      'off_session',
+      'payment_method_types',
+      'automatic_payment_methods',
+      'statement_descriptor',
+    ]);
     const amount = r.int('amount', { required: true, min: 1, max: 99_999_999 })!;
     const currency = r.str('currency', { required: true })!.toLowerCase();
     if (!/^[a-z]{3}$/.test(currency)) throw invalid(`Invalid currency: ${currency}.`, 'currency');
     const minimum = minimumChargeMinor[currency];
-    if (minimum !== undefined && amount < minimum) throw invalid(`Amount must be at least ${minimum} ${currency} (minor units).`, 'amount', 'amount_too_small');
+    if (minimum !== undefined && amount < minimum)
+      throw invalid(`Amount must be at least ${minimum} ${currency} (minor units).`, 'amount', 'amount_too_small');
     const customerId = r.str('customer') ?? null;
     if (customerId) this.find('customer', customerId, 'customer', 'customer');
     const pmRef = r.str('payment_method');
@@ -912,7 +1041,12 @@ export class Engine {
       paymentMethod: pm?.id ?? null,
     });
     if (r.bool('confirm')) {
-      if (!pm) throw invalid('You cannot confirm this PaymentIntent because it\'s missing a payment method.', 'payment_method', 'payment_intent_unexpected_state');
+      if (!pm)
+        throw invalid(
+          "You cannot confirm this PaymentIntent because it's missing a payment method.",
+          'payment_method',
+          'payment_intent_unexpected_state',
+        );
       this.confirmOrThrow(pi, pm);
     }
     return pi;
@@ -922,7 +1056,12 @@ export class Engine {
     r.rejectUnknown(['payment_method', 'off_session', 'return_url', 'receipt_email']);
     const pi = this.find('payment_intent', id, 'payment_intent');
     const pmRef = r.str('payment_method') ?? pi.payment_method;
-    if (!pmRef) throw invalid('You cannot confirm this PaymentIntent because it\'s missing a payment method.', 'payment_method', 'payment_intent_unexpected_state');
+    if (!pmRef)
+      throw invalid(
+        "You cannot confirm this PaymentIntent because it's missing a payment method.",
+        'payment_method',
+        'payment_intent_unexpected_state',
+      );
     this.confirmOrThrow(pi, this.resolvePaymentMethod(pmRef, 'payment_method', pi.customer));
     return pi;
   }
@@ -954,11 +1093,16 @@ export class Engine {
     r.rejectUnknown(['cancellation_reason']);
     const pi = this.find('payment_intent', id, 'payment_intent');
     if (pi.status === 'succeeded' || pi.status === 'canceled') {
-      throw invalid(`You cannot cancel this PaymentIntent because it has a status of ${pi.status}.`, 'intent', 'payment_intent_unexpected_state');
+      throw invalid(
+        `You cannot cancel this PaymentIntent because it has a status of ${pi.status}.`,
+        'intent',
+        'payment_intent_unexpected_state',
+      );
     }
     pi.status = 'canceled';
     pi.canceled_at = this.now();
-    pi.cancellation_reason = r.str('cancellation_reason', { oneOf: ['duplicate', 'fraudulent', 'requested_by_customer', 'abandoned'] }) ?? null;
+    pi.cancellation_reason =
+      r.str('cancellation_reason', { oneOf: ['duplicate', 'fraudulent', 'requested_by_customer', 'abandoned'] }) ?? null;
     this.emit('payment_intent.canceled', pi);
     return pi;
   }
@@ -967,8 +1111,8 @@ export class Engine {
     r.rejectUnknown(['description', 'metadata']);
     const charge = this.find('charge', id, 'charge');
     const previous: Record<string, unknown> = {};
-    if (r.has('description')) (previous.description = charge.description), (charge.description = r.str('description') ?? null);
-    if (r.has('metadata')) (previous.metadata = charge.metadata), (charge.metadata = mergeMetadata(charge.metadata, r.metadata()));
+    if (r.has('description')) ((previous.description = charge.description), (charge.description = r.str('description') ?? null));
+    if (r.has('metadata')) ((previous.metadata = charge.metadata), (charge.metadata = mergeMetadata(charge.metadata, r.metadata())));
     this.emit('charge.updated', charge, previous);
     return charge;
   }
@@ -996,7 +1140,8 @@ export class Engine {
       description: f.description,
       exchange_rate: null,
       fee: f.fee,
-      fee_details: f.fee > 0 ? [{ amount: f.fee, application: null, currency: f.currency, description: f.feeDescription, type: 'stripe_fee' }] : [],
+      fee_details:
+        f.fee > 0 ? [{ amount: f.fee, application: null, currency: f.currency, description: f.feeDescription, type: 'stripe_fee' }] : [],
       net: f.amount - f.fee,
       reporting_category: f.reportingCategory,
       source: f.source,
@@ -1023,17 +1168,27 @@ export class Engine {
     r.rejectUnknown(['charge', 'payment_intent', 'amount', 'reason', 'metadata']);
     const chargeId = r.str('charge');
     const piId = r.str('payment_intent');
-    if (!chargeId && !piId) throw invalid('One of the following params should be provided for this request: payment_intent or charge.', 'charge', 'parameter_missing');
+    if (!chargeId && !piId)
+      throw invalid(
+        'One of the following params should be provided for this request: payment_intent or charge.',
+        'charge',
+        'parameter_missing',
+      );
     if (chargeId && piId) throw invalid('You may only specify one of these parameters: charge, payment_intent.', 'payment_intent');
     let charge: ApiObject;
     if (piId) {
       const pi = this.find('payment_intent', piId, 'payment_intent', 'payment_intent');
       if (pi.status !== 'succeeded' || !pi.latest_charge) {
-        throw invalid(`This PaymentIntent (${pi.id}) does not have a successful charge to refund.`, 'payment_intent', 'charge_not_refundable');
+        throw invalid(
+          `This PaymentIntent (${pi.id}) does not have a successful charge to refund.`,
+          'payment_intent',
+          'charge_not_refundable',
+        );
       }
       charge = this.find('charge', pi.latest_charge, 'charge', 'payment_intent');
     } else charge = this.find('charge', chargeId, 'charge', 'charge');
-    if (charge.status !== 'succeeded') throw invalid(`Charge ${charge.id} has not succeeded and cannot be refunded.`, 'charge', 'charge_not_refundable');
+    if (charge.status !== 'succeeded')
+      throw invalid(`Charge ${charge.id} has not succeeded and cannot be refunded.`, 'charge', 'charge_not_refundable');
     if (charge.disputed) throw invalid(`Charge ${charge.id} has been charged back; cannot issue a refund.`, 'charge', 'charge_disputed');
     const remaining = charge.amount - charge.amount_refunded;
     if (remaining <= 0) throw invalid(`Charge ${charge.id} has already been refunded.`, 'charge', 'charge_already_refunded');
@@ -1050,7 +1205,10 @@ export class Engine {
       charge: charge.id,
       created: this.now(),
       currency: charge.currency,
-      destination_details: { card: { reference_status: 'pending', reference_type: 'acquirer_reference_number', type: 'refund' }, type: 'card' },
+      destination_details: {
+        card: { reference_status: 'pending', reference_type: 'acquirer_reference_number', type: 'refund' },
+        type: 'card',
+      },
       metadata: r.metadata() ?? {},
       payment_intent: charge.payment_intent,
       reason,
@@ -1128,7 +1286,8 @@ export class Engine {
   updateSubscription(id: string, r: Reader): ApiObject {
     r.rejectUnknown(['cancel_at_period_end', 'metadata', 'default_payment_method', 'description', 'cancellation_details']);
     const sub = this.find('subscription', id, 'subscription');
-    if (sub.status === 'canceled') throw invalid('A canceled subscription can only update its cancellation_details and metadata.', 'subscription');
+    if (sub.status === 'canceled')
+      throw invalid('A canceled subscription can only update its cancellation_details and metadata.', 'subscription');
     const previous: Record<string, unknown> = {};
     const cape = r.bool('cancel_at_period_end');
     if (cape !== undefined && cape !== sub.cancel_at_period_end) {
@@ -1146,13 +1305,14 @@ export class Engine {
       if (details.has('comment')) sub.cancellation_details.comment = details.str('comment') ?? null;
       if (details.has('feedback')) sub.cancellation_details.feedback = details.str('feedback') ?? null;
     }
-    if (r.has('metadata')) (previous.metadata = sub.metadata), (sub.metadata = mergeMetadata(sub.metadata, r.metadata()));
-    if (r.has('description')) (previous.description = sub.description), (sub.description = r.str('description') ?? null);
+    if (r.has('metadata')) ((previous.metadata = sub.metadata), (sub.metadata = mergeMetadata(sub.metadata, r.metadata())));
+    if (r.has('description')) ((previous.description = sub.description), (sub.description = r.str('description') ?? null));
     if (r.has('default_payment_method')) {
       const pmId = r.str('default_payment_method');
       if (pmId) {
         const pm = this.find('payment_method', pmId, 'PaymentMethod', 'default_payment_method');
-        if (pm.customer !== sub.customer) throw invalid(`The payment method ${pmId} is not attached to the subscription's customer.`, 'default_payment_method');
+        if (pm.customer !== sub.customer)
+          throw invalid(`The payment method ${pmId} is not attached to the subscription's customer.`, 'default_payment_method');
       }
       previous.default_payment_method = sub.default_payment_method;
       sub.default_payment_method = pmId ?? null;
@@ -1199,13 +1359,25 @@ export class Engine {
       this.endSubscription(sub, 'cancellation_requested');
       return;
     }
-    const lines = sub.items.data.map((item: ApiObject) => ({ price: item.price, quantity: item.quantity, amount_total: item.price.unit_amount * item.quantity, description: this.store.get(item.price.product)?.name ?? null }));
+    const lines = sub.items.data.map((item: ApiObject) => ({
+      price: item.price,
+      quantity: item.quantity,
+      amount_total: item.price.unit_amount * item.quantity,
+      description: this.store.get(item.price.product)?.name ?? null,
+    }));
     const invoice = this.newInvoice(sub, customer, lines, 'subscription_cycle', at, end);
     this.emit('customer.subscription.updated', sub, previous);
     this.attemptInvoice(invoice);
   }
 
-  private newInvoice(sub: ApiObject, customer: ApiObject, lineItems: ApiObject[] | Record<string, any>[], billingReason: string, periodStart: number, periodEnd: number): ApiObject {
+  private newInvoice(
+    sub: ApiObject,
+    customer: ApiObject,
+    lineItems: ApiObject[] | Record<string, any>[],
+    billingReason: string,
+    periodStart: number,
+    periodEnd: number,
+  ): ApiObject {
     const now = this.now();
     const id = newId('in', 24);
     const total = lineItems.reduce((sum, li) => sum + (li.amount_total as number), 0);
@@ -1223,12 +1395,22 @@ export class Engine {
       metadata: {},
       parent: {
         invoice_item_details: null,
-        subscription_item_details: { invoice_item: null, proration: false, proration_details: { credited_items: null }, subscription: sub.id, subscription_item: sub.items.data.find((i: ApiObject) => i.price.id === li.price.id)?.id ?? null },
+        subscription_item_details: {
+          invoice_item: null,
+          proration: false,
+          proration_details: { credited_items: null },
+          subscription: sub.id,
+          subscription_item: sub.items.data.find((i: ApiObject) => i.price.id === li.price.id)?.id ?? null,
+        },
         type: 'subscription_item_details',
       },
       period: { end: li.price.type === 'recurring' ? periodEnd : periodStart, start: periodStart },
       pretax_credit_amounts: [],
-      pricing: { price_details: { price: li.price.id, product: li.price.product }, type: 'price_details', unit_amount_decimal: String(li.price.unit_amount) },
+      pricing: {
+        price_details: { price: li.price.id, product: li.price.product },
+        type: 'price_details',
+        unit_amount_decimal: String(li.price.unit_amount),
+      },
       quantity: li.quantity,
       taxes: [],
     }));
@@ -1285,7 +1467,11 @@ export class Engine {
       next_payment_attempt: null,
       number: `${customer.invoice_prefix}-${String(sequence).padStart(4, '0')}`,
       on_behalf_of: null,
-      parent: { quote_details: null, subscription_details: { metadata: clone(sub.metadata), subscription: sub.id }, type: 'subscription_details' },
+      parent: {
+        quote_details: null,
+        subscription_details: { metadata: clone(sub.metadata), subscription: sub.id },
+        type: 'subscription_details',
+      },
       payment_settings: { default_mandate: null, payment_method_options: null, payment_method_types: null },
       payments: { object: 'list', data: [], has_more: false, total_count: 0, url: `/v1/invoice_payments?invoice=${id}` },
       period_end: periodEnd,
@@ -1365,14 +1551,28 @@ export class Engine {
     const pm = pmId ? this.store.getOf('payment_method', pmId) : undefined;
     let pi = this.store.getOf('payment_intent', invoice.payments.data[0]?.payment?.payment_intent);
     if (!pi) {
-      pi = this.newPaymentIntent({ amount: invoice.amount_remaining, currency: invoice.currency, customer: customer.id, description: 'Subscription update', metadata: {}, receiptEmail: customer.email });
+      pi = this.newPaymentIntent({
+        amount: invoice.amount_remaining,
+        currency: invoice.currency,
+        customer: customer.id,
+        description: 'Subscription update',
+        metadata: {},
+        receiptEmail: customer.email,
+      });
       this.linkInvoicePayment(invoice, pi);
     }
     const failCode = this.store.internal(customer.id).failRenewals;
     const forced = failCode ? declineFor(failCode === 'insufficient_funds' ? 'insufficient_funds' : 'generic_decline') : null;
     const result = pm
       ? this.confirm(pi, pm, forced)
-      : { ok: false as const, decline: { code: 'card_declined' as const, declineCode: 'generic_decline' as const, message: 'The customer has no card on file.' } };
+      : {
+          ok: false as const,
+          decline: {
+            code: 'card_declined' as const,
+            declineCode: 'generic_decline' as const,
+            message: 'The customer has no card on file.',
+          },
+        };
     if (result.ok) {
       this.markInvoicePaid(invoice);
       if (sub.status !== 'active') {
@@ -1543,4 +1743,3 @@ export class Engine {
     return listOf(sub.items.data, `/v1/subscription_items?subscription=${sub.id}`);
   }
 }
-

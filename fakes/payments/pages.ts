@@ -36,7 +36,11 @@ export interface CardForm {
 }
 
 /** Checks the typed card against the test numbers; returns the card or the message for each bad field. */
-export function readCardForm(form: CardForm, nowSeconds: number, opts: { emailRequired: boolean }): { card: CardInput } | { errors: FieldErrors } {
+export function readCardForm(
+  form: CardForm,
+  nowSeconds: number,
+  opts: { emailRequired: boolean },
+): { card: CardInput } | { errors: FieldErrors } {
   const errors: FieldErrors = {};
   const email = (form.email ?? '').trim();
   if (opts.emailRequired && !email) errors.email = 'Enter an e-mail address for the receipt.';
@@ -145,9 +149,16 @@ function alert(errors: FieldErrors): string {
 
 export function checkoutPage(session: ApiObject, lineItems: ApiObject[], form: CardForm, errors: FieldErrors): string {
   const recurring = lineItems.find((li) => li.price.type === 'recurring')?.price.recurring;
-  const every = recurring ? (recurring.interval_count === 1 ? `every ${recurring.interval}` : `every ${recurring.interval_count} ${recurring.interval}s`) : '';
+  const every = recurring
+    ? recurring.interval_count === 1
+      ? `every ${recurring.interval}`
+      : `every ${recurring.interval_count} ${recurring.interval}s`
+    : '';
   const rows = lineItems
-    .map((li) => `<tr><td>${escapeHtml(li.description ?? 'Item')}${li.quantity > 1 ? ` × ${li.quantity}` : ''}${li.price.type === 'recurring' ? ` <span class="muted">(${every})</span>` : ''}</td><td class="amount">${formatMinor(li.amount_total, li.currency)}</td></tr>`)
+    .map(
+      (li) =>
+        `<tr><td>${escapeHtml(li.description ?? 'Item')}${li.quantity > 1 ? ` × ${li.quantity}` : ''}${li.price.type === 'recurring' ? ` <span class="muted">(${every})</span>` : ''}</td><td class="amount">${formatMinor(li.amount_total, li.currency)}</td></tr>`,
+    )
     .join('\n');
   const total = formatMinor(session.amount_total, session.currency);
   const askEmail = !session.customer && !session.customer_email;
@@ -172,11 +183,27 @@ ${testNumbersHelp}`,
 }
 
 export function messagePage(title: string, message: string, link?: { href: string; text: string }): string {
-  return page(title, `<h1>${escapeHtml(title)}</h1><p>${escapeHtml(message)}</p>${link ? `<p><a href="${escapeHtml(link.href)}">${escapeHtml(link.text)}</a></p>` : ''}`);
+  return page(
+    title,
+    `<h1>${escapeHtml(title)}</h1><p>${escapeHtml(message)}</p>${link ? `<p><a href="${escapeHtml(link.href)}">${escapeHtml(link.text)}</a></p>` : ''}`,
+  );
 }
 
-export function portalPage(portal: ApiObject, customer: ApiObject, current: ApiObject | undefined, openInvoices: ApiObject[], form: CardForm, errors: FieldErrors, notice?: string): string {
-  const due = openInvoices.map((inv) => `<li>${formatMinor(inv.amount_remaining, inv.currency)} due since ${new Date(inv.created * 1000).toISOString().slice(0, 10)}</li>`).join('');
+export function portalPage(
+  portal: ApiObject,
+  customer: ApiObject,
+  current: ApiObject | undefined,
+  openInvoices: ApiObject[],
+  form: CardForm,
+  errors: FieldErrors,
+  notice?: string,
+): string {
+  const due = openInvoices
+    .map(
+      (inv) =>
+        `<li>${formatMinor(inv.amount_remaining, inv.currency)} due since ${new Date(inv.created * 1000).toISOString().slice(0, 10)}</li>`,
+    )
+    .join('');
   return page(
     'Update your card',
     `<h1>Update your card</h1>

@@ -158,7 +158,13 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
         const gte = c.int('gte');
         const lt = c.int('lt');
         const lte = c.int('lte');
-        items = items.filter((o) => (gt === undefined || o.created > gt) && (gte === undefined || o.created >= gte) && (lt === undefined || o.created < lt) && (lte === undefined || o.created <= lte));
+        items = items.filter(
+          (o) =>
+            (gt === undefined || o.created > gt) &&
+            (gte === undefined || o.created >= gte) &&
+            (lt === undefined || o.created < lt) &&
+            (lte === undefined || o.created <= lte),
+        );
       }
     }
     items = [...items].reverse(); // newest first, as the processor lists
@@ -191,7 +197,10 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       return { object: 'list', data, has_more: false, url: `/v1/checkout/sessions/${node.id}/line_items` };
     }
     if (node.object === 'charge' && field === 'refunds') {
-      const data = store.all('refund').filter((re) => re.charge === node.id).reverse();
+      const data = store
+        .all('refund')
+        .filter((re) => re.charge === node.id)
+        .reverse();
       return { object: 'list', data, has_more: false, total_count: data.length, url: `/v1/charges/${node.id}/refunds` };
     }
     return undefined;
@@ -228,7 +237,10 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     const v = r.str(key);
     return (o: ApiObject) => v === undefined || o[field] === v;
   };
-  const all = (...fs: Array<(o: ApiObject) => boolean>) => (o: ApiObject) => fs.every((f) => f(o));
+  const all =
+    (...fs: Array<(o: ApiObject) => boolean>) =>
+    (o: ApiObject) =>
+      fs.every((f) => f(o));
 
   // ---------- routes ----------
   const id = '([A-Za-z0-9_]+)';
@@ -260,13 +272,33 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     const active = r.bool('active');
     const keys = r.strings('lookup_keys');
     const interval = r.obj('recurring')?.str('interval');
-    return list('price', r, '/v1/prices', all(eq(r, 'product'), eq(r, 'type'), eq(r, 'currency'), (o) => (active === undefined || o.active === active) && (!keys || keys.includes(o.lookup_key)) && (!interval || o.recurring?.interval === interval)));
+    return list(
+      'price',
+      r,
+      '/v1/prices',
+      all(
+        eq(r, 'product'),
+        eq(r, 'type'),
+        eq(r, 'currency'),
+        (o) =>
+          (active === undefined || o.active === active) &&
+          (!keys || keys.includes(o.lookup_key)) &&
+          (!interval || o.recurring?.interval === interval),
+      ),
+    );
   });
   route('GET', '/v1/prices/:id', (m) => engine.find('price', m[1], 'price'));
   route('POST', '/v1/prices/:id', (m, r) => engine.updatePrice(m[1]!, r));
 
   route('POST', '/v1/checkout/sessions', (_m, r) => engine.createCheckoutSession(r));
-  route('GET', '/v1/checkout/sessions', (_m, r) => list('checkout_session', r, '/v1/checkout/sessions', all(eq(r, 'customer'), eq(r, 'payment_intent'), eq(r, 'subscription'), eq(r, 'status'))));
+  route('GET', '/v1/checkout/sessions', (_m, r) =>
+    list(
+      'checkout_session',
+      r,
+      '/v1/checkout/sessions',
+      all(eq(r, 'customer'), eq(r, 'payment_intent'), eq(r, 'subscription'), eq(r, 'status')),
+    ),
+  );
   route('GET', '/v1/checkout/sessions/:id', (m) => engine.find('checkout_session', m[1], 'checkout session'));
   route('POST', '/v1/checkout/sessions/:id/expire', (m) => engine.expireSession(engine.find('checkout_session', m[1], 'checkout session')));
   route('GET', '/v1/checkout/sessions/:id/line_items', (m, r) => {
@@ -274,7 +306,12 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     const limit = r.int('limit', { min: 1, max: 100 }) ?? 10;
     const after = r.str('starting_after');
     const start = after ? data.findIndex((li) => li.id === after) + 1 : 0;
-    return { object: 'list', data: data.slice(start, start + limit), has_more: data.length > start + limit, url: `/v1/checkout/sessions/${m[1]}/line_items` } as unknown as ApiObject;
+    return {
+      object: 'list',
+      data: data.slice(start, start + limit),
+      has_more: data.length > start + limit,
+      url: `/v1/checkout/sessions/${m[1]}/line_items`,
+    } as unknown as ApiObject;
   });
 
   route('POST', '/v1/payment_intents', (_m, r) => engine.createPaymentIntent(r));
@@ -299,26 +336,52 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
   route('GET', '/v1/disputes/:id', (m) => engine.find('dispute', m[1], 'dispute'));
 
   route('GET', '/v1/subscriptions', (_m, r) => {
-    const status = r.str('status', { oneOf: ['active', 'past_due', 'unpaid', 'canceled', 'incomplete', 'incomplete_expired', 'trialing', 'paused', 'all', 'ended'] });
+    const status = r.str('status', {
+      oneOf: ['active', 'past_due', 'unpaid', 'canceled', 'incomplete', 'incomplete_expired', 'trialing', 'paused', 'all', 'ended'],
+    });
     const price = r.str('price');
-    return list('subscription', r, '/v1/subscriptions', all(eq(r, 'customer'), (o) => {
-      const statusOk = status === 'all' ? true : status === 'ended' ? o.status === 'canceled' : status ? o.status === status : o.status !== 'canceled';
-      return statusOk && (!price || o.items.data.some((i: ApiObject) => i.price.id === price));
-    }));
+    return list(
+      'subscription',
+      r,
+      '/v1/subscriptions',
+      all(eq(r, 'customer'), (o) => {
+        const statusOk =
+          status === 'all' ? true : status === 'ended' ? o.status === 'canceled' : status ? o.status === status : o.status !== 'canceled';
+        return statusOk && (!price || o.items.data.some((i: ApiObject) => i.price.id === price));
+      }),
+    );
   });
   route('GET', '/v1/subscriptions/:id', (m) => engine.find('subscription', m[1], 'subscription'));
   route('POST', '/v1/subscriptions/:id', (m, r) => engine.updateSubscription(m[1]!, r));
   route('DELETE', '/v1/subscriptions/:id', (m, r) => engine.cancelSubscription(m[1]!, r));
-  route('GET', '/v1/subscription_items', (_m, r) => engine.subscriptionItemsList(engine.find('subscription', r.str('subscription', { required: true }), 'subscription', 'subscription')));
+  route('GET', '/v1/subscription_items', (_m, r) =>
+    engine.subscriptionItemsList(engine.find('subscription', r.str('subscription', { required: true }), 'subscription', 'subscription')),
+  );
 
-  route('GET', '/v1/invoices', (_m, r) => list('invoice', r, '/v1/invoices', all(eq(r, 'customer'), eq(r, 'status'), (o) => !r.has('subscription') || o.parent?.subscription_details?.subscription === r.str('subscription'))));
+  route('GET', '/v1/invoices', (_m, r) =>
+    list(
+      'invoice',
+      r,
+      '/v1/invoices',
+      all(
+        eq(r, 'customer'),
+        eq(r, 'status'),
+        (o) => !r.has('subscription') || o.parent?.subscription_details?.subscription === r.str('subscription'),
+      ),
+    ),
+  );
   route('GET', '/v1/invoices/:id', (m) => engine.find('invoice', m[1], 'invoice'));
   route('POST', '/v1/invoices/:id/pay', (m, r) => engine.payInvoice(m[1]!, r));
 
   route('GET', '/v1/balance', () => engine.balance());
   route('GET', '/v1/balance_transactions', (_m, r) => {
     const payout = r.str('payout');
-    return list('balance_transaction', r, '/v1/balance_transactions', all(eq(r, 'source'), eq(r, 'type'), eq(r, 'currency'), (o) => !payout || store.internal(o.id).payout === payout));
+    return list(
+      'balance_transaction',
+      r,
+      '/v1/balance_transactions',
+      all(eq(r, 'source'), eq(r, 'type'), eq(r, 'currency'), (o) => !payout || store.internal(o.id).payout === payout),
+    );
   });
   route('GET', '/v1/balance_transactions/:id', (m) => engine.find('balance_transaction', m[1], 'balance transaction'));
 
@@ -354,17 +417,30 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     if (faults.latencyMs > 0) await new Promise((r) => setTimeout(r, faults.latencyMs));
     if (faults.failNext > 0 || (faults.failRate > 0 && Math.random() < faults.failRate)) {
       if (faults.failNext > 0) faults.failNext -= 1;
-      sendJson(res, 500, { error: { type: 'api_error', message: 'An unknown error occurred (fault injected by the local payments fake).' } });
+      sendJson(res, 500, {
+        error: { type: 'api_error', message: 'An unknown error occurred (fault injected by the local payments fake).' },
+      });
       return;
     }
     const auth = req.headers.authorization ?? '';
     const key = auth.startsWith('Bearer ') ? auth.slice(7).trim() : '';
     if (!key) {
-      sendJson(res, 401, { error: { type: 'invalid_request_error', message: 'You did not provide an API key. Provide it in the Authorization header (Bearer <key>).' } });
+      sendJson(res, 401, {
+        error: {
+          type: 'invalid_request_error',
+          message: 'You did not provide an API key. Provide it in the Authorization header (Bearer <key>).',
+        },
+      });
       return;
     }
     if (opts.apiKey && key !== opts.apiKey) {
-      sendJson(res, 401, { error: { type: 'invalid_request_error', code: 'api_key_invalid', message: `Invalid API Key provided: ${key.length > 12 ? `${key.slice(0, 8)}****${key.slice(-4)}` : '****'}` } });
+      sendJson(res, 401, {
+        error: {
+          type: 'invalid_request_error',
+          code: 'api_key_invalid',
+          message: `Invalid API Key provided: ${key.length > 12 ? `${key.slice(0, 8)}****${key.slice(-4)}` : '****'}`,
+        },
+      });
       return;
     }
     const method = req.method ?? 'GET';
@@ -375,10 +451,16 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       const prior = store.state.idempotency[idemKey];
       if (prior) {
         if (prior.method !== method || prior.path !== url.pathname) {
-          throw new ApiError(400, { type: 'idempotency_error', message: `Keys for idempotent requests can only be used for the same endpoint they were first used for ('${prior.method} ${prior.path}' vs '${method} ${url.pathname}'). Try using a key other than '${idemKey}' if you meant to execute a different request.` });
+          throw new ApiError(400, {
+            type: 'idempotency_error',
+            message: `Keys for idempotent requests can only be used for the same endpoint they were first used for ('${prior.method} ${prior.path}' vs '${method} ${url.pathname}'). Try using a key other than '${idemKey}' if you meant to execute a different request.`,
+          });
         }
         if (prior.paramsHash !== paramsHash) {
-          throw new ApiError(400, { type: 'idempotency_error', message: `Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idemKey}' if you meant to execute a different request.` });
+          throw new ApiError(400, {
+            type: 'idempotency_error',
+            message: `Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idemKey}' if you meant to execute a different request.`,
+          });
         }
         sendJson(res, prior.status, prior.body, { 'idempotent-replayed': 'true', 'idempotency-key': idemKey });
         return;
@@ -390,7 +472,12 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       .find((x) => x.m);
     if (!match) {
       const known = routes.some((r) => r.pattern.test(url.pathname));
-      throw new ApiError(404, { type: 'invalid_request_error', message: known ? `Unrecognized request URL (${method}: ${url.pathname}). This method is not allowed here.` : `Unrecognized request URL (${method}: ${url.pathname}).` });
+      throw new ApiError(404, {
+        type: 'invalid_request_error',
+        message: known
+          ? `Unrecognized request URL (${method}: ${url.pathname}). This method is not allowed here.`
+          : `Unrecognized request URL (${method}: ${url.pathname}).`,
+      });
     }
     engine.ctx = { requestId, idempotencyKey: idemKey ?? null };
     const tasksRun = engine.processDue();
@@ -423,22 +510,43 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     const session = store.getOf('checkout_session', sessionId);
     if (!session) return sendHtml(res, 404, messagePage('Checkout not found', 'This checkout link does not exist.'));
     if (session.status === 'complete') {
-      return sendHtml(res, 200, messagePage('Already paid', 'This checkout is complete.', { href: String(session.success_url).replaceAll('{CHECKOUT_SESSION_ID}', session.id), text: 'Continue' }));
+      return sendHtml(
+        res,
+        200,
+        messagePage('Already paid', 'This checkout is complete.', {
+          href: String(session.success_url).replaceAll('{CHECKOUT_SESSION_ID}', session.id),
+          text: 'Continue',
+        }),
+      );
     }
     if (session.status === 'expired') {
-      return sendHtml(res, 410, messagePage('Checkout expired', 'This checkout link has expired.', session.cancel_url ? { href: session.cancel_url, text: 'Go back' } : undefined));
+      return sendHtml(
+        res,
+        410,
+        messagePage(
+          'Checkout expired',
+          'This checkout link has expired.',
+          session.cancel_url ? { href: session.cancel_url, text: 'Go back' } : undefined,
+        ),
+      );
     }
     const lineItems = engine.sessionLineItems(session.id);
     if (req.method === 'GET') return sendHtml(res, 200, checkoutPage(session, lineItems, {}, {}));
     const form = Object.fromEntries(new URLSearchParams(rawBody)) as CardForm;
     const keep: CardForm = { email: form.email, name: form.name, expiry: form.expiry };
-    const read = readCardForm(form, engine.now(), { emailRequired: session.mode === 'subscription' && !session.customer && !session.customer_email });
-    if ('errors' in read) return sendHtml(res, 400, checkoutPage(session, lineItems, { ...keep, card_number: form.card_number }, read.errors));
+    const read = readCardForm(form, engine.now(), {
+      emailRequired: session.mode === 'subscription' && !session.customer && !session.customer_email,
+    });
+    if ('errors' in read)
+      return sendHtml(res, 400, checkoutPage(session, lineItems, { ...keep, card_number: form.card_number }, read.errors));
     const result = engine.payCheckoutSession(session, read.card);
     persist();
     webhooks.kick();
     if (result.ok) return redirect(res, result.redirectUrl);
-    const reason = result.decline.declineCode === 'insufficient_funds' ? 'Your card has insufficient funds. Try another card.' : 'Your card was declined. Try another card.';
+    const reason =
+      result.decline.declineCode === 'insufficient_funds'
+        ? 'Your card has insufficient funds. Try another card.'
+        : 'Your card was declined. Try another card.';
     return sendHtml(res, 402, checkoutPage(session, lineItems, keep, { form: reason }));
   };
 
@@ -453,9 +561,19 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     const form = Object.fromEntries(new URLSearchParams(rawBody)) as CardForm;
     const keep: CardForm = { name: form.name, expiry: form.expiry };
     const read = readCardForm(form, engine.now(), { emailRequired: false });
-    if ('errors' in read) return sendHtml(res, 400, portalPage(portal, customer, current(), openInvoices(), { ...keep, card_number: form.card_number }, read.errors));
+    if ('errors' in read)
+      return sendHtml(
+        res,
+        400,
+        portalPage(portal, customer, current(), openInvoices(), { ...keep, card_number: form.card_number }, read.errors),
+      );
     const decline = read.card.behaviour === 'attach_then_decline' ? null : declineFor(read.card.behaviour);
-    if (decline) return sendHtml(res, 402, portalPage(portal, customer, current(), openInvoices(), keep, { form: `${decline.message} The card was not saved.` }));
+    if (decline)
+      return sendHtml(
+        res,
+        402,
+        portalPage(portal, customer, current(), openInvoices(), keep, { form: `${decline.message} The card was not saved.` }),
+      );
     engine.replaceCard(customer, read.card);
     persist();
     webhooks.kick();
@@ -510,7 +628,8 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     if (method === 'POST' && p === '/_fake/payouts/run') return done({ payouts: engine.runPayouts() });
     if (method === 'POST' && (m = p.match(/^\/_fake\/customers\/([A-Za-z0-9_]+)\/fail-renewals$/))) {
       const code = String(body.declineCode ?? 'generic_decline');
-      if (code !== 'generic_decline' && code !== 'insufficient_funds') throw new HttpError(400, 'declineCode must be generic_decline or insufficient_funds');
+      if (code !== 'generic_decline' && code !== 'insufficient_funds')
+        throw new HttpError(400, 'declineCode must be generic_decline or insufficient_funds');
       return done(engine.setFailRenewals(m[1]!, body.fail !== false, code));
     }
     if (method === 'POST' && (m = p.match(/^\/_fake\/charges\/([A-Za-z0-9_]+)\/dispute$/))) {
@@ -551,10 +670,15 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
         if (url.pathname.startsWith('/v1/')) return await handleApi(req, res, url, rawBody, requestId);
         if (url.pathname.startsWith('/_fake/')) return await handleControl(req, res, url, rawBody);
         let m: RegExpMatchArray | null;
-        if ((m = url.pathname.match(/^\/pay\/([A-Za-z0-9_]+)$/)) && (req.method === 'GET' || req.method === 'POST')) return await handleCheckoutPage(req, res, m[1]!, rawBody);
-        if ((m = url.pathname.match(/^\/billing\/([A-Za-z0-9_]+)$/)) && (req.method === 'GET' || req.method === 'POST')) return await handlePortalPage(req, res, m[1]!, rawBody);
-        if (url.pathname === '/' || url.pathname === '/healthz') return sendJson(res, 200, { ok: true, service: 'payments-fake', apiVersion: API_VERSION });
-        sendJson(res, 404, { error: { type: 'invalid_request_error', message: `Unrecognized request URL (${req.method}: ${url.pathname}).` } });
+        if ((m = url.pathname.match(/^\/pay\/([A-Za-z0-9_]+)$/)) && (req.method === 'GET' || req.method === 'POST'))
+          return await handleCheckoutPage(req, res, m[1]!, rawBody);
+        if ((m = url.pathname.match(/^\/billing\/([A-Za-z0-9_]+)$/)) && (req.method === 'GET' || req.method === 'POST'))
+          return await handlePortalPage(req, res, m[1]!, rawBody);
+        if (url.pathname === '/' || url.pathname === '/healthz')
+          return sendJson(res, 200, { ok: true, service: 'payments-fake', apiVersion: API_VERSION });
+        sendJson(res, 404, {
+          error: { type: 'invalid_request_error', message: `Unrecognized request URL (${req.method}: ${url.pathname}).` },
+        });
       } catch (err) {
         if (res.headersSent) return;
         if (err instanceof ApiError) return sendJson(res, err.status, { error: err.body });

@@ -25,7 +25,11 @@ export async function startFakes(config: Config, say: (m: string) => void): Prom
   }
   {
     const { createMailFake } = await import('../../fakes/mail/server');
-    const mail = await createMailFake({ port: portOf(config.RESEND_BASE_URL, 4020), apiKey: config.RESEND_API_KEY, statePath: path.join(data, 'mail-fake.json') });
+    const mail = await createMailFake({
+      port: portOf(config.RESEND_BASE_URL, 4020),
+      apiKey: config.RESEND_API_KEY,
+      statePath: path.join(data, 'mail-fake.json'),
+    });
     urls.push(['outbox (mail fake)', `${mail.url}/outbox`]);
     closers.push(() => mail.close());
   }

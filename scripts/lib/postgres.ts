@@ -65,7 +65,9 @@ export async function startCluster(opts: { root: string; port: number; throwaway
   chmodSync(data, 0o700);
   if (!existsSync(path.join(data, 'PG_VERSION'))) {
     log(`creating a cluster in ${data}`);
-    asPostgres(path.join(bin, 'initdb'), ['-D', data, '-U', 'postgres', '--auth=trust', '--encoding=UTF8', '--locale=C.UTF-8'], { quiet: true });
+    asPostgres(path.join(bin, 'initdb'), ['-D', data, '-U', 'postgres', '--auth=trust', '--encoding=UTF8', '--locale=C.UTF-8'], {
+      quiet: true,
+    });
     if (opts.throwaway) {
       writeFileSync(path.join(data, 'postgresql.auto.conf'), 'fsync = off\nsynchronous_commit = off\nfull_page_writes = off\n');
       if (isRoot) execFileSync('chown', ['postgres:', path.join(data, 'postgresql.auto.conf')]);
@@ -75,13 +77,31 @@ export async function startCluster(opts: { root: string; port: number; throwaway
   const pidFile = path.join(data, 'postmaster.pid');
   if (existsSync(pidFile)) {
     // A stale pid file from a killed run: pg_ctl status tells whether it is alive.
-    const status = spawnSync(isRoot ? 'runuser' : path.join(bin, 'pg_ctl'), isRoot ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, 'status'] : ['-D', data, 'status']);
+    const status = spawnSync(
+      isRoot ? 'runuser' : path.join(bin, 'pg_ctl'),
+      isRoot ? ['-u', 'postgres', '--', path.join(bin, 'pg_ctl'), '-D', data, 'status'] : ['-D', data, 'status'],
+    );
     if (status.status === 0) {
       log(`cluster already running in ${data}`);
       return makeCluster(root, opts.port, bin, data, false);
     }
   }
-  asPostgres(path.join(bin, 'pg_ctl'), ['-D', data, '-l', logFile, '-w', '-t', '60', '-o', `-c listen_addresses=127.0.0.1 -p ${opts.port} -k ${sock} -c max_connections=300`, 'start'], { quiet: true });
+  asPostgres(
+    path.join(bin, 'pg_ctl'),
+    [
+      '-D',
+      data,
+      '-l',
+      logFile,
+      '-w',
+      '-t',
+      '60',
+      '-o',
+      `-c listen_addresses=127.0.0.1 -p ${opts.port} -k ${sock} -c max_connections=300`,
+      'start',
+    ],
+    { quiet: true },
+  );
   log(`listening on 127.0.0.1:${opts.port}`);
   return makeCluster(root, opts.port, bin, data, true);
 }

@@ -33,14 +33,56 @@ function mulberry32(seed: number) {
 const feeMinor = (amountMinor: number) => Math.floor((amountMinor * 290 + 5000) / 10000) + 30;
 
 const names = [
-  'Marisol K.', 'The Hallam family', null, 'Teodor', 'Ines & Paulo', null, 'Amara O.', 'Lindqvist crew', 'Kit', null,
-  'Rosalind P.', 'Benedek', 'Class 6B, Harbour Road School', null, 'Yusuf A.', 'Fen', 'Odile M.', null, 'Cormac', 'Priya & Sam',
-  'Ossian', null, 'Harriet W.', 'Dunmore amateur radio club',
+  'Marisol K.',
+  'The Hallam family',
+  null,
+  'Teodor',
+  'Ines & Paulo',
+  null,
+  'Amara O.',
+  'Lindqvist crew',
+  'Kit',
+  null,
+  'Rosalind P.',
+  'Benedek',
+  'Class 6B, Harbour Road School',
+  null,
+  'Yusuf A.',
+  'Fen',
+  'Odile M.',
+  null,
+  'Cormac',
+  'Priya & Sam',
+  'Ossian',
+  null,
+  'Harriet W.',
+  'Dunmore amateur radio club',
 ];
-const laterNames = ['Saoirse', 'Tomasz R.', 'Aiko', 'Lowen', 'Marguerite', 'Dev & Ola', 'Ishbel', 'Ruairi', 'Nkechi', 'Halvard', 'Wilhelmina', 'Ptolemy K.'];
+const laterNames = [
+  'Saoirse',
+  'Tomasz R.',
+  'Aiko',
+  'Lowen',
+  'Marguerite',
+  'Dev & Ola',
+  'Ishbel',
+  'Ruairi',
+  'Nkechi',
+  'Halvard',
+  'Wilhelmina',
+  'Ptolemy K.',
+];
 const messages = [
-  'Fly well, little sail.', null, 'For my grandfather, who watched the first satellites cross the sky.', null, 'Go Tern-1!',
-  'Can’t wait for the first dispatch.', null, 'Keep the element sets coming.', null, 'From a fellow shed engineer.',
+  'Fly well, little sail.',
+  null,
+  'For my grandfather, who watched the first satellites cross the sky.',
+  null,
+  'Go Tern-1!',
+  'Can’t wait for the first dispatch.',
+  null,
+  'Keep the element sets coming.',
+  null,
+  'From a fellow shed engineer.',
 ];
 
 export const campaignSeeder: Seeder = {
@@ -67,17 +109,73 @@ export const campaignSeeder: Seeder = {
     const tierRows = await db
       .insert(tiers)
       .values([
-        { campaignId: c.id, position: 1, kind: 'one-time' as const, minAmountMinor: 1000, title: 'Sail log postcard', description: 'A printed postcard of the sail’s first week in orbit, with its orbit drawn on the back.', estimatedDelivery: '2027-05-01' },
-        { campaignId: c.id, position: 2, kind: 'one-time' as const, minAmountMinor: 3500, title: 'Mission patch', description: 'The embroidered Tern-1 patch, and your name on the backer wall of the mission page.', estimatedDelivery: '2027-03-01' },
-        { campaignId: c.id, position: 3, kind: 'one-time' as const, minAmountMinor: 25_000, quantityLimit: 40, title: 'Flight-spare sail swatch', description: 'A framed 5 × 5 cm piece cut from the flight-spare sail, numbered and signed by the team.', estimatedDelivery: '2027-08-01' },
-        { campaignId: c.id, position: 4, kind: 'monthly' as const, minAmountMinor: 800, title: 'Crew membership', description: 'Monthly support. Crew members read dispatches a day early and vote on the sail’s test manoeuvres.' },
-        { campaignId: c.id, position: 5, kind: 'monthly' as const, minAmountMinor: 2500, title: 'Flight-deck crew', description: 'Everything in the crew membership, plus a seat on the monthly call where the orbit desk walks through the latest element sets.' },
+        {
+          campaignId: c.id,
+          position: 1,
+          kind: 'one-time' as const,
+          minAmountMinor: 1000,
+          title: 'Sail log postcard',
+          description: 'A printed postcard of the sail’s first week in orbit, with its orbit drawn on the back.',
+          estimatedDelivery: '2027-05-01',
+        },
+        {
+          campaignId: c.id,
+          position: 2,
+          kind: 'one-time' as const,
+          minAmountMinor: 3500,
+          title: 'Mission patch',
+          description: 'The embroidered Tern-1 patch, and your name on the backer wall of the mission page.',
+          estimatedDelivery: '2027-03-01',
+        },
+        {
+          campaignId: c.id,
+          position: 3,
+          kind: 'one-time' as const,
+          minAmountMinor: 25_000,
+          quantityLimit: 40,
+          title: 'Flight-spare sail swatch',
+          description: 'A framed 5 × 5 cm piece cut from the flight-spare sail, numbered and signed by the team.',
+          estimatedDelivery: '2027-08-01',
+        },
+        {
+          campaignId: c.id,
+          position: 4,
+          kind: 'monthly' as const,
+          minAmountMinor: 800,
+          title: 'Crew membership',
+          description: 'Monthly support. Crew members read dispatches a day early and vote on the sail’s test manoeuvres.',
+        },
+        {
+          campaignId: c.id,
+          position: 5,
+          kind: 'monthly' as const,
+          minAmountMinor: 2500,
+          title: 'Flight-deck crew',
+          description:
+            'Everything in the crew membership, plus a seat on the monthly call where the orbit desk walks through the latest element sets.',
+        },
       ])
       .returning();
-    const [postcard, patch, swatch, crew, deck] = tierRows as [typeof tierRows[number], typeof tierRows[number], typeof tierRows[number], typeof tierRows[number], typeof tierRows[number]];
+    const [postcard, patch, swatch, crew, deck] = tierRows as [
+      (typeof tierRows)[number],
+      (typeof tierRows)[number],
+      (typeof tierRows)[number],
+      (typeof tierRows)[number],
+      (typeof tierRows)[number],
+    ];
     await db.insert(stretchTargets).values([
-      { campaignId: c.id, amountMinor: 6_000_000, title: 'A second ground station', description: 'A receiving dish on the far side of the estuary doubles our passes.' },
-      { campaignId: c.id, amountMinor: 7_500_000, title: 'Sail-shape camera', description: 'A tiny camera on the boom to photograph the sail’s shape in sunlight.' },
+      {
+        campaignId: c.id,
+        amountMinor: 6_000_000,
+        title: 'A second ground station',
+        description: 'A receiving dish on the far side of the estuary doubles our passes.',
+      },
+      {
+        campaignId: c.id,
+        amountMinor: 7_500_000,
+        title: 'Sail-shape camera',
+        description: 'A tiny camera on the boom to photograph the sail’s shape in sunlight.',
+      },
     ]);
 
     const rand = mulberry32(1729);
@@ -120,15 +218,41 @@ export const campaignSeeder: Seeder = {
           createdAt: paidAt,
         })
         .returning();
-      if (p.tier) await db.update(tiers).set({ soldCount: sql`${tiers.soldCount} + 1` }).where(eq(tiers.id, p.tier.id));
+      if (p.tier)
+        await db
+          .update(tiers)
+          .set({ soldCount: sql`${tiers.soldCount} + 1` })
+          .where(eq(tiers.id, p.tier.id));
       const charges = p.monthly && paidAt.getTime() < now - 20 * DAY_MS ? [paidAt, new Date(paidAt.getTime() + 30 * DAY_MS)] : [paidAt];
       for (const [i, at] of charges.entries()) {
         if (at.getTime() > now) continue;
         const id = `${tag}${i}`;
-        const base = { currency: 'USD', campaignId: c.id, pledgeId: row!.id, processorChargeId: `ch_demo_${id}`, processorBalanceTransactionId: `txn_demo_${id}`, processorInvoiceId: p.monthly ? `in_demo_${id}` : null, isDemo: true };
+        const base = {
+          currency: 'USD',
+          campaignId: c.id,
+          pledgeId: row!.id,
+          processorChargeId: `ch_demo_${id}`,
+          processorBalanceTransactionId: `txn_demo_${id}`,
+          processorInvoiceId: p.monthly ? `in_demo_${id}` : null,
+          isDemo: true,
+        };
         await db.insert(ledgerEntries).values([
-          { ...base, kind: 'charge', amountMinor: p.amountMinor, processorObjectId: `ch_demo_${id}`, description: p.monthly ? 'Membership payment (demo)' : 'Pledge payment (demo)', occurredAt: at },
-          { ...base, kind: 'fee', amountMinor: -feeMinor(p.amountMinor), processorObjectId: `txn_demo_${id}`, description: 'Processor fee on a charge (demo)', occurredAt: at },
+          {
+            ...base,
+            kind: 'charge',
+            amountMinor: p.amountMinor,
+            processorObjectId: `ch_demo_${id}`,
+            description: p.monthly ? 'Membership payment (demo)' : 'Pledge payment (demo)',
+            occurredAt: at,
+          },
+          {
+            ...base,
+            kind: 'fee',
+            amountMinor: -feeMinor(p.amountMinor),
+            processorObjectId: `txn_demo_${id}`,
+            description: 'Processor fee on a charge (demo)',
+            occurredAt: at,
+          },
         ]);
       }
       if (p.monthly) {

@@ -42,13 +42,21 @@ export const orbitSeeder: Seeder = {
       { filename: 'tern-1-sets-to-date.tle', sets: history.sets.filter((s) => s.epochMs >= split) },
     ];
     for (const part of parts) {
-      const job = await orbit.ingest.ingestText({ spacecraftId: craft.id, accountId: engineerId, filename: part.filename, text: formatTleFile(part.sets, { withNames: true }) });
+      const job = await orbit.ingest.ingestText({
+        spacecraftId: craft.id,
+        accountId: engineerId,
+        filename: part.filename,
+        text: formatTleFile(part.sets, { withNames: true }),
+      });
       if (job.status !== 'imported') throw new Error(`seeding ${part.filename} ended ${job.status}: ${job.message}`);
       log(`  ${part.filename}: ${job.message}`);
     }
     for (const p of history.periods) {
       await orbit.orbit.createSailingPeriod(engineerId, craft.id, {
-        startAt: new Date(p.startMs).toISOString(), endAt: new Date(p.endMs).toISOString(), mode: p.mode, note: PERIOD_NOTES[p.mode] ?? '',
+        startAt: new Date(p.startMs).toISOString(),
+        endAt: new Date(p.endMs).toISOString(),
+        mode: p.mode,
+        note: PERIOD_NOTES[p.mode] ?? '',
       });
     }
     const endMs = TERN1.startMs + TERN1.days * DAY_MS;
@@ -56,7 +64,8 @@ export const orbitSeeder: Seeder = {
       const snap = await orbit.snapshots.create(engineerId, {
         spacecraftId: craft.id,
         title: 'Tern-1: four months of sailing',
-        caption: 'Each raising period lifts apogee while drag slowly lowers perigee. Shaded bands are the sailing periods from the log; dashed lines are robust rates over the last 30 days.',
+        caption:
+          'Each raising period lifts apogee while drag slowly lowers perigee. Shaded bands are the sailing periods from the log; dashed lines are robust rates over the last 30 days.',
         fromMs: endMs - 120 * DAY_MS,
         toMs: endMs,
         rateFromMs: endMs - 30 * DAY_MS,

@@ -16,7 +16,7 @@ export function mount(app: Express, prefix: string, router: Router) {
     const paths = Array.isArray(layer.route.path) ? layer.route.path : [layer.route.path];
     for (const p of paths) {
       for (const [method, on] of Object.entries(layer.route.methods)) {
-        if (on && method !== '_all') table.push({ method: method.toUpperCase(), path: (prefix + (p === '/' ? '' : p)) || '/' });
+        if (on && method !== '_all') table.push({ method: method.toUpperCase(), path: prefix + (p === '/' ? '' : p) || '/' });
       }
     }
   }

@@ -12,7 +12,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof ZodError) {
     const details = err.issues.map((i) => ({ path: i.path.join('.'), message: i.message }));
     res.status(400).json({
-      error: { code: 'validation_failed', message: details.map((d) => (d.path ? `${d.path}: ${d.message}` : d.message)).join('; '), details },
+      error: {
+        code: 'validation_failed',
+        message: details.map((d) => (d.path ? `${d.path}: ${d.message}` : d.message)).join('; '),
+        details,
+      },
     });
     return;
   }
@@ -41,5 +45,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   const errorId = randomUUID();
   req.log?.error({ err, errorId }, 'unhandled error');
-  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side. Quote this id if you report it.', errorId } });
+  res
+    .status(500)
+    .json({ error: { code: 'internal', message: 'Something went wrong on our side. Quote this id if you report it.', errorId } });
 };

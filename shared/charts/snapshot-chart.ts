@@ -22,7 +22,10 @@ export type SnapshotData = {
   rateWindow: { fromMs: number; toMs: number } | null;
 };
 
-export const SERIES: Record<SnapshotSeriesKey, { label: string; unit: string; group: AxisGroup; color: string; scale: number; decimals: number }> = {
+export const SERIES: Record<
+  SnapshotSeriesKey,
+  { label: string; unit: string; group: AxisGroup; color: string; scale: number; decimals: number }
+> = {
   apogee: { label: 'Apogee', unit: 'km', group: 'altitude', color: '#ffbe45', scale: 1, decimals: 2 },
   perigee: { label: 'Perigee', unit: 'km', group: 'altitude', color: '#7d93cf', scale: 1, decimals: 2 },
   meanAltitude: { label: 'Mean altitude', unit: 'km', group: 'altitude', color: '#eceff3', scale: 1, decimals: 2 },
@@ -31,7 +34,11 @@ export const SERIES: Record<SnapshotSeriesKey, { label: string; unit: string; gr
   energy: { label: 'Orbital energy', unit: 'MJ/kg', group: 'energy', color: '#e58fd4', scale: 1e-6, decimals: 4 },
 };
 
-const GROUP_LABEL: Record<AxisGroup, string> = { altitude: 'Altitude (km)', semiMajorAxis: 'Semi-major axis (km)', energy: 'Specific energy (MJ/kg)' };
+const GROUP_LABEL: Record<AxisGroup, string> = {
+  altitude: 'Altitude (km)',
+  semiMajorAxis: 'Semi-major axis (km)',
+  energy: 'Specific energy (MJ/kg)',
+};
 
 export const SAIL_MODE_STYLE: Record<SnapshotSailMode, { label: string; color: string; opacity: number }> = {
   raising: { label: 'Raising', color: '#ffbe45', opacity: 0.2 },
@@ -40,7 +47,15 @@ export const SAIL_MODE_STYLE: Record<SnapshotSailMode, { label: string; color: s
   unknown: { label: 'Unknown', color: '#636e81', opacity: 0.1 },
 };
 
-export const CHART_COLORS = { background: '#0b1431', plot: '#131f47', grid: '#263a7a', axis: '#98a3b5', text: '#eceff3', muted: '#bcc4d1', outlier: '#f87171' };
+export const CHART_COLORS = {
+  background: '#0b1431',
+  plot: '#131f47',
+  grid: '#263a7a',
+  axis: '#98a3b5',
+  text: '#eceff3',
+  muted: '#bcc4d1',
+  outlier: '#f87171',
+};
 
 /** Groups on the left and right axis, in that order; a third group is dropped (the form allows two). */
 export function axisGroups(series: readonly SnapshotSeriesKey[]): AxisGroup[] {
@@ -65,7 +80,10 @@ function formatMonth(ms: number): string {
 /** Nice tick values covering [lo, hi], about `count` of them. */
 export function niceTicks(lo: number, hi: number, count = 5): number[] {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [];
-  if (hi - lo < 1e-12) { lo -= 1; hi += 1; }
+  if (hi - lo < 1e-12) {
+    lo -= 1;
+    hi += 1;
+  }
   const raw = (hi - lo) / count;
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
@@ -79,10 +97,14 @@ function timeTicks(fromMs: number, toMs: number, maxTicks: number): { ms: number
   if (spanDays > 75) {
     const monthsStep = [1, 2, 3, 6, 12].find((m) => spanDays / (30.4 * m) <= maxTicks) ?? 12;
     const d = new Date(fromMs);
-    let y = d.getUTCFullYear(), m = d.getUTCMonth() + 1;
+    let y = d.getUTCFullYear(),
+      m = d.getUTCMonth() + 1;
     const out: { ms: number; label: string }[] = [];
     for (let k = 0; k < 200; k++) {
-      if (m > 11) { y += Math.floor(m / 12); m %= 12; }
+      if (m > 11) {
+        y += Math.floor(m / 12);
+        m %= 12;
+      }
       const ms = Date.UTC(y, m, 1);
       if (ms > toMs) break;
       if (m % monthsStep === 0) out.push({ ms, label: formatMonth(ms) });
@@ -92,7 +114,8 @@ function timeTicks(fromMs: number, toMs: number, maxTicks: number): { ms: number
   }
   const stepDays = [1, 2, 5, 7, 14, 28].find((s) => spanDays / s <= maxTicks) ?? 28;
   const out: { ms: number; label: string }[] = [];
-  for (let ms = Math.ceil(fromMs / DAY_MS) * DAY_MS; ms <= toMs && out.length < 60; ms += stepDays * DAY_MS) out.push({ ms, label: formatDateUtc(ms, false) });
+  for (let ms = Math.ceil(fromMs / DAY_MS) * DAY_MS; ms <= toMs && out.length < 60; ms += stepDays * DAY_MS)
+    out.push({ ms, label: formatDateUtc(ms, false) });
   return out;
 }
 
@@ -145,7 +168,10 @@ export type ChartModel = {
   xToMs: (x: number) => number;
 };
 
-export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; height?: number; title?: string; caption?: string } = {}): ChartModel {
+export function buildSnapshotChart(
+  data: SnapshotData,
+  opts: { width?: number; height?: number; title?: string; caption?: string } = {},
+): ChartModel {
   const width = opts.width ?? 960;
   const height = opts.height ?? 540;
   const groups = axisGroups(data.series);
@@ -158,7 +184,8 @@ export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; h
   const left = 72;
   const right = groups.length > 1 ? 80 : 28;
   const plot = { x: left, y: top, w: Math.max(50, width - left - right), h: Math.max(50, height - top - bottom) };
-  const from = data.fromMs, to = data.toMs > data.fromMs ? data.toMs : data.fromMs + DAY_MS;
+  const from = data.fromMs,
+    to = data.toMs > data.fromMs ? data.toMs : data.fromMs + DAY_MS;
   const xOf = (ms: number) => plot.x + ((ms - from) / (to - from)) * plot.w;
   const ms = data.points.epochMs;
   const inWindow: number[] = [];
@@ -181,10 +208,12 @@ export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; h
   const scales = new Map<AxisGroup, { yOf: (v: number) => number; ticks: number[] }>();
   for (const g of groups) {
     const [lo0, hi0] = ranges.get(g) ?? [0, 1];
-    const lo = Number.isFinite(lo0) ? lo0 : 0, hi = Number.isFinite(hi0) ? hi0 : 1;
+    const lo = Number.isFinite(lo0) ? lo0 : 0,
+      hi = Number.isFinite(hi0) ? hi0 : 1;
     const pad = Math.max((hi - lo) * 0.08, Math.abs(hi) * 1e-6, 1e-6);
     const ticks = niceTicks(lo - pad, hi + pad, 5);
-    const yLo = Math.min(lo - pad, ticks[0] ?? lo), yHi = Math.max(hi + pad, ticks[ticks.length - 1] ?? hi);
+    const yLo = Math.min(lo - pad, ticks[0] ?? lo),
+      yHi = Math.max(hi + pad, ticks[ticks.length - 1] ?? hi);
     scales.set(g, { yOf: (v: number) => plot.y + plot.h - ((v - yLo) / (yHi - yLo)) * plot.h, ticks });
   }
   const decimalsFor = (ticks: number[]) => {
@@ -194,7 +223,11 @@ export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; h
   const axes = groups.map((g, k) => {
     const sc = scales.get(g)!;
     const dec = decimalsFor(sc.ticks);
-    return { side: (k === 0 ? 'left' : 'right') as 'left' | 'right', label: GROUP_LABEL[g], ticks: sc.ticks.map((t) => ({ y: sc.yOf(t), label: t.toFixed(dec) })) };
+    return {
+      side: (k === 0 ? 'left' : 'right') as 'left' | 'right',
+      label: GROUP_LABEL[g],
+      ticks: sc.ticks.map((t) => ({ y: sc.yOf(t), label: t.toFixed(dec) })),
+    };
   });
 
   const lines: ChartModel['lines'] = [];
@@ -212,14 +245,22 @@ export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; h
       if (p.outlier) outliers.push({ x: p.x, y: Math.max(plot.y, Math.min(plot.y + plot.h, p.y)), key: s });
       else d += `${d ? 'L' : 'M'}${p.x.toFixed(1)},${p.y.toFixed(1)}`;
     }
-    lines.push({ key: s, label: SERIES[s].label, color: SERIES[s].color, d, points: pts, side: groups.indexOf(SERIES[s].group) === 0 ? 'left' : 'right' });
+    lines.push({
+      key: s,
+      label: SERIES[s].label,
+      color: SERIES[s].color,
+      d,
+      points: pts,
+      side: groups.indexOf(SERIES[s].group) === 0 ? 'left' : 'right',
+    });
   }
 
   const clampX = (x: number) => Math.max(plot.x, Math.min(plot.x + plot.w, x));
   const bands = data.sailingPeriods
     .filter((p) => p.endMs > from && p.startMs < to)
     .map((p) => {
-      const x1 = clampX(xOf(p.startMs)), x2 = clampX(xOf(p.endMs));
+      const x1 = clampX(xOf(p.startMs)),
+        x2 = clampX(xOf(p.endMs));
       const st = SAIL_MODE_STYLE[p.mode];
       return { x: x1, w: Math.max(1, x2 - x1), color: st.color, opacity: st.opacity, label: st.label };
     });
@@ -230,22 +271,30 @@ export function buildSnapshotChart(data: SnapshotData, opts: { width?: number; h
     if (!rl) continue;
     const sc = scales.get(SERIES[s].group)!;
     rateLines.push({
-      key: s, color: SERIES[s].color, label: formatRate(s, rl.slopePerDay),
-      x1: clampX(xOf(rl.fromMs)), y1: sc.yOf(rl.fromValue * SERIES[s].scale), x2: clampX(xOf(rl.toMs)), y2: sc.yOf(rl.toValue * SERIES[s].scale),
+      key: s,
+      color: SERIES[s].color,
+      label: formatRate(s, rl.slopePerDay),
+      x1: clampX(xOf(rl.fromMs)),
+      y1: sc.yOf(rl.fromValue * SERIES[s].scale),
+      x2: clampX(xOf(rl.toMs)),
+      y2: sc.yOf(rl.toValue * SERIES[s].scale),
     });
   }
-  const rateWindow = data.rateWindow && data.rateWindow.toMs > from && data.rateWindow.fromMs < to
-    ? { x: clampX(xOf(data.rateWindow.fromMs)), w: clampX(xOf(data.rateWindow.toMs)) - clampX(xOf(data.rateWindow.fromMs)) }
-    : null;
+  const rateWindow =
+    data.rateWindow && data.rateWindow.toMs > from && data.rateWindow.fromMs < to
+      ? { x: clampX(xOf(data.rateWindow.fromMs)), w: clampX(xOf(data.rateWindow.toMs)) - clampX(xOf(data.rateWindow.fromMs)) }
+      : null;
 
   const legend: ChartModel['legend'] = series.map((s) => {
     const rl = data.rateLines[s];
     return { label: SERIES[s].label, color: SERIES[s].color, detail: rl ? formatRate(s, rl.slopePerDay) : '', kind: 'line' as const };
   });
-  for (const m of modes) legend.push({ label: `${SAIL_MODE_STYLE[m].label} period`, color: SAIL_MODE_STYLE[m].color, detail: '', kind: 'band' });
+  for (const m of modes)
+    legend.push({ label: `${SAIL_MODE_STYLE[m].label} period`, color: SAIL_MODE_STYLE[m].color, detail: '', kind: 'band' });
 
   return {
-    width, height,
+    width,
+    height,
     title: opts.title ?? `${data.spacecraftName} orbit`,
     subtitle: `${data.spacecraftName} · ${formatDateUtc(from)} – ${formatDateUtc(to)} (UTC)${data.rateWindow ? ` · rates over ${formatDateUtc(data.rateWindow.fromMs)} – ${formatDateUtc(data.rateWindow.toMs)}` : ''}`,
     captionLines,
@@ -274,46 +323,82 @@ export function snapshotSvg(model: ChartModel): string {
   const { width, height, plot } = model;
   const c = CHART_COLORS;
   const o: string[] = [];
-  o.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="${esc(CHART_FONT_FAMILY)}">`);
+  o.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="${esc(CHART_FONT_FAMILY)}">`,
+  );
   o.push(`<title>${esc(model.title)}</title>`);
   o.push(`<rect width="${width}" height="${height}" fill="${c.background}"/>`);
   o.push(`<text x="24" y="30" fill="${c.text}" font-size="19" font-weight="700">${esc(model.title)}</text>`);
   o.push(`<text x="24" y="50" fill="${c.muted}" font-size="12">${esc(model.subtitle)}</text>`);
   o.push(`<rect x="${plot.x}" y="${plot.y}" width="${plot.w}" height="${plot.h}" fill="${c.plot}"/>`);
-  for (const b of model.bands) o.push(`<rect x="${b.x.toFixed(1)}" y="${plot.y}" width="${b.w.toFixed(1)}" height="${plot.h}" fill="${b.color}" fill-opacity="${b.opacity}"/>`);
-  if (model.rateWindow) o.push(`<rect x="${model.rateWindow.x.toFixed(1)}" y="${plot.y}" width="${model.rateWindow.w.toFixed(1)}" height="${plot.h}" fill="none" stroke="${c.axis}" stroke-dasharray="2 4" stroke-opacity="0.7"/>`);
+  for (const b of model.bands)
+    o.push(
+      `<rect x="${b.x.toFixed(1)}" y="${plot.y}" width="${b.w.toFixed(1)}" height="${plot.h}" fill="${b.color}" fill-opacity="${b.opacity}"/>`,
+    );
+  if (model.rateWindow)
+    o.push(
+      `<rect x="${model.rateWindow.x.toFixed(1)}" y="${plot.y}" width="${model.rateWindow.w.toFixed(1)}" height="${plot.h}" fill="none" stroke="${c.axis}" stroke-dasharray="2 4" stroke-opacity="0.7"/>`,
+    );
   const left = model.axes[0];
-  if (left) for (const t of left.ticks) o.push(`<line x1="${plot.x}" x2="${plot.x + plot.w}" y1="${t.y.toFixed(1)}" y2="${t.y.toFixed(1)}" stroke="${c.grid}" stroke-width="1"/>`);
-  for (const t of model.xTicks) o.push(`<line x1="${t.x.toFixed(1)}" x2="${t.x.toFixed(1)}" y1="${plot.y}" y2="${plot.y + plot.h}" stroke="${c.grid}" stroke-width="1" stroke-opacity="0.6"/>`);
+  if (left)
+    for (const t of left.ticks)
+      o.push(
+        `<line x1="${plot.x}" x2="${plot.x + plot.w}" y1="${t.y.toFixed(1)}" y2="${t.y.toFixed(1)}" stroke="${c.grid}" stroke-width="1"/>`,
+      );
+  for (const t of model.xTicks)
+    o.push(
+      `<line x1="${t.x.toFixed(1)}" x2="${t.x.toFixed(1)}" y1="${plot.y}" y2="${plot.y + plot.h}" stroke="${c.grid}" stroke-width="1" stroke-opacity="0.6"/>`,
+    );
   for (const a of model.axes) {
     const x = a.side === 'left' ? plot.x - 8 : plot.x + plot.w + 8;
     const anchor = a.side === 'left' ? 'end' : 'start';
-    for (const t of a.ticks) o.push(`<text x="${x}" y="${(t.y + 4).toFixed(1)}" fill="${c.axis}" font-size="11" text-anchor="${anchor}">${esc(t.label)}</text>`);
+    for (const t of a.ticks)
+      o.push(`<text x="${x}" y="${(t.y + 4).toFixed(1)}" fill="${c.axis}" font-size="11" text-anchor="${anchor}">${esc(t.label)}</text>`);
     const lx = a.side === 'left' ? 16 : width - 12;
     const cy = plot.y + plot.h / 2;
-    o.push(`<text x="${lx}" y="${cy}" fill="${c.muted}" font-size="11" text-anchor="middle" transform="rotate(${a.side === 'left' ? -90 : 90} ${lx} ${cy})">${esc(a.label)}</text>`);
+    o.push(
+      `<text x="${lx}" y="${cy}" fill="${c.muted}" font-size="11" text-anchor="middle" transform="rotate(${a.side === 'left' ? -90 : 90} ${lx} ${cy})">${esc(a.label)}</text>`,
+    );
   }
-  for (const t of model.xTicks) o.push(`<text x="${t.x.toFixed(1)}" y="${plot.y + plot.h + 18}" fill="${c.axis}" font-size="11" text-anchor="middle">${esc(t.label)}</text>`);
-  for (const l of model.lines) if (l.d) o.push(`<path d="${l.d}" fill="none" stroke="${l.color}" stroke-width="1.6" stroke-linejoin="round" data-series="${l.key}"/>`);
+  for (const t of model.xTicks)
+    o.push(
+      `<text x="${t.x.toFixed(1)}" y="${plot.y + plot.h + 18}" fill="${c.axis}" font-size="11" text-anchor="middle">${esc(t.label)}</text>`,
+    );
+  for (const l of model.lines)
+    if (l.d) o.push(`<path d="${l.d}" fill="none" stroke="${l.color}" stroke-width="1.6" stroke-linejoin="round" data-series="${l.key}"/>`);
   for (const r of model.rateLines) {
-    o.push(`<line x1="${r.x1.toFixed(1)}" y1="${r.y1.toFixed(1)}" x2="${r.x2.toFixed(1)}" y2="${r.y2.toFixed(1)}" stroke="#ffffff" stroke-width="3" stroke-opacity="0.35"/>`);
-    o.push(`<line x1="${r.x1.toFixed(1)}" y1="${r.y1.toFixed(1)}" x2="${r.x2.toFixed(1)}" y2="${r.y2.toFixed(1)}" stroke="${r.color}" stroke-width="2" stroke-dasharray="6 4"/>`);
+    o.push(
+      `<line x1="${r.x1.toFixed(1)}" y1="${r.y1.toFixed(1)}" x2="${r.x2.toFixed(1)}" y2="${r.y2.toFixed(1)}" stroke="#ffffff" stroke-width="3" stroke-opacity="0.35"/>`,
+    );
+    o.push(
+      `<line x1="${r.x1.toFixed(1)}" y1="${r.y1.toFixed(1)}" x2="${r.x2.toFixed(1)}" y2="${r.y2.toFixed(1)}" stroke="${r.color}" stroke-width="2" stroke-dasharray="6 4"/>`,
+    );
   }
-  for (const p of model.outliers) o.push(`<circle cx="${p.x.toFixed(1)}" cy="${p.y.toFixed(1)}" r="4" fill="none" stroke="${c.outlier}" stroke-width="1.6"/>`);
+  for (const p of model.outliers)
+    o.push(`<circle cx="${p.x.toFixed(1)}" cy="${p.y.toFixed(1)}" r="4" fill="none" stroke="${c.outlier}" stroke-width="1.6"/>`);
   for (const a of model.annotations) {
-    o.push(`<line x1="${a.x.toFixed(1)}" x2="${a.x.toFixed(1)}" y1="${plot.y}" y2="${plot.y + plot.h}" stroke="${c.text}" stroke-dasharray="3 3" stroke-opacity="0.8"/>`);
+    o.push(
+      `<line x1="${a.x.toFixed(1)}" x2="${a.x.toFixed(1)}" y1="${plot.y}" y2="${plot.y + plot.h}" stroke="${c.text}" stroke-dasharray="3 3" stroke-opacity="0.8"/>`,
+    );
     o.push(`<text x="${(a.x + 4).toFixed(1)}" y="${plot.y + 14}" fill="${c.text}" font-size="11">${esc(a.text)}</text>`);
   }
-  let lx = 24, ly = plot.y + plot.h + 42;
+  let lx = 24,
+    ly = plot.y + plot.h + 42;
   const colW = Math.floor((width - 48) / 3);
   const all = [...model.legend];
   if (model.outliers.length) all.push({ label: 'Outlier (not used in rates)', color: c.outlier, detail: '', kind: 'line' });
   all.forEach((item, k) => {
-    if (k > 0 && k % 3 === 0) { lx = 24; ly += 20; }
+    if (k > 0 && k % 3 === 0) {
+      lx = 24;
+      ly += 20;
+    }
     if (item.kind === 'band') o.push(`<rect x="${lx}" y="${ly - 9}" width="16" height="10" fill="${item.color}" fill-opacity="0.5"/>`);
-    else if (item.label.startsWith('Outlier')) o.push(`<circle cx="${lx + 8}" cy="${ly - 4}" r="4" fill="none" stroke="${item.color}" stroke-width="1.6"/>`);
+    else if (item.label.startsWith('Outlier'))
+      o.push(`<circle cx="${lx + 8}" cy="${ly - 4}" r="4" fill="none" stroke="${item.color}" stroke-width="1.6"/>`);
     else o.push(`<line x1="${lx}" x2="${lx + 16}" y1="${ly - 4}" y2="${ly - 4}" stroke="${item.color}" stroke-width="2.5"/>`);
-    o.push(`<text x="${lx + 22}" y="${ly}" fill="${c.text}" font-size="12">${esc(item.label)}${item.detail ? ` <tspan fill="${c.muted}">${esc(item.detail)}</tspan>` : ''}</text>`);
+    o.push(
+      `<text x="${lx + 22}" y="${ly}" fill="${c.text}" font-size="12">${esc(item.label)}${item.detail ? ` <tspan fill="${c.muted}">${esc(item.detail)}</tspan>` : ''}</text>`,
+    );
     lx += colW;
   });
   let cy = ly + 26;

@@ -7,7 +7,7 @@ export const EARTH_RADIUS_WGS72_KM = 6378.135;
 /** WGS-72 J2 as SGP4 uses it — same source. */
 export const J2_WGS72 = 0.001082616;
 /** SGP4's xke = 60 / sqrt(R³/μ) [1/min in Earth-radii units] — same source. */
-export const XKE_WGS72_PER_MIN = 60 / Math.sqrt((EARTH_RADIUS_WGS72_KM ** 3) / MU_WGS72_KM3_PER_S2);
+export const XKE_WGS72_PER_MIN = 60 / Math.sqrt(EARTH_RADIUS_WGS72_KM ** 3 / MU_WGS72_KM3_PER_S2);
 
 /** WGS-84 gravitational parameter [m³/s²] — NIMA TR8350.2. */
 export const MU_WGS84_M3_PER_S2 = 3.986004418e14;

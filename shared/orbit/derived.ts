@@ -1,9 +1,7 @@
 // Orbit quantities as SGP4 treats an element set: the published (Kozai) mean motion is "un-Kozai'd" with J2
 // exactly as SGP4's initialisation does, and the semi-major axis follows from it with WGS-72 constants
 // (μ = 398600.8 km³/s², R = 6378.135 km). Altitudes are above a sphere of radius R (as SGP4's own perigee is).
-import {
-  DEG_TO_RAD, EARTH_RADIUS_WGS72_KM, J2_WGS72, MINUTES_PER_DAY, MU_WGS72_KM3_PER_S2, TWO_PI, XKE_WGS72_PER_MIN,
-} from './constants';
+import { DEG_TO_RAD, EARTH_RADIUS_WGS72_KM, J2_WGS72, MINUTES_PER_DAY, MU_WGS72_KM3_PER_S2, TWO_PI, XKE_WGS72_PER_MIN } from './constants';
 import type { ElementSet } from './types';
 
 export type DerivedElements = {
@@ -74,7 +72,7 @@ export function deriveElementSet(set: DeriveInput): DerivedElements {
  * for writing simulated element sets.
  */
 export function meanMotionForSemiMajorAxis(semiMajorAxisKm: number, eccentricity: number, inclinationDeg: number): number {
-  const target = (XKE_WGS72_PER_MIN / (semiMajorAxisKm / EARTH_RADIUS_WGS72_KM) ** 1.5) * MINUTES_PER_DAY / TWO_PI;
+  const target = ((XKE_WGS72_PER_MIN / (semiMajorAxisKm / EARTH_RADIUS_WGS72_KM) ** 1.5) * MINUTES_PER_DAY) / TWO_PI;
   let n = target;
   for (let k = 0; k < 20; k++) {
     const got = (unKozaiMeanMotionRadPerMin(n, eccentricity, inclinationDeg) * MINUTES_PER_DAY) / TWO_PI;

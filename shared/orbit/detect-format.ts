@@ -10,7 +10,10 @@ export function detectFormat(text: string): ElementSetFormat {
   if (c === '<') return 'omm-xml';
   if (c === '[' || c === '{') return 'omm-json';
   const head = text.slice(i, i + 4096);
-  const lines = head.split('\n').map((l) => l.trim()).filter((l) => l !== '' && !l.startsWith('#'));
+  const lines = head
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l !== '' && !l.startsWith('#'));
   const first = lines[0] ?? '';
   if (/^(CCSDS_OMM_VERS|COMMENT|CREATION_DATE|ORIGINATOR|OBJECT_NAME|OBJECT_ID|EPOCH|MEAN_MOTION)\s*=/.test(first)) return 'omm-kvn';
   if (first.includes(',') && /(^|,)\s*"?(EPOCH|MEAN_MOTION|NORAD_CAT_ID|OBJECT_NAME)"?\s*(,|$)/i.test(first)) return 'omm-csv';

@@ -40,8 +40,10 @@ export function msToIso(ms: number): string {
   const m = mp < 10 ? mp + 3 : mp - 9;
   const y = yoe + era * 400 + (m <= 2 ? 1 : 0);
   if (!(y >= 1000 && y <= 9999)) return new Date(t).toISOString();
-  const h = Math.floor(rem / 3_600_000); rem -= h * 3_600_000;
-  const mi = Math.floor(rem / 60_000); rem -= mi * 60_000;
+  const h = Math.floor(rem / 3_600_000);
+  rem -= h * 3_600_000;
+  const mi = Math.floor(rem / 60_000);
+  rem -= mi * 60_000;
   const sec = Math.floor(rem / 1000);
   const msPart = rem - sec * 1000;
   return `${y}-${PAD2[m]}-${PAD2[d]}T${PAD2[h]}:${PAD2[mi]}:${PAD2[sec]}.${PAD3[msPart]}Z`;
@@ -69,18 +71,23 @@ export function parseCcsdsTime(text: string): number {
   const timePart = t >= 0 ? s.slice(t + 1) : '00:00:00';
   let dayMs: number;
   if (datePart.length === 10 && datePart[4] === '-' && datePart[7] === '-') {
-    const y = digits(datePart, 0, 4), mo = digits(datePart, 5, 7), d = digits(datePart, 8, 10);
+    const y = digits(datePart, 0, 4),
+      mo = digits(datePart, 5, 7),
+      d = digits(datePart, 8, 10);
     if (!(mo >= 1 && mo <= 12 && d >= 1 && d <= 31)) return NaN;
     dayMs = Date.UTC(y, mo - 1, d);
     if (new Date(dayMs).getUTCDate() !== d) return NaN;
   } else if (datePart.length === 8 && datePart[4] === '-') {
-    const y = digits(datePart, 0, 4), doy = digits(datePart, 5, 8);
+    const y = digits(datePart, 0, 4),
+      doy = digits(datePart, 5, 8);
     if (!(doy >= 1 && doy <= (isLeapYear(y) ? 366 : 365))) return NaN;
     dayMs = Date.UTC(y, 0, doy);
   } else return NaN;
   if (!Number.isFinite(dayMs)) return NaN;
   if (timePart.length < 8 || timePart[2] !== ':' || timePart[5] !== ':') return NaN;
-  const h = digits(timePart, 0, 2), mi = digits(timePart, 3, 5), sec = digits(timePart, 6, 8);
+  const h = digits(timePart, 0, 2),
+    mi = digits(timePart, 3, 5),
+    sec = digits(timePart, 6, 8);
   if (!(h <= 23 && mi <= 59 && sec <= 60)) return NaN;
   let frac = 0;
   if (timePart.length > 8) {

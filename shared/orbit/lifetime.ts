@@ -53,7 +53,12 @@ function startState(input: LifetimeStart): { epochMs: number; semiMajorAxisKm: n
   return { epochMs: s.epochMs, semiMajorAxisKm: s.semiMajorAxisKm, eccentricity: s.eccentricity ?? 0 };
 }
 
-function integrate(start: { epochMs: number; semiMajorAxisKm: number }, craft: Craft, activity: SolarActivity, opts: LifetimeOptions): LifetimeCase {
+function integrate(
+  start: { epochMs: number; semiMajorAxisKm: number },
+  craft: Craft,
+  activity: SolarActivity,
+  opts: LifetimeOptions,
+): LifetimeCase {
   const reentryKm = opts.reentryAltitudeKm ?? 120;
   const horizonDays = (opts.horizonYears ?? 100) * 365.25;
   const model = DENSITY_MODEL_FOR_ACTIVITY[activity];
@@ -65,13 +70,17 @@ function integrate(start: { epochMs: number; semiMajorAxisKm: number }, craft: C
     }
     return dragDecayRateKmPerDay(atmosphericDensityKgPerM3(h, model), aKm, craft);
   };
-  let a = start.semiMajorAxisKm, t = 0;
+  let a = start.semiMajorAxisKm,
+    t = 0;
   for (let step = 0; step < 200_000 && t < horizonDays; step++) {
     if (a - EARTH_RADIUS_WGS84_KM <= reentryKm) break;
     const k0 = rate(a);
     if (!(k0 < 0)) break; // not decaying (the sail wins): outlives any horizon
     const dt = Math.min(30, 1 / Math.abs(k0), horizonDays - t);
-    const k1 = k0, k2 = rate(a + (dt / 2) * k1), k3 = rate(a + (dt / 2) * k2), k4 = rate(a + dt * k3);
+    const k1 = k0,
+      k2 = rate(a + (dt / 2) * k1),
+      k3 = rate(a + (dt / 2) * k2),
+      k4 = rate(a + dt * k3);
     let next = a + (dt / 6) * (k1 + 2 * k2 + 2 * k3 + k4);
     if (!Number.isFinite(next)) next = a + dt * k0;
     if (next - EARTH_RADIUS_WGS84_KM <= reentryKm) {
@@ -100,7 +109,8 @@ export function estimateLifetime(input: LifetimeStart, craft: Craft, opts: Lifet
     'densities: low = Harris–Priester minimum, mean = CIRA-72 exponential (Vallado), high = Harris–Priester maximum',
     `reentry taken at ${opts.reentryAltitudeKm ?? 120} km; horizon ${opts.horizonYears ?? 100} years`,
   ];
-  if (start.eccentricity > 0.01) assumptions.push(`eccentricity ${start.eccentricity.toFixed(4)} ignored: lifetime is overestimated for eccentric orbits`);
+  if (start.eccentricity > 0.01)
+    assumptions.push(`eccentricity ${start.eccentricity.toFixed(4)} ignored: lifetime is overestimated for eccentric orbits`);
   if (opts.sail) assumptions.push('sail raising included, orbit-averaged on the sunlit receding half');
   return {
     startMs: start.epochMs,
@@ -108,7 +118,8 @@ export function estimateLifetime(input: LifetimeStart, craft: Craft, opts: Lifet
     low: integrate(start, craft, 'low', opts),
     mean: integrate(start, craft, 'mean', opts),
     high: integrate(start, craft, 'high', opts),
-    method: 'RK4 integration of circular-orbit drag decay da/dt = −ρ(h)·(C_d·A/m)·√(μa) with tabulated density, step limited to ~1 km of decay',
+    method:
+      'RK4 integration of circular-orbit drag decay da/dt = −ρ(h)·(C_d·A/m)·√(μa) with tabulated density, step limited to ~1 km of decay',
     caution: LIFETIME_CAUTION,
     assumptions,
   };

@@ -19,7 +19,8 @@ function lineAt(text: string, index: number): number {
 /** Line numbers of many offsets in one pass (offsets ascending). */
 function linesAt(text: string, offsets: number[]): number[] {
   const out: number[] = [];
-  let line = 1, pos = 0;
+  let line = 1,
+    pos = 0;
   for (const off of offsets) {
     for (; pos < off && pos < text.length; pos++) if (text.charCodeAt(pos) === 10) line++;
     out.push(line);
@@ -53,7 +54,12 @@ export function parseOmmKvn(text: string): Parsed {
     const t = raw.trim();
     if (t === '') continue;
     if (raw.replace(/\r$/, '').length > KVN_MAX_LINE) {
-      out.errors.push({ line: i + 1, columns: [KVN_MAX_LINE + 1, raw.length], message: `line is ${raw.length} characters long`, expected: `at most ${KVN_MAX_LINE} characters (KVN)` });
+      out.errors.push({
+        line: i + 1,
+        columns: [KVN_MAX_LINE + 1, raw.length],
+        message: `line is ${raw.length} characters long`,
+        expected: `at most ${KVN_MAX_LINE} characters (KVN)`,
+      });
       continue;
     }
     if (t.startsWith('COMMENT')) continue;
@@ -64,14 +70,23 @@ export function parseOmmKvn(text: string): Parsed {
     }
     const key = t.slice(0, eq).trim();
     if (!/^[A-Z][A-Z0-9_]*$/.test(key)) {
-      out.errors.push({ line: i + 1, columns: [1, eq], field: key.slice(0, 40), message: `"${key.slice(0, 40)}" is not a KVN keyword`, expected: 'capital letters, digits and "_"' });
+      out.errors.push({
+        line: i + 1,
+        columns: [1, eq],
+        field: key.slice(0, 40),
+        message: `"${key.slice(0, 40)}" is not a KVN keyword`,
+        expected: 'capital letters, digits and "_"',
+      });
       continue;
     }
     let value = t.slice(eq + 1).trim();
     const unit = value.lastIndexOf('[');
     if (unit > 0 && value.endsWith(']')) value = value.slice(0, unit).trim();
     if (key === 'CCSDS_OMM_VERS' || (fields && key in fields && !REPEATABLE.has(key))) finish();
-    if (!fields) { fields = {}; start = i + 1; }
+    if (!fields) {
+      fields = {};
+      start = i + 1;
+    }
     fields[key] = value;
     keyLines[key] = i + 1;
   }
@@ -136,9 +151,14 @@ export function parseOmmXml(text: string): Parsed {
   const segLines = linesAt(text, segOffsets);
   let segIndex = 0;
   for (const omm of omms) {
-    const segments = ((omm as Record<string, unknown> | null)?.body as Record<string, unknown> | undefined)?.segment as unknown[] | undefined;
+    const segments = ((omm as Record<string, unknown> | null)?.body as Record<string, unknown> | undefined)?.segment as
+      unknown[] | undefined;
     if (!Array.isArray(segments)) {
-      out.errors.push({ line: segLines[segIndex] ?? 1, message: '<omm> without <body><segment>', expected: '<body><segment><metadata>…<data>…' });
+      out.errors.push({
+        line: segLines[segIndex] ?? 1,
+        message: '<omm> without <body><segment>',
+        expected: '<body><segment><metadata>…<data>…',
+      });
       continue;
     }
     for (const seg of segments) {
@@ -154,7 +174,9 @@ export function parseOmmXml(text: string): Parsed {
 /** Line of each top-level object in a JSON array (string-aware scan). */
 function jsonObjectLines(text: string): number[] {
   const lines: number[] = [];
-  let depth = 0, line = 1, inString = false;
+  let depth = 0,
+    line = 1,
+    inString = false;
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (c === 10) line++;
@@ -215,13 +237,21 @@ export function parseOmmCsv(text: string): Parsed {
     if (!header) {
       header = row.map((h) => h.trim().toUpperCase());
       if (!header.includes('EPOCH') || !header.includes('MEAN_MOTION')) {
-        out.errors.push({ line: r + 1, message: 'header row lacks EPOCH or MEAN_MOTION', expected: 'OMM keywords as the header (EPOCH, MEAN_MOTION, ECCENTRICITY, …)' });
+        out.errors.push({
+          line: r + 1,
+          message: 'header row lacks EPOCH or MEAN_MOTION',
+          expected: 'OMM keywords as the header (EPOCH, MEAN_MOTION, ECCENTRICITY, …)',
+        });
         return out;
       }
       continue;
     }
     if (row.length !== header.length) {
-      out.errors.push({ line: r + 1, message: `row has ${row.length} cells, the header has ${header.length}`, expected: `${header.length} cells` });
+      out.errors.push({
+        line: r + 1,
+        message: `row has ${row.length} cells, the header has ${header.length}`,
+        expected: `${header.length} cells`,
+      });
       continue;
     }
     const fields: OmmFields = {};

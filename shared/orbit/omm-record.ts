@@ -75,13 +75,19 @@ export function ommFieldsToElementSet(
   else {
     epochMs = parseCcsdsTime(epochText);
     const year = Number.isFinite(epochMs) ? new Date(epochMs).getUTCFullYear() : NaN;
-    if (!Number.isFinite(epochMs)) err('EPOCH', `EPOCH "${epochText}" is not a CCSDS time`, 'YYYY-MM-DDThh:mm:ss[.d…] or YYYY-DDDThh:mm:ss[.d…] (UTC)');
-    else if (!(year >= 1957 && year <= 2056)) err('EPOCH', `EPOCH year ${year} cannot be written in a two-line set`, 'a year from 1957 to 2056');
+    if (!Number.isFinite(epochMs))
+      err('EPOCH', `EPOCH "${epochText}" is not a CCSDS time`, 'YYYY-MM-DDThh:mm:ss[.d…] or YYYY-DDDThh:mm:ss[.d…] (UTC)');
+    else if (!(year >= 1957 && year <= 2056))
+      err('EPOCH', `EPOCH year ${year} cannot be written in a two-line set`, 'a year from 1957 to 2056');
   }
   if (asText(fields.MEAN_MOTION) === undefined && asText(fields.SEMI_MAJOR_AXIS) !== undefined) {
     err('MEAN_MOTION', 'MEAN_MOTION is missing (SEMI_MAJOR_AXIS given)', 'MEAN_MOTION in rev/day, as a TLE-based OMM gives it');
   }
-  const n = required('MEAN_MOTION', `0 < MEAN_MOTION ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`, (v) => v > 0 && v <= MAX_MEAN_MOTION_REV_PER_DAY);
+  const n = required(
+    'MEAN_MOTION',
+    `0 < MEAN_MOTION ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`,
+    (v) => v > 0 && v <= MAX_MEAN_MOTION_REV_PER_DAY,
+  );
   const e = required('ECCENTRICITY', '0 ≤ ECCENTRICITY < 1', (v) => v >= 0 && v < 1);
   const i = required('INCLINATION', '0 ≤ INCLINATION ≤ 180 deg', (v) => v >= 0 && v <= 180);
   const raan = required('RA_OF_ASC_NODE', '0 ≤ RA_OF_ASC_NODE ≤ 360 deg', (v) => v >= 0 && v <= 360);

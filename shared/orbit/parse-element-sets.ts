@@ -4,8 +4,20 @@ import { parseTleText } from './tle-parse';
 import type { ElementSet, ParseError, ParseOptions, ParseResult } from './types';
 
 const NUMERIC_KEYS = [
-  'catalogNumberInt', 'epochMs', 'meanMotionRevPerDay', 'meanMotionDotRevPerDay2', 'meanMotionDdotRevPerDay3', 'bstar',
-  'inclinationDeg', 'raanDeg', 'eccentricity', 'argPerigeeDeg', 'meanAnomalyDeg', 'ephemerisType', 'elementSetNo', 'revAtEpoch',
+  'catalogNumberInt',
+  'epochMs',
+  'meanMotionRevPerDay',
+  'meanMotionDotRevPerDay2',
+  'meanMotionDdotRevPerDay3',
+  'bstar',
+  'inclinationDeg',
+  'raanDeg',
+  'eccentricity',
+  'argPerigeeDeg',
+  'meanAnomalyDeg',
+  'ephemerisType',
+  'elementSetNo',
+  'revAtEpoch',
 ] as const satisfies readonly (keyof ElementSet)[];
 
 function allFinite(r: ElementSet): boolean {
@@ -30,13 +42,28 @@ export function parseElementSets(text: string, opts: ParseOptions = {}): ParseRe
     if (!opts.format) format = detectFormat(body);
     let parsed: { records: ElementSet[]; errors: ParseError[] };
     switch (format) {
-      case 'tle': parsed = parseTleText(body, { verifyChecksum: opts.verifyChecksum }); break;
-      case 'omm-kvn': parsed = parseOmmKvn(body); break;
-      case 'omm-xml': parsed = parseOmmXml(body); break;
-      case 'omm-json': parsed = parseOmmJson(body); break;
-      case 'omm-csv': parsed = parseOmmCsv(body); break;
+      case 'tle':
+        parsed = parseTleText(body, { verifyChecksum: opts.verifyChecksum });
+        break;
+      case 'omm-kvn':
+        parsed = parseOmmKvn(body);
+        break;
+      case 'omm-xml':
+        parsed = parseOmmXml(body);
+        break;
+      case 'omm-json':
+        parsed = parseOmmJson(body);
+        break;
+      case 'omm-csv':
+        parsed = parseOmmCsv(body);
+        break;
       default:
-        parsed = { records: [], errors: [{ line: 1, message: 'format not recognised', expected: 'two-/three-line element sets, or CCSDS OMM as KVN, XML, JSON or CSV' }] };
+        parsed = {
+          records: [],
+          errors: [
+            { line: 1, message: 'format not recognised', expected: 'two-/three-line element sets, or CCSDS OMM as KVN, XML, JSON or CSV' },
+          ],
+        };
     }
     records = parsed.records;
     errors = parsed.errors;
@@ -47,7 +74,8 @@ export function parseElementSets(text: string, opts: ParseOptions = {}): ParseRe
   }
   const good = records.filter(allFinite);
   if (good.length !== records.length) {
-    for (const r of records) if (!allFinite(r)) errors.push({ line: r.sourceLine, message: 'record has a non-finite number', expected: 'finite numbers' });
+    for (const r of records)
+      if (!allFinite(r)) errors.push({ line: r.sourceLine, message: 'record has a non-finite number', expected: 'finite numbers' });
   }
   if (errors.length > maxErrors) {
     const more = errors.length - maxErrors;

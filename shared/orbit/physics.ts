@@ -1,7 +1,5 @@
 // Sail and drag relations (McInnes, Solar Sailing, 1999; drag ½ρv²C_dA), each a pure function in SI units.
-import {
-  EARTH_RADIUS_WGS84_KM, MU_WGS84_M3_PER_S2, PLANCK_J_S, SOLAR_IRRADIANCE_1AU_W_PER_M2, SPEED_OF_LIGHT_M_PER_S,
-} from './constants';
+import { EARTH_RADIUS_WGS84_KM, MU_WGS84_M3_PER_S2, PLANCK_J_S, SOLAR_IRRADIANCE_1AU_W_PER_M2, SPEED_OF_LIGHT_M_PER_S } from './constants';
 import type { SailCraft } from './types';
 
 /** Solar irradiance at `distanceAu` from the Sun, inverse square from 1 AU [W/m²]. */
@@ -40,11 +38,7 @@ export type SailForce = {
  * fraction ρ gives 2·ρ·P·A·cos²θ along the normal; the absorbed fraction gives P·A·cosθ along the Sun line
  * (cos²θ normal, cosθ·sinθ tangential). Ideal reflector: F = 2·P·A·cos²θ.
  */
-export function sailForceN(
-  sail: Pick<SailCraft, 'sailAreaM2' | 'reflectivity'>,
-  incidenceRad = 0,
-  distanceAu = 1,
-): SailForce {
+export function sailForceN(sail: Pick<SailCraft, 'sailAreaM2' | 'reflectivity'>, incidenceRad = 0, distanceAu = 1): SailForce {
   const p = solarRadiationPressurePa(distanceAu);
   const c = Math.max(0, Math.cos(incidenceRad));
   const s = Math.sin(Math.abs(incidenceRad));
@@ -88,7 +82,11 @@ export function dragDecayRateKmPerDay(
 }
 
 /** Along-track acceleration from a specific-energy rate on a circular orbit: a_t = (dE/dt)/v [m/s²]. */
-export function alongTrackAccelerationMPerS2(energyRateJPerKgPerDay: number, semiMajorAxisKm: number, muM3PerS2 = MU_WGS84_M3_PER_S2): number {
+export function alongTrackAccelerationMPerS2(
+  energyRateJPerKgPerDay: number,
+  semiMajorAxisKm: number,
+  muM3PerS2 = MU_WGS84_M3_PER_S2,
+): number {
   const v = Math.sqrt(muM3PerS2 / (semiMajorAxisKm * 1e3));
   return energyRateJPerKgPerDay / 86_400 / v;
 }
@@ -96,5 +94,5 @@ export function alongTrackAccelerationMPerS2(energyRateJPerKgPerDay: number, sem
 /** Semi-major-axis rate from a specific-energy rate: E = −μ/(2a) ⇒ da/dt = 2a²/μ · dE/dt [km/day]. */
 export function semiMajorAxisRateKmPerDay(energyRateJPerKgPerDay: number, semiMajorAxisKm: number, muM3PerS2 = MU_WGS84_M3_PER_S2): number {
   const a = semiMajorAxisKm * 1e3;
-  return ((2 * a * a) / muM3PerS2) * energyRateJPerKgPerDay / 1e3;
+  return (((2 * a * a) / muM3PerS2) * energyRateJPerKgPerDay) / 1e3;
 }

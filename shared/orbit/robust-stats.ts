@@ -42,26 +42,40 @@ type Pairs = { i: Int32Array; j: Int32Array; dx: Float64Array; count: number };
 function pairsOf(x: ArrayLike<number>, n: number): Pairs {
   const total = (n * (n - 1)) / 2;
   const size = total <= MAX_PAIRS ? total : MAX_PAIRS;
-  const pi = new Int32Array(size), pj = new Int32Array(size), pdx = new Float64Array(size);
+  const pi = new Int32Array(size),
+    pj = new Int32Array(size),
+    pdx = new Float64Array(size);
   let c = 0;
   if (total <= MAX_PAIRS) {
     for (let i = 0; i < n; i++) {
       const xi = x[i]!;
       for (let j = i + 1; j < n; j++) {
         const dx = x[j]! - xi;
-        if (dx !== 0) { pi[c] = i; pj[c] = j; pdx[c++] = dx; }
+        if (dx !== 0) {
+          pi[c] = i;
+          pj[c] = j;
+          pdx[c++] = dx;
+        }
       }
     }
   } else {
     // xorshift32 kept in int32 arithmetic (a local small integer, no boxed doubles): the same bits as the unsigned form.
     let seed = 0x9e3779b9 | 0;
     for (let k = 0; k < MAX_PAIRS; k++) {
-      seed ^= seed << 13; seed ^= seed >>> 17; seed ^= seed << 5;
+      seed ^= seed << 13;
+      seed ^= seed >>> 17;
+      seed ^= seed << 5;
       const i = Math.floor(((seed >>> 0) / 4294967296) * n);
-      seed ^= seed << 13; seed ^= seed >>> 17; seed ^= seed << 5;
+      seed ^= seed << 13;
+      seed ^= seed >>> 17;
+      seed ^= seed << 5;
       const j = Math.floor(((seed >>> 0) / 4294967296) * n);
       const dx = x[j]! - x[i]!;
-      if (dx !== 0) { pi[c] = i; pj[c] = j; pdx[c++] = dx; }
+      if (dx !== 0) {
+        pi[c] = i;
+        pj[c] = j;
+        pdx[c++] = dx;
+      }
     }
   }
   return { i: pi, j: pj, dx: pdx, count: c };
@@ -79,15 +93,34 @@ function before(a: number, b: number): boolean {
 function selectRank(a: Float64Array, lo: number, hi: number, k: number): void {
   while (hi > lo) {
     const mid = lo + ((hi - lo) >> 1);
-    if (before(a[mid]!, a[lo]!)) { const t = a[mid]!; a[mid] = a[lo]!; a[lo] = t; }
-    if (before(a[hi]!, a[lo]!)) { const t = a[hi]!; a[hi] = a[lo]!; a[lo] = t; }
-    if (before(a[hi]!, a[mid]!)) { const t = a[hi]!; a[hi] = a[mid]!; a[mid] = t; }
+    if (before(a[mid]!, a[lo]!)) {
+      const t = a[mid]!;
+      a[mid] = a[lo]!;
+      a[lo] = t;
+    }
+    if (before(a[hi]!, a[lo]!)) {
+      const t = a[hi]!;
+      a[hi] = a[lo]!;
+      a[lo] = t;
+    }
+    if (before(a[hi]!, a[mid]!)) {
+      const t = a[hi]!;
+      a[hi] = a[mid]!;
+      a[mid] = t;
+    }
     const pivot = a[mid]!;
-    let i = lo, j = hi;
+    let i = lo,
+      j = hi;
     while (i <= j) {
       while (before(a[i]!, pivot)) i++;
       while (before(pivot, a[j]!)) j--;
-      if (i <= j) { const t = a[i]!; a[i] = a[j]!; a[j] = t; i++; j--; }
+      if (i <= j) {
+        const t = a[i]!;
+        a[i] = a[j]!;
+        a[j] = t;
+        i++;
+        j--;
+      }
     }
     if (k <= j) hi = j;
     else if (k >= i) lo = i;
@@ -98,7 +131,8 @@ function selectRank(a: Float64Array, lo: number, hi: number, k: number): void {
 /** Values of the ascending ranks[from…to] of a[lo…hi] into out, selecting the middle one first and splitting there. */
 function selectRanks(a: Float64Array, lo: number, hi: number, ranks: readonly number[], from: number, to: number, out: number[]): void {
   if (from > to) return;
-  const m = (from + to) >> 1, k = ranks[m]!;
+  const m = (from + to) >> 1,
+    k = ranks[m]!;
   selectRank(a, lo, hi, k);
   out[m] = a[k]!;
   selectRanks(a, lo, k - 1, ranks, from, m - 1, out);
@@ -117,22 +151,29 @@ const SAMPLE = 4096;
 function slopeRanks(y: Float64Array, p: Pairs, ranks: readonly number[]): number[] {
   const count = p.count;
   const { i: pi, j: pj, dx } = p;
-  const lo = ranks[0]!, hi = ranks[ranks.length - 1]!;
+  const lo = ranks[0]!,
+    hi = ranks[ranks.length - 1]!;
   if (count > 8 * SAMPLE) {
     const stride = Math.floor(count / SAMPLE);
     const sample = new Float64Array(SAMPLE);
-    for (let q = 0; q < SAMPLE; q++) { const k = q * stride; sample[q] = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!; }
+    for (let q = 0; q < SAMPLE; q++) {
+      const k = q * stride;
+      sample[q] = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!;
+    }
     sample.sort();
     // Sample positions of the wanted ranks, widened by 5 standard deviations of a sample quantile (σ ≤ √m / 2).
     const margin = Math.ceil(2.5 * Math.sqrt(SAMPLE)) + 2;
-    const a = Math.floor((lo / count) * SAMPLE) - margin, b = Math.ceil((hi / count) * SAMPLE) + margin;
+    const a = Math.floor((lo / count) * SAMPLE) - margin,
+      b = Math.ceil((hi / count) * SAMPLE) + margin;
     if (a > 0 && b < SAMPLE - 1) {
-      const lowBound = sample[a]!, highBound = sample[b]!;
+      const lowBound = sample[a]!,
+        highBound = sample[b]!;
       if (lowBound === lowBound && highBound === highBound) {
         // Branch-free: every slope is written at the next free place, which moves on only for one inside the band
         // (NaN is in neither count). A store past the end is dropped by the typed array; kept then tells.
         const band = new Float64Array(Math.min(count, 4 * (b - a) * stride + 1024));
-        let below = 0, kept = 0;
+        let below = 0,
+          kept = 0;
         for (let k = 0; k < count; k++) {
           const v = (y[pj[k]!]! - y[pi[k]!]!) / dx[k]!;
           band[kept] = v;
@@ -142,7 +183,15 @@ function slopeRanks(y: Float64Array, p: Pairs, ranks: readonly number[]): number
         }
         if (kept < band.length && below <= lo && hi < below + kept) {
           const out: number[] = [];
-          selectRanks(band, 0, kept - 1, ranks.map((r) => r - below), 0, ranks.length - 1, out);
+          selectRanks(
+            band,
+            0,
+            kept - 1,
+            ranks.map((r) => r - below),
+            0,
+            ranks.length - 1,
+            out,
+          );
           return out;
         }
       }
@@ -179,7 +228,12 @@ function fitOverPairs(x: ArrayLike<number>, yIn: ArrayLike<number>, n: number, p
   for (let i = 0; i < n; i++) resid0[i] = y[i]! - (intercept + slope * x[i]!);
   const residualSigma = MAD_TO_SIGMA * medianAbsoluteDeviation(resid0, 0);
   return {
-    slope, intercept, slopeLow: at(lowRank), slopeHigh: at(highRank), pairCount: count, residualSigma,
+    slope,
+    intercept,
+    slopeLow: at(lowRank),
+    slopeHigh: at(highRank),
+    pairCount: count,
+    residualSigma,
     slopeStandardError: sxx > 0 ? residualSigma / Math.sqrt(sxx) : Infinity,
   };
 }

@@ -41,7 +41,13 @@ export function orbitEnergyBalance(craft: SailCraft, altitudeKm: number, opts: B
   const netWPerKg = sailGainWPerKg - dragLossWPerKg;
   const netJPerKgPerDay = netWPerKg * 86_400;
   return {
-    altitudeKm, densityKgPerM3: rho, speedMPerS: v, sailGainWPerKg, dragLossWPerKg, netWPerKg, netJPerKgPerDay,
+    altitudeKm,
+    densityKgPerM3: rho,
+    speedMPerS: v,
+    sailGainWPerKg,
+    dragLossWPerKg,
+    netWPerKg,
+    netJPerKgPerDay,
     semiMajorAxisRateKmPerDay: semiMajorAxisRateKmPerDay(netJPerKgPerDay, EARTH_RADIUS_WGS84_KM + altitudeKm),
   };
 }
@@ -67,13 +73,21 @@ export function crossoverAltitudeKm(craft: SailCraft, opts: CrossoverOptions = {
     }
     return orbitEnergyBalance(craft, h, opts).netWPerKg;
   };
-  let lo = lo0, hi = hi0;
-  let fLo = net(lo), fHi = net(hi);
+  let lo = lo0,
+    hi = hi0;
+  let fLo = net(lo),
+    fHi = net(hi);
   if (!(fLo < 0 && fHi > 0)) return null;
   for (let k = 0; k < 60 && hi - lo > 1e-3; k++) {
     const mid = (lo + hi) / 2;
     const f = net(mid);
-    if (f < 0) { lo = mid; fLo = f; } else { hi = mid; fHi = f; }
+    if (f < 0) {
+      lo = mid;
+      fLo = f;
+    } else {
+      hi = mid;
+      fHi = f;
+    }
   }
   return (lo + hi) / 2;
 }

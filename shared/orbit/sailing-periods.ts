@@ -39,7 +39,13 @@ export type SailingComparison = {
 
 function periodRate(points: readonly SailingPoint[], period: SailingPeriod, minPoints: number): PeriodRate {
   const inside = points.filter((p) => !p.outlier && p.epochMs >= period.startMs && p.epochMs <= period.endMs);
-  const out: PeriodRate = { ...period, pointCount: inside.length, energyRateJPerKgPerDay: null, standardErrorJPerKgPerDay: null, meanSemiMajorAxisKm: null };
+  const out: PeriodRate = {
+    ...period,
+    pointCount: inside.length,
+    energyRateJPerKgPerDay: null,
+    standardErrorJPerKgPerDay: null,
+    meanSemiMajorAxisKm: null,
+  };
   if (inside.length < minPoints) return out;
   const t0 = inside[0]!.epochMs;
   const fit = theilSen(
@@ -56,8 +62,13 @@ function periodRate(points: readonly SailingPoint[], period: SailingPeriod, minP
 function summarise(rates: PeriodRate[], modes: SailMode[]): ModeSummary {
   const used = rates.filter((r) => modes.includes(r.mode) && r.energyRateJPerKgPerDay !== null);
   const summary: ModeSummary = {
-    modes, periodCount: used.length, pointCount: used.reduce((s, r) => s + r.pointCount, 0),
-    energyRateJPerKgPerDay: null, uncertaintyJPerKgPerDay: null, alongTrackAccelMPerS2: null, uncertaintyMPerS2: null,
+    modes,
+    periodCount: used.length,
+    pointCount: used.reduce((s, r) => s + r.pointCount, 0),
+    energyRateJPerKgPerDay: null,
+    uncertaintyJPerKgPerDay: null,
+    alongTrackAccelMPerS2: null,
+    uncertaintyMPerS2: null,
   };
   if (!used.length) return summary;
   const w = used.map((r) => 1 / Math.max((r.standardErrorJPerKgPerDay ?? Infinity) ** 2, 1e-30));
@@ -75,7 +86,8 @@ function summarise(rates: PeriodRate[], modes: SailMode[]): ModeSummary {
   summary.energyRateJPerKgPerDay = mean;
   summary.uncertaintyJPerKgPerDay = Number.isFinite(unc) ? unc : null;
   summary.alongTrackAccelMPerS2 = alongTrackAccelerationMPerS2(mean, aKm, mu);
-  summary.uncertaintyMPerS2 = summary.uncertaintyJPerKgPerDay === null ? null : alongTrackAccelerationMPerS2(summary.uncertaintyJPerKgPerDay, aKm, mu);
+  summary.uncertaintyMPerS2 =
+    summary.uncertaintyJPerKgPerDay === null ? null : alongTrackAccelerationMPerS2(summary.uncertaintyJPerKgPerDay, aKm, mu);
   return summary;
 }
 
@@ -95,11 +107,14 @@ export function compareSailingPeriods(
   if (thin.length) notes.push(`${thin.length} period(s) had fewer than ${minPoints} element sets and were not used`);
   if (raising.periodCount === 0) notes.push('no usable raising period');
   if (off.periodCount === 0) notes.push(`no usable ${offModes.join('/')} period`);
-  let sailYieldMPerS2: number | null = null, uncertaintyMPerS2: number | null = null, sailYieldJPerKgPerDay: number | null = null;
+  let sailYieldMPerS2: number | null = null,
+    uncertaintyMPerS2: number | null = null,
+    sailYieldJPerKgPerDay: number | null = null;
   if (raising.alongTrackAccelMPerS2 !== null && off.alongTrackAccelMPerS2 !== null) {
     sailYieldMPerS2 = raising.alongTrackAccelMPerS2 - off.alongTrackAccelMPerS2;
     sailYieldJPerKgPerDay = raising.energyRateJPerKgPerDay! - off.energyRateJPerKgPerDay!;
-    if (raising.uncertaintyMPerS2 !== null && off.uncertaintyMPerS2 !== null) uncertaintyMPerS2 = Math.hypot(raising.uncertaintyMPerS2, off.uncertaintyMPerS2);
+    if (raising.uncertaintyMPerS2 !== null && off.uncertaintyMPerS2 !== null)
+      uncertaintyMPerS2 = Math.hypot(raising.uncertaintyMPerS2, off.uncertaintyMPerS2);
   }
   return { raising, off, periods: rates, sailYieldMPerS2, uncertaintyMPerS2, sailYieldJPerKgPerDay, notes };
 }

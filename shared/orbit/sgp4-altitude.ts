@@ -35,7 +35,8 @@ export function propagateMinutes(satrec: SatRec, minutes: number): TemeState | S
     return sgp4Failure(0, minutes);
   }
   if (!pv || satrec.error) return sgp4Failure(satrec.error || 0, minutes);
-  const r = pv.position, v = pv.velocity;
+  const r = pv.position,
+    v = pv.velocity;
   if (!Number.isFinite(r.x + r.y + r.z + v.x + v.y + v.z)) return sgp4Failure(0, minutes);
   return { positionKm: [r.x, r.y, r.z], velocityKmPerS: [v.x, v.y, v.z] };
 }
@@ -67,7 +68,15 @@ export function geodeticHeightKm(x: number, y: number, z: number): number {
 }
 
 export type AltitudeRange =
-  | { ok: true; minAltitudeKm: number; maxAltitudeKm: number; minAtMinutes: number; maxAtMinutes: number; periodMin: number; sampleCount: number }
+  | {
+      ok: true;
+      minAltitudeKm: number;
+      maxAltitudeKm: number;
+      minAtMinutes: number;
+      maxAtMinutes: number;
+      periodMin: number;
+      sampleCount: number;
+    }
   | { ok: false; error: Sgp4Failure };
 
 /**
@@ -90,7 +99,10 @@ export function sgp4AltitudeRange(
   const periodMin = TWO_PI / satrec.no;
   if (!Number.isFinite(periodMin) || periodMin <= 0) return { ok: false, error: sgp4Failure(2, start) };
   const step = periodMin / samples;
-  let min = Infinity, max = -Infinity, minAt = start, maxAt = start;
+  let min = Infinity,
+    max = -Infinity,
+    minAt = start,
+    maxAt = start;
   for (let k = 0; k < samples; k++) {
     const t = start + k * step;
     const pv = sgp4(satrec, t);
@@ -98,8 +110,14 @@ export function sgp4AltitudeRange(
     const r = pv.position;
     const h = geodeticHeightKm(r.x, r.y, r.z);
     if (!Number.isFinite(h)) return { ok: false, error: sgp4Failure(0, t) };
-    if (h < min) { min = h; minAt = t; }
-    if (h > max) { max = h; maxAt = t; }
+    if (h < min) {
+      min = h;
+      minAt = t;
+    }
+    if (h > max) {
+      max = h;
+      maxAt = t;
+    }
   }
   return { ok: true, minAltitudeKm: min, maxAltitudeKm: max, minAtMinutes: minAt, maxAtMinutes: maxAt, periodMin, sampleCount: samples };
 }

@@ -55,7 +55,8 @@ function rng(seed: number) {
 }
 
 function gaussian(rand: () => number) {
-  const u = Math.max(1e-12, rand()), v = rand();
+  const u = Math.max(1e-12, rand()),
+    v = rand();
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
 }
 
@@ -70,7 +71,15 @@ function phaseAt(phases: SimPhase[], day: number): SimPhase['mode'] {
 }
 
 /** Rates of apogee and perigee altitude [km/day] in one sail mode at one altitude. */
-function rates(craft: SimCraft, mode: SimPhase['mode'], perigeeKm: number, apogeeKm: number, betaDeg: number, activity: number, efficiency: number) {
+function rates(
+  craft: SimCraft,
+  mode: SimPhase['mode'],
+  perigeeKm: number,
+  apogeeKm: number,
+  betaDeg: number,
+  activity: number,
+  efficiency: number,
+) {
   const h = (perigeeKm + apogeeKm) / 2;
   const a = EARTH_RADIUS_WGS72_KM + h;
   const geom = sailThrustGeometry({ altitudeKm: h, betaDeg, samples: 180 });
@@ -87,7 +96,13 @@ function rates(craft: SimCraft, mode: SimPhase['mode'], perigeeKm: number, apoge
   } else if (mode === 'stowed') {
     dragArea = craft.dragAreaEdgeOnM2 / 2;
   }
-  const sc: SailCraft = { massKg: craft.massKg, sailAreaM2: craft.sailAreaM2, reflectivity: craft.reflectivity, dragCoefficient: craft.dragCoefficient, dragAreaM2: dragArea };
+  const sc: SailCraft = {
+    massKg: craft.massKg,
+    sailAreaM2: craft.sailAreaM2,
+    reflectivity: craft.reflectivity,
+    dragCoefficient: craft.dragCoefficient,
+    dragAreaM2: dragArea,
+  };
   const bal = orbitEnergyBalance(sc, h, { density: 'mean', betaDeg, sailing: sailFactor > 0 });
   const sailA = semiMajorAxisRateKmPerDay(bal.sailGainWPerKg * sailFactor * 86_400, a);
   const dragA = semiMajorAxisRateKmPerDay(-bal.dragLossWPerKg * activity * 86_400, a);
@@ -103,7 +118,8 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
   const outlierDays = new Set(o.outlierDays ?? []);
   const duplicateDays = new Set(o.duplicateDays ?? []);
   const raan0 = o.raanDeg ?? 40;
-  let apogee = o.startAltitudeKm + 1.5, perigee = o.startAltitudeKm - 1.5;
+  let apogee = o.startAltitudeKm + 1.5,
+    perigee = o.startAltitudeKm - 1.5;
   let revs = 1200;
   let elset = 1;
   let argp = 90;
@@ -121,14 +137,16 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
     const beta = k % 8 === 0 || k === 0 ? betaAngleDeg({ epochMs: ms, inclinationDeg: o.inclinationDeg, raanDeg: raan }) : NaN;
     // Solar activity: a 27-day rotation on top of a slow rise, as a multiplier on the mean density.
     const activity = (1 + 0.25 * Math.sin((2 * Math.PI * day) / 27)) * (0.9 + 0.3 * (day / Math.max(1, o.days)));
-    if (!Number.isNaN(beta) || k === 0) lastRates = rates(o.craft, mode, perigee, apogee, Number.isNaN(beta) ? 0 : beta, activity, efficiency);
+    if (!Number.isNaN(beta) || k === 0)
+      lastRates = rates(o.craft, mode, perigee, apogee, Number.isNaN(beta) ? 0 : beta, activity, efficiency);
     if (k % 8 === 0) truth.push({ day, apogeeKm: apogee, perigeeKm: perigee, mode });
     // Sets published in the step that just began.
     while (nextSetDay < day + stepDays && nextSetDay < o.days) {
       const setDay = nextSetDay;
       const setMs = o.startMs + setDay * MS_PER_DAY;
       const frac = (setDay - day) / stepDays;
-      const ha = apogee + lastRates.apogee * frac * stepDays, hp = perigee + lastRates.perigee * frac * stepDays;
+      const ha = apogee + lastRates.apogee * frac * stepDays,
+        hp = perigee + lastRates.perigee * frac * stepDays;
       const dayIndex = Math.floor(setDay);
       const isOutlier = outlierDays.has(dayIndex) && !sets.some((s) => s.day === dayIndex && s.outlier);
       const aTrue = EARTH_RADIUS_WGS72_KM + (ha + hp) / 2;
@@ -137,7 +155,7 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
       const incl = o.inclinationDeg + 0.0015 * gaussian(rand);
       const n = meanMotionForSemiMajorAxis(a, e, incl);
       const dnDt = (-1.5 * n * lastRates.total) / aTrue; // rev/day²
-      const dragOnlyBstar = (o.craft.dragCoefficient * lastRates.dragArea) / (2 * o.craft.massKg) * BSTAR_RHO0_ER;
+      const dragOnlyBstar = ((o.craft.dragCoefficient * lastRates.dragArea) / (2 * o.craft.massKg)) * BSTAR_RHO0_ER;
       // The fit's B* follows the drag area of the current attitude; the sail's push shows in the mean motion.
       const bstar = Math.max(-0.5, Math.min(0.5, dragOnlyBstar * (1 + 0.1 * gaussian(rand))));
       const set = {
@@ -154,7 +172,7 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
         inclinationDeg: incl,
         raanDeg: (raan0 + SSO_RAAN_RATE_DEG_PER_DAY * setDay) % 360,
         eccentricity: e,
-        argPerigeeDeg: ((argp - 3.1 * (setDay - day)) % 360 + 360) % 360,
+        argPerigeeDeg: (((argp - 3.1 * (setDay - day)) % 360) + 360) % 360,
         meanAnomalyDeg: rand() * 360,
         elementSetNo: elset,
         revAtEpoch: Math.floor(revs + n * (setDay - day)),
@@ -172,12 +190,16 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
     perigee += lastRates.perigee * stepDays;
     if (perigee > apogee) [perigee, apogee] = [apogee, perigee];
     const aNow = EARTH_RADIUS_WGS72_KM + (apogee + perigee) / 2;
-    revs += (meanMotionForSemiMajorAxis(aNow, Math.max(1e-6, (apogee - perigee) / (2 * aNow)), o.inclinationDeg)) * stepDays;
-    argp = ((argp - 3.1 * stepDays) % 360 + 360) % 360;
+    revs += meanMotionForSemiMajorAxis(aNow, Math.max(1e-6, (apogee - perigee) / (2 * aNow)), o.inclinationDeg) * stepDays;
+    argp = (((argp - 3.1 * stepDays) % 360) + 360) % 360;
   }
   const periods = o.phases
     .filter((p) => p.mode !== 'stowed' && p.startDay < o.days)
-    .map((p) => ({ startMs: o.startMs + p.startDay * MS_PER_DAY, endMs: o.startMs + Math.min(p.endDay, o.days) * MS_PER_DAY, mode: p.mode as SailMode }));
+    .map((p) => ({
+      startMs: o.startMs + p.startDay * MS_PER_DAY,
+      endMs: o.startMs + Math.min(p.endDay, o.days) * MS_PER_DAY,
+      mode: p.mode as SailMode,
+    }));
   return { sets, periods, truth };
 }
 

@@ -12,7 +12,8 @@ export function sunDirection(epochMs: number): [number, number, number] {
 
 /** Orbit-plane normal from inclination and RAAN (equatorial frame of date). */
 export function orbitNormal(inclinationDeg: number, raanDeg: number): [number, number, number] {
-  const i = inclinationDeg * DEG_TO_RAD, o = raanDeg * DEG_TO_RAD;
+  const i = inclinationDeg * DEG_TO_RAD,
+    o = raanDeg * DEG_TO_RAD;
   return [Math.sin(i) * Math.sin(o), -Math.sin(i) * Math.cos(o), Math.cos(i)];
 }
 
@@ -28,7 +29,8 @@ export function betaAngleDeg(opts: { epochMs: number; inclinationDeg: number; ra
  * when |β| is below asin(R/r), else 0.
  */
 export function sunlitFraction(opts: { altitudeKm: number; betaDeg?: number }): number {
-  const R = EARTH_RADIUS_WGS84_KM, r = R + opts.altitudeKm;
+  const R = EARTH_RADIUS_WGS84_KM,
+    r = R + opts.altitudeKm;
   const beta = (opts.betaDeg ?? 0) * DEG_TO_RAD;
   if (Math.abs(beta) >= Math.asin(Math.min(1, R / r))) return 1;
   const x = Math.sqrt(opts.altitudeKm * opts.altitudeKm + 2 * R * opts.altitudeKm) / (r * Math.cos(beta));
@@ -57,13 +59,18 @@ export type SailThrustGeometry = {
 /** Samples a circular orbit at `samples` points with the Sun at β above the plane. */
 export function sailThrustGeometry(opts: { altitudeKm: number; betaDeg?: number; samples?: number }): SailThrustGeometry {
   const n = Math.max(8, Math.floor(opts.samples ?? 3600));
-  const R = EARTH_RADIUS_WGS84_KM, r = R + opts.altitudeKm;
+  const R = EARTH_RADIUS_WGS84_KM,
+    r = R + opts.altitudeKm;
   const beta = (opts.betaDeg ?? 0) * DEG_TO_RAD;
   const sx = Math.cos(beta);
-  let lit = 0, usable = 0, cos2 = 0, cos1 = 0;
+  let lit = 0,
+    usable = 0,
+    cos2 = 0,
+    cos1 = 0;
   for (let k = 0; k < n; k++) {
     const u = ((k + 0.5) / n) * 2 * Math.PI;
-    const px = Math.cos(u), py = Math.sin(u);
+    const px = Math.cos(u),
+      py = Math.sin(u);
     const along = px * sx; // r̂·ŝ
     const perp = Math.sqrt(Math.max(0, 1 - along * along)) * r;
     const inShadow = along < 0 && perp < R;

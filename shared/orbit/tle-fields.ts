@@ -8,8 +8,14 @@ export function readDecimal(line: string, start: number, end: number): number {
   while (i < end && line.charCodeAt(i) === 32) i++;
   let sign = 1;
   const s = line.charCodeAt(i);
-  if (s === 45) { sign = -1; i++; } else if (s === 43) i++;
-  let mantissa = 0, fracDigits = 0, digitCount = 0, seenPoint = false;
+  if (s === 45) {
+    sign = -1;
+    i++;
+  } else if (s === 43) i++;
+  let mantissa = 0,
+    fracDigits = 0,
+    digitCount = 0,
+    seenPoint = false;
   for (; i < end; i++) {
     const c = line.charCodeAt(i);
     if (c >= 48 && c <= 57) {
@@ -29,7 +35,8 @@ export function readUnsigned(line: string, start: number, end: number, blank: nu
   let i = start;
   while (i < end && line.charCodeAt(i) === 32) i++;
   if (i === end) return blank;
-  let v = 0, n = 0;
+  let v = 0,
+    n = 0;
   for (; i < end; i++) {
     const c = line.charCodeAt(i);
     if (c < 48 || c > 57) break;
@@ -46,7 +53,11 @@ export function readUnsigned(line: string, start: number, end: number, blank: nu
  */
 export function readAssumedDecimalExponent(line: string, start: number): number {
   let blank = true;
-  for (let i = start; i < start + 8; i++) if (line.charCodeAt(i) !== 32) { blank = false; break; }
+  for (let i = start; i < start + 8; i++)
+    if (line.charCodeAt(i) !== 32) {
+      blank = false;
+      break;
+    }
   if (blank) return 0;
   const s = line.charCodeAt(start);
   let sign: number;
@@ -74,7 +85,8 @@ export function readAssumedDecimalExponent(line: string, start: number): number 
 
 /** Seven eccentricity digits with an assumed leading "0." (leading blanks count as zeros). */
 export function readEccentricity(line: string, start: number): number {
-  let v = 0, i = start;
+  let v = 0,
+    i = start;
   while (i < start + 7 && line.charCodeAt(i) === 32) i++;
   if (i === start + 7) return NaN;
   for (; i < start + 7; i++) {

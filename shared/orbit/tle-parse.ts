@@ -45,14 +45,28 @@ function pushError(errors: ParseError[], line: number, columns: [number, number]
   errors.push({ line, columns, field, message, expected });
 }
 
-function checkShape(line: string, lineNo: number, which: 1 | 2, spaces: readonly number[], verifyChecksum: boolean, errors: ParseError[]): boolean {
+function checkShape(
+  line: string,
+  lineNo: number,
+  which: 1 | 2,
+  spaces: readonly number[],
+  verifyChecksum: boolean,
+  errors: ParseError[],
+): boolean {
   const n = line.length;
   if (n < TLE_LINE_LENGTH) {
     pushError(errors, lineNo, [1, n || 1], `line ${which}`, `line ${which} has ${n} characters`, `${TLE_LINE_LENGTH} characters`);
     return false;
   }
   if (n > TLE_LINE_LENGTH) {
-    pushError(errors, lineNo, [TLE_LINE_LENGTH + 1, n], `line ${which}`, `unexpected text after column ${TLE_LINE_LENGTH}`, `${TLE_LINE_LENGTH} characters`);
+    pushError(
+      errors,
+      lineNo,
+      [TLE_LINE_LENGTH + 1, n],
+      `line ${which}`,
+      `unexpected text after column ${TLE_LINE_LENGTH}`,
+      `${TLE_LINE_LENGTH} characters`,
+    );
     return false;
   }
   let ok = true;
@@ -94,12 +108,26 @@ export function parseTlePair(
   opts: { name?: string; line1No: number; line2No?: number; sourceLine?: number; verifyChecksum?: boolean },
 ): { record: ElementSet | null; errors: ParseError[] } {
   const errors: ParseError[] = [];
-  const record = parsePairInto(clean(line1), clean(line2), opts.line1No, opts.line2No ?? opts.line1No + 1, opts, opts.verifyChecksum !== false, errors);
+  const record = parsePairInto(
+    clean(line1),
+    clean(line2),
+    opts.line1No,
+    opts.line2No ?? opts.line1No + 1,
+    opts,
+    opts.verifyChecksum !== false,
+    errors,
+  );
   return { record, errors };
 }
 
 function parsePairInto(
-  l1: string, l2: string, line1No: number, line2No: number, opts: { name?: string; sourceLine?: number }, verify: boolean, errors: ParseError[],
+  l1: string,
+  l2: string,
+  line1No: number,
+  line2No: number,
+  opts: { name?: string; sourceLine?: number },
+  verify: boolean,
+  errors: ParseError[],
 ): ElementSet | null {
   const shape1 = checkShape(l1, line1No, 1, LINE1_SPACES, verify, errors);
   const shape2 = checkShape(l2, line2No, 2, LINE2_SPACES, verify, errors);
@@ -108,14 +136,27 @@ function parsePairInto(
 }
 
 function readFields(
-  l1: string, l2: string, line1No: number, line2No: number, opts: { name?: string; sourceLine?: number }, errors: ParseError[],
+  l1: string,
+  l2: string,
+  line1No: number,
+  line2No: number,
+  opts: { name?: string; sourceLine?: number },
+  errors: ParseError[],
 ): ElementSet | null {
   const before = errors.length;
   let lineNo = line1No;
 
   const catField1 = l1.slice(2, 7);
   const catalogNumberInt = parseCatalogNumber(catField1);
-  if (!Number.isFinite(catalogNumberInt)) pushError(errors, lineNo, [3, 7], 'catalog number', `"${catField1}" is not a catalog number`, 'five digits, or alpha-5 (letter + four digits)');
+  if (!Number.isFinite(catalogNumberInt))
+    pushError(
+      errors,
+      lineNo,
+      [3, 7],
+      'catalog number',
+      `"${catField1}" is not a catalog number`,
+      'five digits, or alpha-5 (letter + four digits)',
+    );
   const cls = l1[7];
   let classification: Classification = 'U';
   if (cls === 'C' || cls === 'S' || cls === 'U') classification = cls;
@@ -124,47 +165,108 @@ function readFields(
   for (let i = 0; i < designator.length; i++) {
     const c = designator.charCodeAt(i);
     if (!((c >= 48 && c <= 57) || (c >= 65 && c <= 90) || c === 32)) {
-      pushError(errors, lineNo, [10, 17], 'international designator', `"${designator}" has invalid characters`, 'digits and capital letters');
+      pushError(
+        errors,
+        lineNo,
+        [10, 17],
+        'international designator',
+        `"${designator}" has invalid characters`,
+        'digits and capital letters',
+      );
       break;
     }
   }
   const yy = readUnsigned(l1, 18, 20, NaN);
   const day = readDecimal(l1, 20, 32);
   let epochMs = NaN;
-  if (!(yy >= 0 && yy <= 99) || l1.charCodeAt(18) === 32) pushError(errors, lineNo, [19, 20], 'epoch year', `"${l1.slice(18, 20)}" is not a two-digit year`, 'two digits (57–99 → 19xx, 00–56 → 20xx)');
+  if (!(yy >= 0 && yy <= 99) || l1.charCodeAt(18) === 32)
+    pushError(
+      errors,
+      lineNo,
+      [19, 20],
+      'epoch year',
+      `"${l1.slice(18, 20)}" is not a two-digit year`,
+      'two digits (57–99 → 19xx, 00–56 → 20xx)',
+    );
   else {
     const year = tleYearToFullYear(yy);
     const maxDay = isLeapYear(year) ? 367 : 366;
-    if (!(day >= 1 && day < maxDay)) pushError(errors, lineNo, [21, 32], 'epoch day', `"${l1.slice(20, 32).trim()}" is not a day of ${year}`, `1 ≤ day < ${maxDay}`);
+    if (!(day >= 1 && day < maxDay))
+      pushError(errors, lineNo, [21, 32], 'epoch day', `"${l1.slice(20, 32).trim()}" is not a day of ${year}`, `1 ≤ day < ${maxDay}`);
     else epochMs = dayOfYearToMs(year, day);
   }
   const ndot = readDecimal(l1, 33, 43);
-  if (!Number.isFinite(ndot)) pushError(errors, lineNo, [34, 43], 'mean motion dot/2', `"${l1.slice(33, 43)}" is not a number`, 'a decimal such as " .00000023"');
+  if (!Number.isFinite(ndot))
+    pushError(errors, lineNo, [34, 43], 'mean motion dot/2', `"${l1.slice(33, 43)}" is not a number`, 'a decimal such as " .00000023"');
   const nddot = readAssumedDecimalExponent(l1, 44);
-  if (!Number.isFinite(nddot)) pushError(errors, lineNo, [45, 52], 'mean motion ddot/6', `"${l1.slice(44, 52)}" is not an assumed-decimal exponent field`, 'sign, 5 digits, signed exponent, e.g. " 00000-0"');
+  if (!Number.isFinite(nddot))
+    pushError(
+      errors,
+      lineNo,
+      [45, 52],
+      'mean motion ddot/6',
+      `"${l1.slice(44, 52)}" is not an assumed-decimal exponent field`,
+      'sign, 5 digits, signed exponent, e.g. " 00000-0"',
+    );
   const bstar = readAssumedDecimalExponent(l1, 53);
-  if (!Number.isFinite(bstar)) pushError(errors, lineNo, [54, 61], 'B*', `"${l1.slice(53, 61)}" is not an assumed-decimal exponent field`, 'sign, 5 digits, signed exponent, e.g. " 28098-4"');
+  if (!Number.isFinite(bstar))
+    pushError(
+      errors,
+      lineNo,
+      [54, 61],
+      'B*',
+      `"${l1.slice(53, 61)}" is not an assumed-decimal exponent field`,
+      'sign, 5 digits, signed exponent, e.g. " 28098-4"',
+    );
   const eph = readUnsigned(l1, 62, 63, 0);
   if (!Number.isFinite(eph)) pushError(errors, lineNo, [63, 63], 'ephemeris type', `"${l1[62]}" is not a digit`, 'a digit or blank');
   const elset = readUnsigned(l1, 64, 68, 0);
-  if (!Number.isFinite(elset)) pushError(errors, lineNo, [65, 68], 'element set number', `"${l1.slice(64, 68)}" is not a number`, 'up to four digits');
+  if (!Number.isFinite(elset))
+    pushError(errors, lineNo, [65, 68], 'element set number', `"${l1.slice(64, 68)}" is not a number`, 'up to four digits');
 
   lineNo = line2No;
   const catField2 = l2.slice(2, 7);
   const cat2 = parseCatalogNumber(catField2);
-  if (!Number.isFinite(cat2)) pushError(errors, lineNo, [3, 7], 'catalog number', `"${catField2}" is not a catalog number`, 'five digits, or alpha-5');
-  else if (Number.isFinite(catalogNumberInt) && cat2 !== catalogNumberInt) pushError(errors, lineNo, [3, 7], 'catalog number', `line 2 has catalog number "${catField2}" but line 1 has "${catField1}"`, `"${catField1}"`);
+  if (!Number.isFinite(cat2))
+    pushError(errors, lineNo, [3, 7], 'catalog number', `"${catField2}" is not a catalog number`, 'five digits, or alpha-5');
+  else if (Number.isFinite(catalogNumberInt) && cat2 !== catalogNumberInt)
+    pushError(
+      errors,
+      lineNo,
+      [3, 7],
+      'catalog number',
+      `line 2 has catalog number "${catField2}" but line 1 has "${catField1}"`,
+      `"${catField1}"`,
+    );
   const incl = readAngle(l2, 8, 16, 'inclination', 180, lineNo, errors);
   const raan = readAngle(l2, 17, 25, 'right ascension of the ascending node', 360, lineNo, errors);
   const ecc = readEccentricity(l2, 26);
-  if (!Number.isFinite(ecc)) pushError(errors, lineNo, [27, 33], 'eccentricity', `"${l2.slice(26, 33)}" is not seven digits`, 'seven digits with an assumed leading "0."');
+  if (!Number.isFinite(ecc))
+    pushError(
+      errors,
+      lineNo,
+      [27, 33],
+      'eccentricity',
+      `"${l2.slice(26, 33)}" is not seven digits`,
+      'seven digits with an assumed leading "0."',
+    );
   const argp = readAngle(l2, 34, 42, 'argument of perigee', 360, lineNo, errors);
   const ma = readAngle(l2, 43, 51, 'mean anomaly', 360, lineNo, errors);
   const n = readDecimal(l2, 52, 63);
-  if (!Number.isFinite(n)) pushError(errors, lineNo, [53, 63], 'mean motion', `"${l2.slice(52, 63)}" is not a number`, 'rev/day, e.g. "15.49165230"');
-  else if (!(n > 0 && n <= MAX_MEAN_MOTION_REV_PER_DAY)) pushError(errors, lineNo, [53, 63], 'mean motion', `${n} rev/day is out of range`, `0 < mean motion ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`);
+  if (!Number.isFinite(n))
+    pushError(errors, lineNo, [53, 63], 'mean motion', `"${l2.slice(52, 63)}" is not a number`, 'rev/day, e.g. "15.49165230"');
+  else if (!(n > 0 && n <= MAX_MEAN_MOTION_REV_PER_DAY))
+    pushError(
+      errors,
+      lineNo,
+      [53, 63],
+      'mean motion',
+      `${n} rev/day is out of range`,
+      `0 < mean motion ≤ ${MAX_MEAN_MOTION_REV_PER_DAY} rev/day`,
+    );
   const rev = readUnsigned(l2, 63, 68, 0);
-  if (!Number.isFinite(rev)) pushError(errors, lineNo, [64, 68], 'revolution number', `"${l2.slice(63, 68)}" is not a number`, 'up to five digits');
+  if (!Number.isFinite(rev))
+    pushError(errors, lineNo, [64, 68], 'revolution number', `"${l2.slice(63, 68)}" is not a number`, 'up to five digits');
 
   if (errors.length > before) return null;
   const record: ElementSet = {
@@ -203,7 +305,12 @@ export function parseTleText(text: string, opts: TleParseOptions = {}): { record
   let pendingNameLine = 0;
   const dropPendingName = function dropPendingName() {
     if (pendingName !== undefined) {
-      errors.push({ line: pendingNameLine, message: 'name line is not followed by line 1', expected: 'line 1 of a two-line set after a name line', field: 'name' });
+      errors.push({
+        line: pendingNameLine,
+        message: 'name line is not followed by line 1',
+        expected: 'line 1 of a two-line set after a name line',
+        field: 'name',
+      });
       pendingName = undefined;
     }
   };
@@ -218,23 +325,47 @@ export function parseTleText(text: string, opts: TleParseOptions = {}): { record
       const next = j < count ? clean(lines[j]!) : '';
       if (j < count && isTleLine(next, 50)) {
         const name = pendingName;
-        const record = parsePairInto(line, next, i + 1, j + 1, { name, sourceLine: name !== undefined ? pendingNameLine : i + 1 }, verify, errors);
+        const record = parsePairInto(
+          line,
+          next,
+          i + 1,
+          j + 1,
+          { name, sourceLine: name !== undefined ? pendingNameLine : i + 1 },
+          verify,
+          errors,
+        );
         pendingName = undefined;
         if (record) records.push(record);
         i = j;
       } else {
         pendingName = undefined;
-        errors.push({ line: i + 1, columns: [1, 1], field: 'line number', message: 'line 1 is not followed by line 2', expected: 'a line starting "2 " next' });
+        errors.push({
+          line: i + 1,
+          columns: [1, 1],
+          field: 'line number',
+          message: 'line 1 is not followed by line 2',
+          expected: 'a line starting "2 " next',
+        });
       }
     } else if (isTleLine(line, 50)) {
       pendingName = undefined;
-      errors.push({ line: i + 1, columns: [1, 1], field: 'line number', message: 'line 2 without a line 1 before it', expected: 'a line starting "1 " first' });
+      errors.push({
+        line: i + 1,
+        columns: [1, 1],
+        field: 'line number',
+        message: 'line 2 without a line 1 before it',
+        expected: 'a line starting "1 " first',
+      });
     } else {
       dropPendingName();
       let name = line.trim();
       if (name.startsWith('0 ')) name = name.slice(2).trim();
       if (hasControlChars(name) || name.length > 80) {
-        errors.push({ line: i + 1, message: 'not a name line, line 1 or line 2', expected: 'a name of printable characters (at most 80), or a line starting "1 " or "2 "' });
+        errors.push({
+          line: i + 1,
+          message: 'not a name line, line 1 or line 2',
+          expected: 'a name of printable characters (at most 80), or a line starting "1 " or "2 "',
+        });
       } else {
         pendingName = name;
         pendingNameLine = i + 1;

@@ -6,9 +6,21 @@ import type { ElementSet } from './types';
 /** What the writer needs; `line1`, `line2`, `sourceLine` and the ISO epoch are not read. */
 export type TleWriteInput = Pick<
   ElementSet,
-  | 'catalogNumber' | 'classification' | 'internationalDesignator' | 'epochMs' | 'meanMotionRevPerDay'
-  | 'meanMotionDotRevPerDay2' | 'meanMotionDdotRevPerDay3' | 'bstar' | 'inclinationDeg' | 'raanDeg'
-  | 'eccentricity' | 'argPerigeeDeg' | 'meanAnomalyDeg' | 'elementSetNo' | 'revAtEpoch'
+  | 'catalogNumber'
+  | 'classification'
+  | 'internationalDesignator'
+  | 'epochMs'
+  | 'meanMotionRevPerDay'
+  | 'meanMotionDotRevPerDay2'
+  | 'meanMotionDdotRevPerDay3'
+  | 'bstar'
+  | 'inclinationDeg'
+  | 'raanDeg'
+  | 'eccentricity'
+  | 'argPerigeeDeg'
+  | 'meanAnomalyDeg'
+  | 'elementSetNo'
+  | 'revAtEpoch'
 > & { name?: string; ephemerisType?: number; catalogNumberInt?: number };
 
 function fixed(value: number, decimals: number, width: number): string {
@@ -35,8 +47,14 @@ export function formatAssumedDecimalExponent(value: number): string {
   const a = Math.abs(value);
   let exp = Math.floor(Math.log10(a)) + 1;
   let mantissa = Math.round(a / 10 ** (exp - 5));
-  if (mantissa >= 100_000) { mantissa = Math.round(mantissa / 10); exp += 1; }
-  if (mantissa < 10_000 && mantissa > 0) { mantissa = Math.round(a / 10 ** (exp - 6)); exp -= 1; }
+  if (mantissa >= 100_000) {
+    mantissa = Math.round(mantissa / 10);
+    exp += 1;
+  }
+  if (mantissa < 10_000 && mantissa > 0) {
+    mantissa = Math.round(a / 10 ** (exp - 6));
+    exp -= 1;
+  }
   if (exp < -9) return ' 00000-0';
   if (exp > 9) return `${sign}99999+9`;
   return `${sign}${String(mantissa).padStart(5, '0')}${exp < 0 ? '-' : '+'}${Math.abs(exp)}`;
@@ -47,7 +65,10 @@ function epochField(epochMs: number): string {
   let day = dayOfYear.toFixed(8);
   // Rounding up to the next whole day at the year's end belongs to the next year.
   const yearDays = (Date.UTC(fullYear + 1, 0, 1) - Date.UTC(fullYear, 0, 1)) / 86_400_000;
-  if (Number(day) >= yearDays + 1) { fullYear += 1; day = (1).toFixed(8); }
+  if (Number(day) >= yearDays + 1) {
+    fullYear += 1;
+    day = (1).toFixed(8);
+  }
   return String(fullYear % 100).padStart(2, '0') + day.padStart(12, '0');
 }
 

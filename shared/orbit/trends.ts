@@ -60,7 +60,9 @@ function modifiedZ(residuals: Float64Array): Float64Array {
 }
 
 /** Same object and epoch (to the millisecond) → keep the highest element-set number. Sorted by epoch. */
-export function dedupeElementSets<T extends Pick<ElementSet, 'catalogNumber' | 'epochMs' | 'elementSetNo'>>(sets: readonly T[]): { sets: T[]; duplicatesRemoved: number } {
+export function dedupeElementSets<T extends Pick<ElementSet, 'catalogNumber' | 'epochMs' | 'elementSetNo'>>(
+  sets: readonly T[],
+): { sets: T[]; duplicatesRemoved: number } {
   const byKey = new Map<string, T>();
   for (const s of sets) {
     const key = `${s.catalogNumber}|${Math.round(s.epochMs)}`;
@@ -78,11 +80,19 @@ export function computeTrend(sets: readonly ElementSet[], opts: TrendOptions = {
     const freq = new Map<string, number>();
     for (const s of sets) freq.set(s.catalogNumber, (freq.get(s.catalogNumber) ?? 0) + 1);
     let best = 0;
-    for (const [k, v] of freq) if (v > best) { best = v; catalogNumber = k; }
+    for (const [k, v] of freq)
+      if (v > best) {
+        best = v;
+        catalogNumber = k;
+      }
   }
-  const from = opts.fromMs ?? -Infinity, to = opts.toMs ?? Infinity;
+  const from = opts.fromMs ?? -Infinity,
+    to = opts.toMs ?? Infinity;
   const inWindow = sets.filter((s) => {
-    if (s.catalogNumber !== catalogNumber) { counts.otherObjects++; return false; }
+    if (s.catalogNumber !== catalogNumber) {
+      counts.otherObjects++;
+      return false;
+    }
     return s.epochMs >= from && s.epochMs <= to;
   });
   counts.inWindow = inWindow.length;
@@ -92,14 +102,29 @@ export function computeTrend(sets: readonly ElementSet[], opts: TrendOptions = {
   const points: TrendPoint[] = unique.map((s) => {
     const d = deriveElementSet(s);
     return {
-      catalogNumber: s.catalogNumber, epochMs: s.epochMs, epoch: s.epoch, elementSetNo: s.elementSetNo, sourceLine: s.sourceLine,
-      bstar: s.bstar, semiMajorAxisKm: d.semiMajorAxisKm, apogeeAltitudeKm: d.apogeeAltitudeKm, perigeeAltitudeKm: d.perigeeAltitudeKm,
-      meanAltitudeKm: d.meanAltitudeKm, periodMin: d.periodMin, specificEnergyJPerKg: d.specificEnergyJPerKg,
-      decayRateKmPerDay: d.decayRateKmPerDay, outlier: false, outlierScore: 0,
+      catalogNumber: s.catalogNumber,
+      epochMs: s.epochMs,
+      epoch: s.epoch,
+      elementSetNo: s.elementSetNo,
+      sourceLine: s.sourceLine,
+      bstar: s.bstar,
+      semiMajorAxisKm: d.semiMajorAxisKm,
+      apogeeAltitudeKm: d.apogeeAltitudeKm,
+      perigeeAltitudeKm: d.perigeeAltitudeKm,
+      meanAltitudeKm: d.meanAltitudeKm,
+      periodMin: d.periodMin,
+      specificEnergyJPerKg: d.specificEnergyJPerKg,
+      decayRateKmPerDay: d.decayRateKmPerDay,
+      outlier: false,
+      outlierScore: 0,
     };
   });
   const base = {
-    catalogNumber, points, counts, fromMs: opts.fromMs ?? null, toMs: opts.toMs ?? null,
+    catalogNumber,
+    points,
+    counts,
+    fromMs: opts.fromMs ?? null,
+    toMs: opts.toMs ?? null,
     spanDays: points.length ? (points[points.length - 1]!.epochMs - points[0]!.epochMs) / 86_400_000 : 0,
   };
   const fit = fitTrendSamples(points, opts.outlierThreshold);
@@ -123,7 +148,10 @@ export type TrendSample = {
  * The outlier screen and the rates of computeTrend over points already of one object, de-duplicated and sorted by
  * epoch, with their derived values (for instance as stored at import): sets `outlier` and `outlierScore` on each.
  */
-export function fitTrendSamples(points: TrendSample[], outlierThreshold = 3.5): Pick<Trend, 'rates' | 'intervals'> & { outliers: number; used: number } {
+export function fitTrendSamples(
+  points: TrendSample[],
+  outlierThreshold = 3.5,
+): Pick<Trend, 'rates' | 'intervals'> & { outliers: number; used: number } {
   if (points.length < 3) return { rates: null, intervals: null, outliers: 0, used: points.length };
   const t0 = points[0]!.epochMs;
   const xDays = Float64Array.from(points, (p) => (p.epochMs - t0) / 86_400_000);
@@ -136,7 +164,9 @@ export function fitTrendSamples(points: TrendSample[], outlierThreshold = 3.5): 
     const y = screenY[k]!;
     const resid = Float64Array.from(y, (v, i) => v - (fit.intercept + fit.slope * xDays[i]!));
     const z = modifiedZ(resid);
-    points.forEach((p, i) => { p.outlierScore = Math.max(p.outlierScore, z[i]!); });
+    points.forEach((p, i) => {
+      p.outlierScore = Math.max(p.outlierScore, z[i]!);
+    });
   });
   for (const p of points) p.outlier = p.outlierScore > threshold;
   const good = points.filter((p) => !p.outlier);
@@ -144,7 +174,10 @@ export function fitTrendSamples(points: TrendSample[], outlierThreshold = 3.5): 
   if (good.length < 2) return { rates: null, intervals: null, ...tally };
   const gx = Float64Array.from(good, (p) => (p.epochMs - t0) / 86_400_000);
   const rateKeys = ['apogeeAltitudeKm', 'perigeeAltitudeKm', 'semiMajorAxisKm', 'specificEnergyJPerKg'] as const;
-  const [apo, peri, sma, energy] = theilSenMany(gx, rateKeys.map((key) => Float64Array.from(good, (p) => p[key])));
+  const [apo, peri, sma, energy] = theilSenMany(
+    gx,
+    rateKeys.map((key) => Float64Array.from(good, (p) => p[key])),
+  );
   if (!apo || !peri || !sma || !energy) return { rates: null, intervals: null, ...tally };
   const aMedianKm = median(Float64Array.from(good, (p) => p.semiMajorAxisKm));
   const mu = MU_WGS72_KM3_PER_S2 * 1e9;
@@ -152,12 +185,17 @@ export function fitTrendSamples(points: TrendSample[], outlierThreshold = 3.5): 
   return {
     ...tally,
     rates: {
-      apogeeKmPerDay: apo.slope, perigeeKmPerDay: peri.slope, semiMajorAxisKmPerDay: sma.slope,
-      energyJPerKgPerDay: energy.slope, alongTrackAccelMPerS2: accel(energy.slope),
+      apogeeKmPerDay: apo.slope,
+      perigeeKmPerDay: peri.slope,
+      semiMajorAxisKmPerDay: sma.slope,
+      energyJPerKgPerDay: energy.slope,
+      alongTrackAccelMPerS2: accel(energy.slope),
     },
     intervals: {
-      apogeeKmPerDay: [apo.slopeLow, apo.slopeHigh], perigeeKmPerDay: [peri.slopeLow, peri.slopeHigh],
-      semiMajorAxisKmPerDay: [sma.slopeLow, sma.slopeHigh], energyJPerKgPerDay: [energy.slopeLow, energy.slopeHigh],
+      apogeeKmPerDay: [apo.slopeLow, apo.slopeHigh],
+      perigeeKmPerDay: [peri.slopeLow, peri.slopeHigh],
+      semiMajorAxisKmPerDay: [sma.slopeLow, sma.slopeHigh],
+      energyJPerKgPerDay: [energy.slopeLow, energy.slopeHigh],
       alongTrackAccelMPerS2: [accel(energy.slopeLow), accel(energy.slopeHigh)],
     },
   };

@@ -4,11 +4,11 @@ export const roles = ['backer', 'outreach', 'engineer', 'finance', 'admin'] as c
 export const roleSchema = z.enum(roles);
 export type Role = z.infer<typeof roleSchema>;
 
-const email = z.email({ message: 'Enter a valid e-mail address' }).max(254).transform((v) => v.trim());
-const password = z
-  .string()
-  .min(10, { message: 'Use at least 10 characters' })
-  .max(200, { message: 'Use at most 200 characters' });
+const email = z
+  .email({ message: 'Enter a valid e-mail address' })
+  .max(254)
+  .transform((v) => v.trim());
+const password = z.string().min(10, { message: 'Use at least 10 characters' }).max(200, { message: 'Use at most 200 characters' });
 
 export const signUpSchema = z.object({
   email,

@@ -44,7 +44,9 @@ export type UpdateCampaignInput = z.infer<typeof updateCampaignSchema>;
 export const tierInputSchema = z.object({
   title: z.string().trim().min(2, 'Give the tier a title').max(80),
   description: z.string().trim().max(2000).default(''),
-  minAmountMinor: minor('The minimum amount').min(PLEDGE_MIN_MINOR, `The minimum amount must be at least ${PLEDGE_MIN_MINOR} minor units`).max(PLEDGE_MAX_MINOR),
+  minAmountMinor: minor('The minimum amount')
+    .min(PLEDGE_MIN_MINOR, `The minimum amount must be at least ${PLEDGE_MIN_MINOR} minor units`)
+    .max(PLEDGE_MAX_MINOR),
   kind: tierKindSchema,
   quantityLimit: z.number().int().min(1, 'A limit must be at least 1').max(1_000_000).nullable().default(null),
   estimatedDelivery: z.iso.date({ message: 'must be a date such as 2027-06-01' }).nullable().default(null),
@@ -66,22 +68,23 @@ export const stretchTargetsSchema = z.object({
 });
 export type StretchTargetsInput = z.infer<typeof stretchTargetsSchema>;
 
-export const createPledgeSchema = z
-  .object({
-    campaignSlug: z.string().trim().min(1).max(80),
-    tierId: z.uuid({ message: 'must be a tier id' }).nullable().default(null),
-    amountMinor: minor('The amount').min(PLEDGE_MIN_MINOR, `The smallest pledge is ${PLEDGE_MIN_MINOR} minor units`).max(PLEDGE_MAX_MINOR, `The largest pledge is ${PLEDGE_MAX_MINOR} minor units`),
-    anonymous: z.boolean().default(false),
-    publicName: z
-      .string()
-      .trim()
-      .max(60, 'Keep the public name to 60 characters')
-      .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
-      .optional(),
-    message: z.string().trim().max(500, 'Keep the message to 500 characters').optional(),
-    /** One key per attempt, made by the client: a repeated submit of the same attempt returns the same pledge. */
-    attemptKey: z.uuid({ message: 'must be a UUID made for this attempt' }),
-  });
+export const createPledgeSchema = z.object({
+  campaignSlug: z.string().trim().min(1).max(80),
+  tierId: z.uuid({ message: 'must be a tier id' }).nullable().default(null),
+  amountMinor: minor('The amount')
+    .min(PLEDGE_MIN_MINOR, `The smallest pledge is ${PLEDGE_MIN_MINOR} minor units`)
+    .max(PLEDGE_MAX_MINOR, `The largest pledge is ${PLEDGE_MAX_MINOR} minor units`),
+  anonymous: z.boolean().default(false),
+  publicName: z
+    .string()
+    .trim()
+    .max(60, 'Keep the public name to 60 characters')
+    .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
+    .optional(),
+  message: z.string().trim().max(500, 'Keep the message to 500 characters').optional(),
+  /** One key per attempt, made by the client: a repeated submit of the same attempt returns the same pledge. */
+  attemptKey: z.uuid({ message: 'must be a UUID made for this attempt' }),
+});
 export type CreatePledgeInput = z.infer<typeof createPledgeSchema>;
 
 export const emailPreferencesSchema = z.object({

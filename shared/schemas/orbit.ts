@@ -6,9 +6,14 @@ export const sailModes = ['raising', 'edge-on', 'tumbling', 'unknown'] as const;
 export const sailModeSchema = z.enum(sailModes);
 
 const isoDateTime = z.iso.datetime({ offset: true, message: 'must be a date and time such as 2025-03-01T00:00:00Z' });
-const optionalDate = z.union([z.iso.date({ message: 'must be a date such as 2025-03-01' }), z.literal(''), z.null()]).optional()
+const optionalDate = z
+  .union([z.iso.date({ message: 'must be a date such as 2025-03-01' }), z.literal(''), z.null()])
+  .optional()
   .transform((v) => (v ? v : null));
-const optionalDateTime = z.union([isoDateTime, z.literal(''), z.null()]).optional().transform((v) => (v ? v : null));
+const optionalDateTime = z
+  .union([isoDateTime, z.literal(''), z.null()])
+  .optional()
+  .transform((v) => (v ? v : null));
 
 export const spacecraftInputSchema = z.object({
   name: z.string().trim().min(1, { message: 'Give the craft a name' }).max(80),
@@ -48,7 +53,16 @@ export const sailingPeriodInputSchema = z
   .refine((p) => Date.parse(p.endAt) > Date.parse(p.startAt), { message: 'must be after the start', path: ['endAt'] });
 export type SailingPeriodInput = z.output<typeof sailingPeriodInputSchema>;
 
-export const historySortKeys = ['epoch', 'elementSetNo', 'semiMajorAxisKm', 'eccentricity', 'inclinationDeg', 'apogeeAltitudeKm', 'perigeeAltitudeKm', 'bstar'] as const;
+export const historySortKeys = [
+  'epoch',
+  'elementSetNo',
+  'semiMajorAxisKm',
+  'eccentricity',
+  'inclinationDeg',
+  'apogeeAltitudeKm',
+  'perigeeAltitudeKm',
+  'bstar',
+] as const;
 
 export const historyQuerySchema = z.object({
   page: z.coerce.number().int().min(1).default(1),
@@ -75,19 +89,20 @@ export const snapshotAnnotationSchema = z.object({
   text: z.string().trim().min(1).max(200),
 });
 
-export const createSnapshotSchema = z.object({
-  spacecraftId: z.uuid(),
-  title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
-  caption: z.string().trim().max(1000).default(''),
-  fromMs: z.number().finite(),
-  toMs: z.number().finite(),
-  series: z.array(snapshotSeriesSchema).min(1, { message: 'pick at least one series' }).max(5),
-  /** The window of the rate lines; defaults to the chart's window. */
-  rateFromMs: z.number().finite().optional(),
-  rateToMs: z.number().finite().optional(),
-  annotations: z.array(snapshotAnnotationSchema).max(20).default([]),
-  isPublic: z.boolean().default(false),
-})
+export const createSnapshotSchema = z
+  .object({
+    spacecraftId: z.uuid(),
+    title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
+    caption: z.string().trim().max(1000).default(''),
+    fromMs: z.number().finite(),
+    toMs: z.number().finite(),
+    series: z.array(snapshotSeriesSchema).min(1, { message: 'pick at least one series' }).max(5),
+    /** The window of the rate lines; defaults to the chart's window. */
+    rateFromMs: z.number().finite().optional(),
+    rateToMs: z.number().finite().optional(),
+    annotations: z.array(snapshotAnnotationSchema).max(20).default([]),
+    isPublic: z.boolean().default(false),
+  })
   .refine((s) => s.toMs > s.fromMs, { message: 'must be after the start', path: ['toMs'] })
   .refine((s) => new Set(s.series.map((k) => (k === 'semiMajorAxis' ? 'a' : k === 'energy' ? 'e' : 'h'))).size <= 2, {
     message: 'pick series of at most two kinds (altitudes, semi-major axis, energy): a chart has two axes',

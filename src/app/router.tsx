@@ -53,10 +53,7 @@ export const routes: RouteObject[] = [
       {
         path: '/console',
         Component: ConsoleLayout,
-        children: withinLayout([
-          { index: true, lazy: () => import('./routes/console/overview') },
-          ...consoleSections.map(sectionRoute),
-        ]),
+        children: withinLayout([{ index: true, lazy: () => import('./routes/console/overview') }, ...consoleSections.map(sectionRoute)]),
       },
     ],
   },

@@ -97,13 +97,7 @@ async function toApiError(response: Response): Promise<ApiError> {
   });
 }
 
-async function send<T>(
-  method: Method,
-  path: string,
-  body?: unknown,
-  options: RequestOptions = {},
-  csrf?: string,
-): Promise<T> {
+async function send<T>(method: Method, path: string, body?: unknown, options: RequestOptions = {}, csrf?: string): Promise<T> {
   const headers: Record<string, string> = { accept: 'application/json' };
   if (body !== undefined) headers['content-type'] = 'application/json';
   if (csrf) headers[CSRF_HEADER] = csrf;

@@ -22,8 +22,7 @@ export function createQueryClient(hooks: QueryClientHooks = {}): QueryClient {
       queries: {
         staleTime: 30_000,
         // Client errors will not change on retry; network and server errors may.
-        retry: (failureCount, error) =>
-          error instanceof ApiError && error.status >= 400 && error.status < 500 ? false : failureCount < 2,
+        retry: (failureCount, error) => (error instanceof ApiError && error.status >= 400 && error.status < 500 ? false : failureCount < 2),
       },
       mutations: { retry: false },
     },

@@ -16,7 +16,11 @@ afterAll(async () => t.close());
 describe('people: roles and the audit log', () => {
   it('grants and revokes a role, and records each change with before and after', async () => {
     const backerId = ids['backer@saltmarsh.example']!;
-    const granted = await admin.post(`/api/admin/accounts/${backerId}/roles`).set('x-csrf-token', admin.csrf).send({ role: 'outreach' }).expect(200);
+    const granted = await admin
+      .post(`/api/admin/accounts/${backerId}/roles`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ role: 'outreach' })
+      .expect(200);
     expect(granted.body.account.roles).toEqual(['backer', 'outreach']);
 
     const backer = agentFor(t.app);
@@ -30,7 +34,12 @@ describe('people: roles and the audit log', () => {
 
     const audit = await admin.get('/api/admin/audit').expect(200);
     const [last, prev] = audit.body.entries;
-    expect(last).toMatchObject({ action: 'role.revoked', subjectId: backerId, before: { roles: ['backer', 'outreach'] }, after: { roles: ['backer'] } });
+    expect(last).toMatchObject({
+      action: 'role.revoked',
+      subjectId: backerId,
+      before: { roles: ['backer', 'outreach'] },
+      after: { roles: ['backer'] },
+    });
     expect(last.actor.email).toBe('admin@saltmarsh.example');
     expect(prev).toMatchObject({ action: 'role.granted', after: { roles: ['backer', 'outreach'] } });
   });
@@ -54,7 +63,10 @@ describe('people: roles and the audit log', () => {
     const bad = await admin.post(`/api/admin/accounts/not-a-uuid/roles`).set('x-csrf-token', admin.csrf).send({ role: 'captain' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['id', 'role']);
-    const missing = await admin.post(`/api/admin/accounts/00000000-0000-4000-8000-000000000000/roles`).set('x-csrf-token', admin.csrf).send({ role: 'finance' });
+    const missing = await admin
+      .post(`/api/admin/accounts/00000000-0000-4000-8000-000000000000/roles`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ role: 'finance' });
     expect(missing.status).toBe(404);
   });
 

@@ -56,8 +56,14 @@ describe('sign-up and sign-in', () => {
   it('answers a wrong password and an unknown e-mail with the same 401 message', async () => {
     const a = agentFor(t.app);
     await a.token();
-    const wrong = await a.post('/api/auth/sign-in').set('x-csrf-token', a.csrf).send({ email: 'engineer@saltmarsh.example', password: 'not the password' });
-    const unknown = await a.post('/api/auth/sign-in').set('x-csrf-token', a.csrf).send({ email: 'nobody@saltmarsh.example', password: 'not the password' });
+    const wrong = await a
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', a.csrf)
+      .send({ email: 'engineer@saltmarsh.example', password: 'not the password' });
+    const unknown = await a
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', a.csrf)
+      .send({ email: 'nobody@saltmarsh.example', password: 'not the password' });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body.error.message).toBe(unknown.body.error.message);
@@ -68,7 +74,11 @@ describe('sign-up and sign-in', () => {
     const agent = agentFor(t.app);
     const pre = await agent.get('/api/auth/csrf');
     const before = /lk\.sid=([^;]+)/.exec(String(pre.headers['set-cookie']))?.[1];
-    await agent.post('/api/auth/sign-in').set('x-csrf-token', pre.body.csrfToken).send({ email: 'admin@saltmarsh.example', password: DEMO_PASSWORD }).expect(200)
+    await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', pre.body.csrfToken)
+      .send({ email: 'admin@saltmarsh.example', password: DEMO_PASSWORD })
+      .expect(200)
       .then((res) => {
         const after = /lk\.sid=([^;]+)/.exec(String(res.headers['set-cookie']))?.[1];
         expect(after).toBeTruthy();
@@ -97,7 +107,10 @@ describe('sign-up and sign-in', () => {
     const res = await agent.post('/api/auth/sign-in').send({ email: 'admin@saltmarsh.example', password: DEMO_PASSWORD });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('csrf.invalid');
-    const forged = await agent.post('/api/auth/sign-in').set('x-csrf-token', 'forged-token').send({ email: 'admin@saltmarsh.example', password: DEMO_PASSWORD });
+    const forged = await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', 'forged-token')
+      .send({ email: 'admin@saltmarsh.example', password: DEMO_PASSWORD });
     expect(forged.status).toBe(403);
   });
 
@@ -108,13 +121,19 @@ describe('sign-up and sign-in', () => {
     const statuses: number[] = [];
     let last;
     for (let i = 0; i < 5; i++) {
-      last = await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email: 'TERN@example.org', password: `wrong guess ${i}` });
+      last = await agent
+        .post('/api/auth/sign-in')
+        .set('x-csrf-token', agent.csrf)
+        .send({ email: 'TERN@example.org', password: `wrong guess ${i}` });
       statuses.push(last.status);
     }
     expect(statuses).toEqual([401, 401, 401, 429, 429]);
     expect(Number(last!.headers['retry-after'])).toBeGreaterThan(0);
     // Even the right password waits out the window.
-    const right = await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email: 'tern@example.org', password: 'a good long password' });
+    const right = await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', agent.csrf)
+      .send({ email: 'tern@example.org', password: 'a good long password' });
     expect(right.status).toBe(429);
   });
 });
@@ -125,13 +144,23 @@ describe('password reset through the mail fake', () => {
     const agent = agentFor(t.app);
     await agent.token();
     await agent.post('/api/auth/request-password-reset').set('x-csrf-token', agent.csrf).send({ email: 'godwit@example.org' }).expect(202);
-    const mail = t.mail.messages().filter((m) => [m.to].flat().includes('godwit@example.org')).find((m) => /reset/i.test(m.subject));
+    const mail = t.mail
+      .messages()
+      .filter((m) => [m.to].flat().includes('godwit@example.org'))
+      .find((m) => /reset/i.test(m.subject));
     expect(mail).toBeTruthy();
     const token = /reset-password\?token=([\w-]+)/.exec(String(mail!.text ?? mail!.html))?.[1];
     expect(token).toBeTruthy();
-    await agent.post('/api/auth/reset-password').set('x-csrf-token', agent.csrf).send({ token, password: 'second password here' }).expect(204);
+    await agent
+      .post('/api/auth/reset-password')
+      .set('x-csrf-token', agent.csrf)
+      .send({ token, password: 'second password here' })
+      .expect(204);
     await signIn(agentFor(t.app), 'godwit@example.org', 'second password here');
-    const reused = await agent.post('/api/auth/reset-password').set('x-csrf-token', agent.csrf).send({ token, password: 'third password here' });
+    const reused = await agent
+      .post('/api/auth/reset-password')
+      .set('x-csrf-token', agent.csrf)
+      .send({ token, password: 'third password here' });
     expect(reused.status).toBe(400);
     expect(reused.body.error.code).toBe('auth.token_invalid');
   });
@@ -144,7 +173,10 @@ describe('password reset through the mail fake', () => {
     const mail = t.mail.messages().find((m) => [m.to].flat().includes('knot@example.org') && /reset/i.test(m.subject));
     const token = /reset-password\?token=([\w-]+)/.exec(String(mail!.html))?.[1];
     await t.database.db.execute(sql`update auth_tokens set expires_at = now() - interval '1 minute' where purpose = 'reset-password'`);
-    const res = await agent.post('/api/auth/reset-password').set('x-csrf-token', agent.csrf).send({ token, password: 'second password here' });
+    const res = await agent
+      .post('/api/auth/reset-password')
+      .set('x-csrf-token', agent.csrf)
+      .send({ token, password: 'second password here' });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('auth.token_invalid');
   });
@@ -188,8 +220,13 @@ describe('Continue with Google (local identity provider)', () => {
     await googleRoundTrip(agent);
     const me = await agent.get('/api/auth/me').expect(200);
     expect(me.body.account.roles).toContain('engineer');
-    const { rows } = await t.database.db.execute(sql`select provider, subject from identities i join accounts a on a.id = i.account_id where a.email = 'engineer@saltmarsh.example' order by provider`);
-    expect(rows).toEqual([{ provider: 'google', subject: 'g-2002' }, { provider: 'password', subject: null }]);
+    const { rows } = await t.database.db.execute(
+      sql`select provider, subject from identities i join accounts a on a.id = i.account_id where a.email = 'engineer@saltmarsh.example' order by provider`,
+    );
+    expect(rows).toEqual([
+      { provider: 'google', subject: 'g-2002' },
+      { provider: 'password', subject: null },
+    ]);
   });
 
   it('refuses a profile whose e-mail is not verified', async () => {

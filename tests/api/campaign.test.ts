@@ -47,10 +47,42 @@ async function paidPledgeRow(amountMinor: number, opts: { backer?: string | null
     })
     .returning();
   const ch = `ch_test_${crypto.randomUUID().slice(0, 8)}`;
-  await db.insert(ledgerEntries).values({ kind: 'charge', amountMinor, currency: 'USD', campaignId: world.campaign.id, pledgeId: p!.id, processorObjectId: ch, processorChargeId: ch, occurredAt: new Date() });
-  await db.insert(ledgerEntries).values({ kind: 'fee', amountMinor: -30, currency: 'USD', campaignId: world.campaign.id, pledgeId: p!.id, processorObjectId: `txn_${ch}`, occurredAt: new Date() });
+  await db
+    .insert(ledgerEntries)
+    .values({
+      kind: 'charge',
+      amountMinor,
+      currency: 'USD',
+      campaignId: world.campaign.id,
+      pledgeId: p!.id,
+      processorObjectId: ch,
+      processorChargeId: ch,
+      occurredAt: new Date(),
+    });
+  await db
+    .insert(ledgerEntries)
+    .values({
+      kind: 'fee',
+      amountMinor: -30,
+      currency: 'USD',
+      campaignId: world.campaign.id,
+      pledgeId: p!.id,
+      processorObjectId: `txn_${ch}`,
+      occurredAt: new Date(),
+    });
   if (opts.refundMinor) {
-    await db.insert(ledgerEntries).values({ kind: 'refund', amountMinor: -opts.refundMinor, currency: 'USD', campaignId: world.campaign.id, pledgeId: p!.id, processorObjectId: `re_${ch}`, processorChargeId: ch, occurredAt: new Date() });
+    await db
+      .insert(ledgerEntries)
+      .values({
+        kind: 'refund',
+        amountMinor: -opts.refundMinor,
+        currency: 'USD',
+        campaignId: world.campaign.id,
+        pledgeId: p!.id,
+        processorObjectId: `re_${ch}`,
+        processorChargeId: ch,
+        occurredAt: new Date(),
+      });
   }
   return p!;
 }
@@ -117,23 +149,57 @@ describe('staff edit the campaign', () => {
   });
 
   it('refuses a goal in fractions, an end before the start and a currency change after pledges, saying which field', async () => {
-    const base = { title: 'Tern-1', goalMinor: 5_000_000, currency: 'USD', startsAt: '2027-01-01T00:00:00Z', endsAt: '2027-03-01T00:00:00Z' };
-    const fraction = await outreach.patch('/api/campaigns/tern-1').set('x-csrf-token', outreach.csrf).send({ ...base, goalMinor: 48_000.5 }).expect(400);
+    const base = {
+      title: 'Tern-1',
+      goalMinor: 5_000_000,
+      currency: 'USD',
+      startsAt: '2027-01-01T00:00:00Z',
+      endsAt: '2027-03-01T00:00:00Z',
+    };
+    const fraction = await outreach
+      .patch('/api/campaigns/tern-1')
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...base, goalMinor: 48_000.5 })
+      .expect(400);
     expect(fraction.body.error.details.map((d: { path: string }) => d.path)).toEqual(['goalMinor']);
-    const backwards = await outreach.patch('/api/campaigns/tern-1').set('x-csrf-token', outreach.csrf).send({ ...base, endsAt: '2026-12-01T00:00:00Z' }).expect(400);
+    const backwards = await outreach
+      .patch('/api/campaigns/tern-1')
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...base, endsAt: '2026-12-01T00:00:00Z' })
+      .expect(400);
     expect(backwards.body.error.details.map((d: { path: string }) => d.path)).toEqual(['endsAt']);
-    const currency = await outreach.patch('/api/campaigns/tern-1').set('x-csrf-token', outreach.csrf).send({ ...base, currency: 'EUR' }).expect(409);
+    const currency = await outreach
+      .patch('/api/campaigns/tern-1')
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...base, currency: 'EUR' })
+      .expect(409);
     expect(currency.body.error.code).toBe('campaigns.currency_locked');
   });
 
   it('adds and edits tiers; a limit cannot go below the slots already taken', async () => {
-    const tier = { title: 'Ground station tour', description: 'Visit the dish.', minAmountMinor: 50_000, kind: 'one-time', quantityLimit: 10, estimatedDelivery: '2027-09-01', position: 4 };
+    const tier = {
+      title: 'Ground station tour',
+      description: 'Visit the dish.',
+      minAmountMinor: 50_000,
+      kind: 'one-time',
+      quantityLimit: 10,
+      estimatedDelivery: '2027-09-01',
+      position: 4,
+    };
     const created = await outreach.post('/api/campaigns/tern-1/tiers').set('x-csrf-token', outreach.csrf).send(tier).expect(201);
     expect(created.body.tier).toMatchObject({ title: 'Ground station tour', remaining: 10, estimatedDelivery: '2027-09-01' });
     await t.database.db.update(tiers).set({ soldCount: 3 }).where(eq(tiers.id, created.body.tier.id));
-    const below = await outreach.patch(`/api/campaigns/tern-1/tiers/${created.body.tier.id}`).set('x-csrf-token', outreach.csrf).send({ ...tier, quantityLimit: 2 }).expect(400);
+    const below = await outreach
+      .patch(`/api/campaigns/tern-1/tiers/${created.body.tier.id}`)
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...tier, quantityLimit: 2 })
+      .expect(400);
     expect(below.body.error.code).toBe('campaigns.tier_limit_below_sold');
-    const hidden = await outreach.patch(`/api/campaigns/tern-1/tiers/${created.body.tier.id}`).set('x-csrf-token', outreach.csrf).send({ ...tier, active: false }).expect(200);
+    const hidden = await outreach
+      .patch(`/api/campaigns/tern-1/tiers/${created.body.tier.id}`)
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...tier, active: false })
+      .expect(200);
     expect(hidden.body.tier.active).toBe(false);
     const publicView = (await agentFor(t.app).get('/api/campaigns/tern-1').expect(200)).body.campaign;
     expect(publicView.tiers.map((x: { title: string }) => x.title)).not.toContain('Ground station tour');
@@ -145,7 +211,12 @@ describe('staff edit the campaign', () => {
     const res = await outreach
       .put('/api/campaigns/tern-1/stretch-targets')
       .set('x-csrf-token', outreach.csrf)
-      .send({ targets: [{ amountMinor: 100_000, title: 'Telemetry upgrade' }, { amountMinor: 9_000_000, title: 'Second sail' }] })
+      .send({
+        targets: [
+          { amountMinor: 100_000, title: 'Telemetry upgrade' },
+          { amountMinor: 9_000_000, title: 'Second sail' },
+        ],
+      })
       .expect(200);
     expect(res.body.campaign.stretchTargets.map((s: { title: string; reached: boolean }) => [s.title, s.reached])).toEqual([
       ['Telemetry upgrade', true],
@@ -156,7 +227,10 @@ describe('staff edit the campaign', () => {
 
 describe('pledge input', () => {
   const pledge = (body: Record<string, unknown>) =>
-    backer.post('/api/pledges').set('x-csrf-token', backer.csrf).send({ campaignSlug: 'tern-1', attemptKey: crypto.randomUUID(), ...body });
+    backer
+      .post('/api/pledges')
+      .set('x-csrf-token', backer.csrf)
+      .send({ campaignSlug: 'tern-1', attemptKey: crypto.randomUUID(), ...body });
 
   it('refuses amounts below the tier, outside the bounds or in fractions, naming the field', async () => {
     const pledgesBefore = await t.database.db.$count(pledges);
@@ -170,13 +244,19 @@ describe('pledge input', () => {
     expect(fraction.body.error.details[0].path).toBe('amountMinor');
     const foreignTier = await pledge({ tierId: '00000000-0000-4000-8000-000000000000', amountMinor: 5000 }).expect(400);
     expect(foreignTier.body.error.code).toBe('pledges.tier_unknown');
-    const noKey = await backer.post('/api/pledges').set('x-csrf-token', backer.csrf).send({ campaignSlug: 'tern-1', amountMinor: 5000 }).expect(400);
+    const noKey = await backer
+      .post('/api/pledges')
+      .set('x-csrf-token', backer.csrf)
+      .send({ campaignSlug: 'tern-1', amountMinor: 5000 })
+      .expect(400);
     expect(noKey.body.error.details[0].path).toBe('attemptKey');
     expect(await t.database.db.$count(pledges)).toBe(pledgesBefore);
   });
 
   it('refuses pledges to a campaign that has ended', async () => {
-    await t.database.db.execute(sql`UPDATE campaigns SET starts_at = now() - interval '60 days', ends_at = now() - interval '1 day' WHERE slug = 'tern-1'`);
+    await t.database.db.execute(
+      sql`UPDATE campaigns SET starts_at = now() - interval '60 days', ends_at = now() - interval '1 day' WHERE slug = 'tern-1'`,
+    );
     const res = await pledge({ amountMinor: 5000 }).expect(409);
     expect(res.body.error.code).toBe('pledges.campaign_ended');
     const view = (await agentFor(t.app).get('/api/campaigns/tern-1').expect(200)).body.campaign;

@@ -24,7 +24,13 @@ describe('HTTP basics', () => {
 
   it('reports 503 when the database does not answer', async () => {
     const pool = new pg.Pool({ connectionString: 'postgres://postgres@127.0.0.1:1/none', connectionTimeoutMillis: 500 });
-    const app = createApp({ db: drizzle(pool, { schema }), pool, config: t.config, mailer: { send: async () => ({ id: 'x' }) }, stripe: createStripeFromConfig(t.config) });
+    const app = createApp({
+      db: drizzle(pool, { schema }),
+      pool,
+      config: t.config,
+      mailer: { send: async () => ({ id: 'x' }) },
+      stripe: createStripeFromConfig(t.config),
+    });
     const res = await request(app).get('/api/health');
     expect(res.status).toBe(503);
     expect(res.body.db).toBe('unreachable');
@@ -34,10 +40,17 @@ describe('HTTP basics', () => {
   it('answers bad JSON with 400, an oversized body with 413 and an unknown API route with a JSON 404', async () => {
     const agent = agentFor(t.app);
     await agent.token();
-    const bad = await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).set('content-type', 'application/json').send('{"email": ');
+    const bad = await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', agent.csrf)
+      .set('content-type', 'application/json')
+      .send('{"email": ');
     expect(bad.status).toBe(400);
     expect(bad.body.error.code).toBe('request.bad_json');
-    const big = await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email: 'a@b.cd', password: 'x'.repeat(5000) });
+    const big = await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', agent.csrf)
+      .send({ email: 'a@b.cd', password: 'x'.repeat(5000) });
     expect(big.status).toBe(413);
     const missing = await request(t.app).get('/api/no-such-thing').expect(404);
     expect(missing.body.error.code).toBe('not_found');

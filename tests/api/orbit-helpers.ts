@@ -43,9 +43,15 @@ export function upload(agent: Agent, spacecraftId: string, content: string | Buf
 }
 
 export type UploadBody = {
-  id: string; status: string; counts: { records: number; new: number; duplicate: number; invalid: number };
-  importedCount: number | null; errors: { line: number; message: string; field?: string }[]; message: string | null;
-  existingFile: { id: string } | null; fileId: string | null; progress: { processed: number; total: number };
+  id: string;
+  status: string;
+  counts: { records: number; new: number; duplicate: number; invalid: number };
+  importedCount: number | null;
+  errors: { line: number; message: string; field?: string }[];
+  message: string | null;
+  existingFile: { id: string } | null;
+  fileId: string | null;
+  progress: { processed: number; total: number };
 };
 
 /** Polls the job like the browser does, until it leaves `parsing`/`importing` (bounded). */
@@ -74,10 +80,23 @@ export async function importUpload(agent: Agent, jobId: string) {
 /** A Tern-1 set at `day` days after 1 Jan 2026, element-set number `no`. */
 export function tern1Set(day: number, no: number, over: Partial<TleWriteInput> = {}): TleWriteInput {
   return {
-    catalogNumber: TERN1.catalogNumber, catalogNumberInt: TERN1.catalogNumberInt, classification: 'U', internationalDesignator: TERN1.internationalDesignator,
-    epochMs: Date.UTC(2026, 0, 1) + day * 86_400_000, meanMotionRevPerDay: 14.3266 - day * 1e-5, meanMotionDotRevPerDay2: 2.5e-6,
-    meanMotionDdotRevPerDay3: 0, bstar: 2.1e-3, inclinationDeg: 98.52, raanDeg: (40 + day) % 360, eccentricity: 0.0002,
-    argPerigeeDeg: 90, meanAnomalyDeg: 270, elementSetNo: no, revAtEpoch: 12000 + Math.round(day * 14.3), ...over,
+    catalogNumber: TERN1.catalogNumber,
+    catalogNumberInt: TERN1.catalogNumberInt,
+    classification: 'U',
+    internationalDesignator: TERN1.internationalDesignator,
+    epochMs: Date.UTC(2026, 0, 1) + day * 86_400_000,
+    meanMotionRevPerDay: 14.3266 - day * 1e-5,
+    meanMotionDotRevPerDay2: 2.5e-6,
+    meanMotionDdotRevPerDay3: 0,
+    bstar: 2.1e-3,
+    inclinationDeg: 98.52,
+    raanDeg: (40 + day) % 360,
+    eccentricity: 0.0002,
+    argPerigeeDeg: 90,
+    meanAnomalyDeg: 270,
+    elementSetNo: no,
+    revAtEpoch: 12000 + Math.round(day * 14.3),
+    ...over,
   };
 }
 

@@ -17,7 +17,9 @@ const badChecksum = (line: string) => line.slice(0, 68) + String((Number(line[68
 
 describe('uploading element-set files', () => {
   it('previews a valid file without storing anything, then imports every set and links it to the kept file', async () => {
-    const text = ['TERN-1', ...tleLines([tern1Set(0, 1)]), 'TERN-1', ...tleLines([tern1Set(0.4, 2)]), ...tleLines([tern1Set(0.8, 3)])].join('\n') + '\n';
+    const text =
+      ['TERN-1', ...tleLines([tern1Set(0, 1)]), 'TERN-1', ...tleLines([tern1Set(0.4, 2)]), ...tleLines([tern1Set(0.8, 3)])].join('\n') +
+      '\n';
     const preview = await uploadAndPreview(engineer, craftId, text, 'valid.tle');
     expect(preview.status).toBe('previewed');
     expect(preview.counts).toEqual({ records: 3, new: 3, duplicate: 0, invalid: 0 });
@@ -35,7 +37,9 @@ describe('uploading element-set files', () => {
     expect(files[0].filename).toBe('valid.tle');
     const { rows: who } = await t.database.pool.query("select id from accounts where email = 'engineer@saltmarsh.example'");
     expect(files[0].uploaded_by).toBe(who[0].id);
-    const { rows: sets } = await t.database.pool.query('select file_id, element_set_no, source_line from element_sets order by element_set_no');
+    const { rows: sets } = await t.database.pool.query(
+      'select file_id, element_set_no, source_line from element_sets order by element_set_no',
+    );
     expect(sets.map((s) => s.element_set_no)).toEqual([1, 2, 3]);
     expect(sets.every((s) => s.file_id === files[0].id)).toBe(true);
     expect(sets.map((s) => s.source_line)).toEqual([1, 4, 7]);
@@ -58,7 +62,9 @@ describe('uploading element-set files', () => {
     expect(await countRows(t, 'element_sets')).toBe(before);
     const done = await importUpload(engineer, preview.id);
     expect(done.importedCount).toBe(2);
-    const { rows } = await t.database.pool.query('select element_set_no from element_sets where element_set_no between 10 and 12 order by 1');
+    const { rows } = await t.database.pool.query(
+      'select element_set_no from element_sets where element_set_no between 10 and 12 order by 1',
+    );
     expect(rows.map((r) => r.element_set_no)).toEqual([10, 12]);
   });
 
@@ -153,7 +159,10 @@ describe('uploading element-set files', () => {
     const other = agentFor(t.app);
     await signIn(other, 'admin@saltmarsh.example', DEMO_PASSWORD);
     const before = await countRows(t, 'element_sets');
-    const [a, b] = await Promise.all([uploadAndPreview(engineer, craftId, text, 'same.tle'), uploadAndPreview(other, craftId, text, 'same.tle')]);
+    const [a, b] = await Promise.all([
+      uploadAndPreview(engineer, craftId, text, 'same.tle'),
+      uploadAndPreview(other, craftId, text, 'same.tle'),
+    ]);
     expect(a.counts.new).toBe(400);
     expect(b.counts.new).toBe(400);
     const [ia, ib] = await Promise.all([importUpload(engineer, a.id), importUpload(other, b.id)]);
@@ -161,7 +170,9 @@ describe('uploading element-set files', () => {
     expect(ib.status).toBe('imported');
     expect(ia.importedCount! + ib.importedCount!).toBe(400);
     expect(await countRows(t, 'element_sets')).toBe(before + 400);
-    const { rows } = await t.database.pool.query('select count(*)::int as n from element_set_files where content_sha256 = $1', [createHash('sha256').update(text).digest('hex')]);
+    const { rows } = await t.database.pool.query('select count(*)::int as n from element_set_files where content_sha256 = $1', [
+      createHash('sha256').update(text).digest('hex'),
+    ]);
     expect(rows[0].n).toBe(1);
   });
 

@@ -16,20 +16,34 @@ beforeAll(async () => {
   const preview = await uploadAndPreview(engineer, craftId, formatTleFile(history.sets), 'tern-1.tle');
   await importUpload(engineer, preview.id);
   for (const p of history.periods) {
-    await engineer.post(`/api/orbit/spacecraft/${craftId}/sailing-periods`).set('x-csrf-token', engineer.csrf)
-      .send({ startAt: new Date(p.startMs).toISOString(), endAt: new Date(p.endMs).toISOString(), mode: p.mode, note: 'from the log' }).expect(201);
+    await engineer
+      .post(`/api/orbit/spacecraft/${craftId}/sailing-periods`)
+      .set('x-csrf-token', engineer.csrf)
+      .send({ startAt: new Date(p.startMs).toISOString(), endAt: new Date(p.endMs).toISOString(), mode: p.mode, note: 'from the log' })
+      .expect(201);
   }
 }, 60_000);
 afterAll(async () => t.close());
 
-const fromMs = TERN1.startMs + 40 * DAY, toMs = TERN1.startMs + 110 * DAY;
+const fromMs = TERN1.startMs + 40 * DAY,
+  toMs = TERN1.startMs + 110 * DAY;
 
 async function createSnapshot(over: Record<string, unknown> = {}) {
-  const res = await engineer.post('/api/orbit/snapshots').set('x-csrf-token', engineer.csrf).send({
-    spacecraftId: craftId, title: 'First raising period', caption: 'Apogee up, perigee down.', fromMs, toMs,
-    rateFromMs: TERN1.startMs + 60 * DAY, rateToMs: TERN1.startMs + 90 * DAY, series: ['apogee', 'perigee'],
-    annotations: [{ atMs: TERN1.startMs + 58 * DAY, text: 'Sail turned to raise' }], ...over,
-  });
+  const res = await engineer
+    .post('/api/orbit/snapshots')
+    .set('x-csrf-token', engineer.csrf)
+    .send({
+      spacecraftId: craftId,
+      title: 'First raising period',
+      caption: 'Apogee up, perigee down.',
+      fromMs,
+      toMs,
+      rateFromMs: TERN1.startMs + 60 * DAY,
+      rateToMs: TERN1.startMs + 90 * DAY,
+      series: ['apogee', 'perigee'],
+      annotations: [{ atMs: TERN1.startMs + 58 * DAY, text: 'Sail turned to raise' }],
+      ...over,
+    });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   return res.body.snapshot;
 }
@@ -48,19 +62,25 @@ describe('chart snapshots', () => {
     expect(data.rateLines.apogee.slopePerDay).toBeGreaterThan(0);
     expect(data.annotations[0].text).toBe('Sail turned to raise');
     // The frozen data does not move when the history changes later.
-    await engineer.post(`/api/orbit/spacecraft/${craftId}/sailing-periods`).set('x-csrf-token', engineer.csrf)
-      .send({ startAt: new Date(fromMs).toISOString(), endAt: new Date(fromMs + DAY).toISOString(), mode: 'tumbling' }).expect(201);
+    await engineer
+      .post(`/api/orbit/spacecraft/${craftId}/sailing-periods`)
+      .set('x-csrf-token', engineer.csrf)
+      .send({ startAt: new Date(fromMs).toISOString(), endAt: new Date(fromMs + DAY).toISOString(), mode: 'tumbling' })
+      .expect(201);
     const again = await engineer.get(`/api/orbit/snapshots/${s.id}`).expect(200);
     expect(again.body.snapshot.data.sailingPeriods).toEqual(data.sailingPeriods);
   });
 
   it('renders as SVG holding each series and as a PNG', async () => {
     const s = await createSnapshot();
-    const svg = await engineer.get(`/api/orbit/snapshots/${s.id}/chart.svg`).buffer(true).parse((res, cb) => {
-      let body = '';
-      res.on('data', (c: Buffer) => (body += c.toString()));
-      res.on('end', () => cb(null, body));
-    });
+    const svg = await engineer
+      .get(`/api/orbit/snapshots/${s.id}/chart.svg`)
+      .buffer(true)
+      .parse((res, cb) => {
+        let body = '';
+        res.on('data', (c: Buffer) => (body += c.toString()));
+        res.on('end', () => cb(null, body));
+      });
     expect(svg.status).toBe(200);
     expect(svg.headers['content-type']).toMatch(/image\/svg\+xml/);
     const text = svg.body as string;
@@ -71,11 +91,14 @@ describe('chart snapshots', () => {
     expect(text).toContain('First raising period');
     expect(text).toContain('Sail turned to raise');
     expect(text).toMatch(/\+\d+\.\d+ km\/day/);
-    const png = await engineer.get(`/api/orbit/snapshots/${s.id}/chart.png`).buffer(true).parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const png = await engineer
+      .get(`/api/orbit/snapshots/${s.id}/chart.png`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(png.status).toBe(200);
     const bytes = png.body as Buffer;
     expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
@@ -87,7 +110,10 @@ describe('chart snapshots', () => {
     const s = await createSnapshot();
     const anon = request(t.app);
     expect((await anon.get(`/api/public/snapshots/${s.slug}`)).status).toBe(404);
-    const pub = await engineer.patch(`/api/orbit/snapshots/${s.id}`).set('x-csrf-token', engineer.csrf).send({ isPublic: true, title: 'Renamed' });
+    const pub = await engineer
+      .patch(`/api/orbit/snapshots/${s.id}`)
+      .set('x-csrf-token', engineer.csrf)
+      .send({ isPublic: true, title: 'Renamed' });
     expect(pub.status).toBe(200);
     expect(pub.body.snapshot.slug).toBe(s.slug);
     const open = await anon.get(`/api/public/snapshots/${s.slug}`).expect(200);
@@ -113,11 +139,15 @@ describe('chart snapshots', () => {
   });
 
   it('refuses a snapshot with three kinds of series, or an empty window', async () => {
-    const three = await engineer.post('/api/orbit/snapshots').set('x-csrf-token', engineer.csrf)
+    const three = await engineer
+      .post('/api/orbit/snapshots')
+      .set('x-csrf-token', engineer.csrf)
       .send({ spacecraftId: craftId, title: 'x', fromMs, toMs, series: ['apogee', 'semiMajorAxis', 'energy'] });
     expect(three.status).toBe(400);
     expect(three.body.error.details[0].path).toBe('series');
-    const empty = await engineer.post('/api/orbit/snapshots').set('x-csrf-token', engineer.csrf)
+    const empty = await engineer
+      .post('/api/orbit/snapshots')
+      .set('x-csrf-token', engineer.csrf)
       .send({ spacecraftId: craftId, title: 'x', fromMs: toMs, toMs: fromMs, series: ['apogee'] });
     expect(empty.status).toBe(400);
   });
@@ -126,33 +156,61 @@ describe('chart snapshots', () => {
 describe('the sailing-period log', () => {
   it('records, changes and removes periods, refusing an end before the start', async () => {
     const base = `/api/orbit/spacecraft/${craftId}/sailing-periods`;
-    const created = await engineer.post(base).set('x-csrf-token', engineer.csrf)
+    const created = await engineer
+      .post(base)
+      .set('x-csrf-token', engineer.csrf)
       .send({ startAt: '2026-02-01T00:00:00Z', endAt: '2026-02-10T00:00:00Z', mode: 'raising', note: 'test' });
     expect(created.status).toBe(201);
     const id = created.body.sailingPeriod.id;
-    const bad = await engineer.put(`/api/orbit/sailing-periods/${id}`).set('x-csrf-token', engineer.csrf)
+    const bad = await engineer
+      .put(`/api/orbit/sailing-periods/${id}`)
+      .set('x-csrf-token', engineer.csrf)
       .send({ startAt: '2026-02-10T00:00:00Z', endAt: '2026-02-01T00:00:00Z', mode: 'raising' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.details[0].path).toBe('endAt');
-    const changed = await engineer.put(`/api/orbit/sailing-periods/${id}`).set('x-csrf-token', engineer.csrf)
+    const changed = await engineer
+      .put(`/api/orbit/sailing-periods/${id}`)
+      .set('x-csrf-token', engineer.csrf)
       .send({ startAt: '2026-02-01T00:00:00Z', endAt: '2026-02-12T00:00:00Z', mode: 'edge-on', note: 'feathered' });
     expect(changed.body.sailingPeriod).toMatchObject({ mode: 'edge-on', note: 'feathered', endAt: '2026-02-12T00:00:00.000Z' });
     expect((await engineer.delete(`/api/orbit/sailing-periods/${id}`).set('x-csrf-token', engineer.csrf)).status).toBe(204);
     expect((await engineer.delete(`/api/orbit/sailing-periods/${id}`).set('x-csrf-token', engineer.csrf)).status).toBe(404);
-    const { rows } = await t.database.pool.query("select action from audit_log where subject_id = $1 order by id", [id]);
+    const { rows } = await t.database.pool.query('select action from audit_log where subject_id = $1 order by id', [id]);
     expect(rows.map((r) => r.action)).toEqual(['sailing_period.created', 'sailing_period.updated', 'sailing_period.deleted']);
   });
 });
 
 describe('spacecraft records', () => {
   it('validates the record and keeps catalog numbers unique', async () => {
-    const bad = await engineer.post('/api/orbit/spacecraft').set('x-csrf-token', engineer.csrf)
-      .send({ name: '', slug: 'Bad Slug', catalogNumber: 'x', massKg: -1, sailAreaM2: 1, sailReflectivity: 2, dragCoefficient: 2.2, dragAreaEdgeOnM2: 1 });
+    const bad = await engineer
+      .post('/api/orbit/spacecraft')
+      .set('x-csrf-token', engineer.csrf)
+      .send({
+        name: '',
+        slug: 'Bad Slug',
+        catalogNumber: 'x',
+        massKg: -1,
+        sailAreaM2: 1,
+        sailReflectivity: 2,
+        dragCoefficient: 2.2,
+        dragAreaEdgeOnM2: 1,
+      });
     expect(bad.status).toBe(400);
     const paths = bad.body.error.details.map((d: { path: string }) => d.path);
     expect(paths).toEqual(expect.arrayContaining(['name', 'slug', 'catalogNumber', 'massKg', 'sailReflectivity']));
-    const dup = await engineer.post('/api/orbit/spacecraft').set('x-csrf-token', engineer.csrf)
-      .send({ name: 'Copy', slug: 'copy', catalogNumber: TERN1.catalogNumber, massKg: 1, sailAreaM2: 1, sailReflectivity: 0.5, dragCoefficient: 2.2, dragAreaEdgeOnM2: 1 });
+    const dup = await engineer
+      .post('/api/orbit/spacecraft')
+      .set('x-csrf-token', engineer.csrf)
+      .send({
+        name: 'Copy',
+        slug: 'copy',
+        catalogNumber: TERN1.catalogNumber,
+        massKg: 1,
+        sailAreaM2: 1,
+        sailReflectivity: 0.5,
+        dragCoefficient: 2.2,
+        dragAreaEdgeOnM2: 1,
+      });
     expect(dup.status).toBe(409);
     expect(dup.body.error.code).toBe('orbit.spacecraft_catalog_taken');
   });

@@ -36,12 +36,21 @@ const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e
 
 describe('the trend endpoint', () => {
   it('gives the same rates as the orbit engine on the same sets, for a chosen window', async () => {
-    const fromMs = TERN1.startMs + 210 * DAY, toMs = TERN1.startMs + 250 * DAY;
-    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ from: new Date(fromMs).toISOString(), to: new Date(toMs).toISOString() });
+    const fromMs = TERN1.startMs + 210 * DAY,
+      toMs = TERN1.startMs + 250 * DAY;
+    const res = await engineer
+      .get(`/api/orbit/spacecraft/${craftId}/trend`)
+      .query({ from: new Date(fromMs).toISOString(), to: new Date(toMs).toISOString() });
     expect(res.status).toBe(200);
     const engine = computeTrend(parsed, { fromMs, toMs, catalogNumber: TERN1.catalogNumber });
     expect(engine.rates).not.toBeNull();
-    for (const k of ['apogeeKmPerDay', 'perigeeKmPerDay', 'semiMajorAxisKmPerDay', 'energyJPerKgPerDay', 'alongTrackAccelMPerS2'] as const) {
+    for (const k of [
+      'apogeeKmPerDay',
+      'perigeeKmPerDay',
+      'semiMajorAxisKmPerDay',
+      'energyJPerKgPerDay',
+      'alongTrackAccelMPerS2',
+    ] as const) {
       expect(rel(res.body.rates[k], engine.rates![k]), k).toBeLessThan(1e-12);
     }
     expect(res.body.counts.used).toBe(engine.counts.used);
@@ -84,7 +93,12 @@ describe('the sail-yield panel', () => {
     const trend = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
     const s = trend.body.series;
     const outliers = new Set<number>(s.outlier);
-    const points = s.epochMs.map((ms: number, i: number) => ({ epochMs: ms, specificEnergyJPerKg: s.energyJPerKg[i], semiMajorAxisKm: s.semiMajorAxisKm[i], outlier: outliers.has(i) }));
+    const points = s.epochMs.map((ms: number, i: number) => ({
+      epochMs: ms,
+      specificEnergyJPerKg: s.energyJPerKg[i],
+      semiMajorAxisKm: s.semiMajorAxisKm[i],
+      outlier: outliers.has(i),
+    }));
     const engine = compareSailingPeriods(points, history.periods);
     expect(rel(res.body.comparison.sailYieldMPerS2, engine.sailYieldMPerS2!)).toBeLessThan(1e-12);
     expect(res.body.comparison.sailYieldMPerS2).toBeGreaterThan(0);
@@ -101,10 +115,19 @@ describe('the sail-yield panel', () => {
 
 describe('the history table', () => {
   it('pages, sorts and filters by date on the server', async () => {
-    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(), to = new Date(TERN1.startMs + 110 * DAY).toISOString();
-    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/element-sets`).query({ from, to, sort: 'apogeeAltitudeKm', dir: 'asc', pageSize: 7, page: 2 }).expect(200);
+    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(),
+      to = new Date(TERN1.startMs + 110 * DAY).toISOString();
+    const res = await engineer
+      .get(`/api/orbit/spacecraft/${craftId}/element-sets`)
+      .query({ from, to, sort: 'apogeeAltitudeKm', dir: 'asc', pageSize: 7, page: 2 })
+      .expect(200);
     const inRange = parsed
-      .filter((p, i, all) => p.epochMs >= Date.parse(from) && p.epochMs <= Date.parse(to) && all.findIndex((q) => q.epochMs === p.epochMs && q.elementSetNo === p.elementSetNo) === i)
+      .filter(
+        (p, i, all) =>
+          p.epochMs >= Date.parse(from) &&
+          p.epochMs <= Date.parse(to) &&
+          all.findIndex((q) => q.epochMs === p.epochMs && q.elementSetNo === p.elementSetNo) === i,
+      )
       .map((p) => deriveElementSet(p).apogeeAltitudeKm)
       .sort((a, b) => a - b);
     expect(res.body.total).toBe(inRange.length);
@@ -115,8 +138,12 @@ describe('the history table', () => {
   });
 
   it('exports the filtered history as CSV', async () => {
-    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(), to = new Date(TERN1.startMs + 101 * DAY).toISOString();
-    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/element-sets.csv`).query({ from, to, sort: 'epoch', dir: 'asc' }).expect(200);
+    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(),
+      to = new Date(TERN1.startMs + 101 * DAY).toISOString();
+    const res = await engineer
+      .get(`/api/orbit/spacecraft/${craftId}/element-sets.csv`)
+      .query({ from, to, sort: 'epoch', dir: 'asc' })
+      .expect(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     const lines = res.text.trim().split('\r\n');
     expect(lines[0]).toMatch(/^epoch_utc,element_set_no,semi_major_axis_km/);

@@ -100,7 +100,14 @@ export async function insertCampaign(t: TestApp, slug = 'tern-1') {
     .insert(tiers)
     .values([
       { campaignId: campaign!.id, title: 'Mission patch', minAmountMinor: 2500, kind: 'one-time' as const, position: 1 },
-      { campaignId: campaign!.id, title: 'Sail fragment', minAmountMinor: 25_000, kind: 'one-time' as const, quantityLimit: 1, position: 2 },
+      {
+        campaignId: campaign!.id,
+        title: 'Sail fragment',
+        minAmountMinor: 25_000,
+        kind: 'one-time' as const,
+        quantityLimit: 1,
+        position: 2,
+      },
       { campaignId: campaign!.id, title: 'Crew membership', minAmountMinor: 800, kind: 'monthly' as const, position: 3 },
     ])
     .returning();
@@ -169,9 +176,7 @@ export async function accountId(w: World, email: string) {
 
 /** The events the fake recorded for an object, oldest first (as the fake's state holds them). */
 export function eventsFor(w: World, objectId: string, types?: string[]) {
-  return w.fake
-    .state()
-    .collections.event.filter((e) => e.data?.object?.id === objectId && (!types || types.includes(e.type)));
+  return w.fake.state().collections.event.filter((e) => e.data?.object?.id === objectId && (!types || types.includes(e.type)));
 }
 
 /** POSTs an event to the app ourselves, signed with the endpoint secret (or a forged one). */

@@ -1,5 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CARDS, createWorld, ledgerOf, payOnHostedPage, pledgeRow, settle, signedInAgent, startPledge, type World } from './pledges-fixtures';
+import {
+  CARDS,
+  createWorld,
+  ledgerOf,
+  payOnHostedPage,
+  pledgeRow,
+  settle,
+  signedInAgent,
+  startPledge,
+  type World,
+} from './pledges-fixtures';
 import type { Agent } from '../setup/test-app';
 
 let w: World;
@@ -16,7 +26,13 @@ async function subscribe(agent: Agent, amountMinor = 800) {
   const paid = await payOnHostedPage(res.body.checkoutUrl, CARDS.ok);
   expect(paid.status).toBe(303);
   await settle(w);
-  const memberships = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships as { id: string; pledgeId: string; status: string; currentPeriodEnd: string; cancelAtPeriodEnd: boolean }[];
+  const memberships = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships as {
+    id: string;
+    pledgeId: string;
+    status: string;
+    currentPeriodEnd: string;
+    cancelAtPeriodEnd: boolean;
+  }[];
   const membership = memberships.find((m) => m.pledgeId === res.body.pledge.id)!;
   return { pledgeId: res.body.pledge.id as string, membership };
 }
@@ -45,7 +61,9 @@ describe('crew memberships (monthly tiers)', () => {
     const charges = (await ledgerOf(w, pledgeId)).filter((l) => l.kind === 'charge');
     expect(charges.map((c) => c.amountMinor)).toEqual([1200, 1200]);
     expect(new Set(charges.map((c) => c.processorInvoiceId)).size).toBe(2);
-    const after = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find((m: { id: string }) => m.id === membership.id);
+    const after = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find(
+      (m: { id: string }) => m.id === membership.id,
+    );
     expect(Date.parse(after.currentPeriodEnd)).toBeGreaterThan(Date.parse(membership.currentPeriodEnd));
     const view = (await agent.get(`/api/pledges/${pledgeId}`).expect(200)).body.pledge;
     expect(view.paidMinor).toBe(2400);
@@ -56,7 +74,8 @@ describe('crew memberships (monthly tiers)', () => {
     const { pledgeId, membership } = await subscribe(agent);
     const row = await pledgeRow(w, pledgeId);
     w.fake.customers.failRenewals(row.processorCustomerId!, true, 'insufficient_funds');
-    const renewalMails = () => w.t.mail.messages().filter((m) => [m.to].flat().includes('finance@saltmarsh.example') && /could not be renewed/.test(m.subject));
+    const renewalMails = () =>
+      w.t.mail.messages().filter((m) => [m.to].flat().includes('finance@saltmarsh.example') && /could not be renewed/.test(m.subject));
     expect(renewalMails()).toHaveLength(0);
 
     await w.fake.clock.advance(31 * DAY);
@@ -67,7 +86,9 @@ describe('crew memberships (monthly tiers)', () => {
     expect(String(failed[0]!.html)).toContain(`${w.baseUrl}/my-support/memberships/${membership.id}/card`);
     expect(String(failed[0]!.html)).toMatch(/try again on/i);
 
-    const status = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find((m: { id: string }) => m.id === membership.id).status;
+    const status = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find(
+      (m: { id: string }) => m.id === membership.id,
+    ).status;
     expect(status).toBe('past_due');
     expect((await ledgerOf(w, pledgeId)).filter((l) => l.kind === 'charge')).toHaveLength(1);
 
@@ -92,7 +113,9 @@ describe('crew memberships (monthly tiers)', () => {
 
     await w.fake.clock.advance(32 * DAY);
     await settle(w);
-    const after = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find((m: { id: string }) => m.id === membership.id);
+    const after = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find(
+      (m: { id: string }) => m.id === membership.id,
+    );
     expect(after.status).toBe('canceled');
     expect((await ledgerOf(w, pledgeId)).filter((l) => l.kind === 'charge')).toHaveLength(1);
   });

@@ -1,6 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { CARDS, accountId, createWorld, ledgerOf, paidPledge, payOnHostedPage, pledgeRow, settle, startPledge, type World } from './pledges-fixtures';
+import {
+  CARDS,
+  accountId,
+  createWorld,
+  ledgerOf,
+  paidPledge,
+  payOnHostedPage,
+  pledgeRow,
+  settle,
+  startPledge,
+  type World,
+} from './pledges-fixtures';
 import { agentFor, signIn } from '../setup/test-app';
 import { auditLog } from '../../server/modules/audit/audit.tables';
 import { accounts } from '../../server/modules/accounts/accounts.tables';
@@ -16,7 +27,11 @@ afterAll(async () => w?.close());
 async function newBacker(email: string) {
   const agent = agentFor(w.t.app);
   await agent.token();
-  await agent.post('/api/auth/sign-up').set('x-csrf-token', agent.csrf).send({ email, password: 'a long enough password', displayName: 'Petrel Tester' }).expect(201);
+  await agent
+    .post('/api/auth/sign-up')
+    .set('x-csrf-token', agent.csrf)
+    .send({ email, password: 'a long enough password', displayName: 'Petrel Tester' })
+    .expect(201);
   await agent.token();
   return agent;
 }
@@ -26,12 +41,26 @@ describe('my support', () => {
     const { id } = await paidPledge(w, w.backer, { tierId: w.tier.patch.id, amountMinor: 4200, message: 'For the sail' });
     const list = (await w.backer.get('/api/my-support/pledges').expect(200)).body.pledges;
     const mine = list.find((p: { id: string }) => p.id === id);
-    expect(mine).toMatchObject({ state: 'paid', amountMinor: 4200, currency: 'USD', paidMinor: 4200, tier: { title: 'Mission patch' }, message: 'For the sail' });
+    expect(mine).toMatchObject({
+      state: 'paid',
+      amountMinor: 4200,
+      currency: 'USD',
+      paidMinor: 4200,
+      tier: { title: 'Mission patch' },
+      message: 'For the sail',
+    });
     expect(mine.payments).toEqual([expect.objectContaining({ kind: 'charge', amountMinor: 4200 })]);
 
     const entryId = mine.payments[0].id;
     const receipt = (await w.backer.get(`/api/my-support/receipts/${entryId}`).expect(200)).body.receipt;
-    expect(receipt).toMatchObject({ kind: 'charge', amountMinor: 4200, currency: 'USD', campaign: { slug: 'tern-1' }, tier: 'Mission patch', backerName: 'Wren Dunlin' });
+    expect(receipt).toMatchObject({
+      kind: 'charge',
+      amountMinor: 4200,
+      currency: 'USD',
+      campaign: { slug: 'tern-1' },
+      tier: 'Mission patch',
+      backerName: 'Wren Dunlin',
+    });
     expect(receipt.number).toBe(`LK-${String(entryId).padStart(6, '0')}`);
     const fee = (await ledgerOf(w, id)).find((l) => l.kind === 'fee')!;
     await w.backer.get(`/api/my-support/receipts/${fee.id}`).expect(404);
@@ -43,8 +72,16 @@ describe('my support', () => {
 
   it('keeps e-mail choices, and a backer who turned receipts off gets no confirmation', async () => {
     const agent = await newBacker('godwit@example.org');
-    expect((await agent.get('/api/my-support/email-preferences').expect(200)).body.preferences).toEqual({ dispatches: true, receipts: true, membership: true });
-    const put = await agent.put('/api/my-support/email-preferences').set('x-csrf-token', agent.csrf).send({ dispatches: false, receipts: false, membership: true }).expect(200);
+    expect((await agent.get('/api/my-support/email-preferences').expect(200)).body.preferences).toEqual({
+      dispatches: true,
+      receipts: true,
+      membership: true,
+    });
+    const put = await agent
+      .put('/api/my-support/email-preferences')
+      .set('x-csrf-token', agent.csrf)
+      .send({ dispatches: false, receipts: false, membership: true })
+      .expect(200);
     expect(put.body.preferences).toEqual({ dispatches: false, receipts: false, membership: true });
     await agent.put('/api/my-support/email-preferences').set('x-csrf-token', agent.csrf).send({ dispatches: 'no' }).expect(400);
     const { id } = await paidPledge(w, agent, { amountMinor: 1500 });
@@ -65,7 +102,12 @@ describe('my support', () => {
   it('deletes my account: pledges kept but anonymised, membership cancelled, sessions ended, audit entry written', async () => {
     const agent = await newBacker('plover@example.org');
     const id = await accountId(w, 'plover@example.org');
-    const { id: pledgeId } = await paidPledge(w, agent, { tierId: w.tier.patch.id, amountMinor: 3000, publicName: 'Plover', message: 'Go!' });
+    const { id: pledgeId } = await paidPledge(w, agent, {
+      tierId: w.tier.patch.id,
+      amountMinor: 3000,
+      publicName: 'Plover',
+      message: 'Go!',
+    });
     const crew = await startPledge(agent, { tierId: w.tier.crew.id, amountMinor: 800 });
     await payOnHostedPage(crew.body.checkoutUrl, CARDS.ok);
     await settle(w);
@@ -73,7 +115,11 @@ describe('my support', () => {
     await signIn(second, 'plover@example.org', 'a long enough password');
     const raisedBefore = (await w.backer.get('/api/campaigns/tern-1').expect(200)).body.campaign.progress.raisedMinor;
 
-    const wrong = await agent.delete('/api/my-support/account').set('x-csrf-token', agent.csrf).send({ confirmEmail: 'someone@example.org' }).expect(400);
+    const wrong = await agent
+      .delete('/api/my-support/account')
+      .set('x-csrf-token', agent.csrf)
+      .send({ confirmEmail: 'someone@example.org' })
+      .expect(400);
     expect(wrong.body.error.code).toBe('account.confirm_mismatch');
     await agent.delete('/api/my-support/account').set('x-csrf-token', agent.csrf).send({ confirmEmail: 'Plover@example.org' }).expect(204);
 
@@ -96,13 +142,21 @@ describe('my support', () => {
     expect((await w.backer.get('/api/campaigns/tern-1').expect(200)).body.campaign.progress.raisedMinor).toBe(raisedBefore);
     const relogin = agentFor(w.t.app);
     await relogin.token();
-    await relogin.post('/api/auth/sign-in').set('x-csrf-token', relogin.csrf).send({ email: 'plover@example.org', password: 'a long enough password' }).expect(401);
+    await relogin
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', relogin.csrf)
+      .send({ email: 'plover@example.org', password: 'a long enough password' })
+      .expect(401);
   });
 
   it('refuses to delete a staff account from my support', async () => {
     const { signedInAgent } = await import('./pledges-fixtures');
     const admin = await signedInAgent(w, 'admin@saltmarsh.example');
-    const res = await admin.delete('/api/my-support/account').set('x-csrf-token', admin.csrf).send({ confirmEmail: 'admin@saltmarsh.example' }).expect(409);
+    const res = await admin
+      .delete('/api/my-support/account')
+      .set('x-csrf-token', admin.csrf)
+      .send({ confirmEmail: 'admin@saltmarsh.example' })
+      .expect(409);
     expect(res.body.error.code).toBe('account.staff_cannot_delete');
   });
 });

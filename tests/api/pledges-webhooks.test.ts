@@ -73,7 +73,9 @@ describe('webhook signatures', () => {
     const original = JSON.stringify(completed);
     const tampered = original.replace('"amount_total":2600', '"amount_total":1');
     expect(tampered).not.toBe(original);
-    const signedOriginal = await import('../../fakes/payments/webhooks').then((m) => m.signatureHeader(original, 'whsec_test_pledges_0123456789'));
+    const signedOriginal = await import('../../fakes/payments/webhooks').then((m) =>
+      m.signatureHeader(original, 'whsec_test_pledges_0123456789'),
+    );
     const tamperedRes = await fetch(`${w.baseUrl}/api/payments/webhook`, {
       method: 'POST',
       headers: { 'content-type': 'application/json', 'stripe-signature': signedOriginal },
@@ -81,7 +83,11 @@ describe('webhook signatures', () => {
     });
     expect(tamperedRes.status).toBe(400);
 
-    const unsigned = await fetch(`${w.baseUrl}/api/payments/webhook`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: original });
+    const unsigned = await fetch(`${w.baseUrl}/api/payments/webhook`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: original,
+    });
     expect(unsigned.status).toBe(400);
     expect((await unsigned.json()).error.code).toBe('payments.signature_missing');
 
@@ -90,7 +96,9 @@ describe('webhook signatures', () => {
       method: 'POST',
       headers: {
         'content-type': 'application/json',
-        'stripe-signature': await import('../../fakes/payments/webhooks').then((m) => m.signatureHeader(original, 'whsec_test_pledges_0123456789', Math.floor(Date.now() / 1000) - 600)),
+        'stripe-signature': await import('../../fakes/payments/webhooks').then((m) =>
+          m.signatureHeader(original, 'whsec_test_pledges_0123456789', Math.floor(Date.now() / 1000) - 600),
+        ),
       },
       body: original,
     });
@@ -155,7 +163,11 @@ describe('events out of order', () => {
     const res = await startPledge(w.backer, { tierId: w.tier.crew.id, amountMinor: 800 });
     expect(res.status).toBe(201);
     expect((await payOnHostedPage(res.body.checkoutUrl, CARDS.ok)).status).toBe(303);
-    const invoicePaid = w.fake.state().collections.event.find((e) => e.type === 'invoice.paid' && e.data.object.parent?.subscription_details?.metadata?.pledge_id === res.body.pledge.id)!;
+    const invoicePaid = w.fake
+      .state()
+      .collections.event.find(
+        (e) => e.type === 'invoice.paid' && e.data.object.parent?.subscription_details?.metadata?.pledge_id === res.body.pledge.id,
+      )!;
     const piId = invoicePaid.data.object.payments.data[0].payment.payment_intent as string;
     const refund = await w.stripe.refunds.create({ payment_intent: piId });
     w.fake.faults.set({ dropWebhooks: false });

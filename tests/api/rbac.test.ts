@@ -21,10 +21,18 @@ afterAll(async () => t.close());
 
 describe('RBAC matrix', () => {
   it('lists every route the app serves, and nothing it does not serve', () => {
-    const served = routesOf(t.app).map((r) => `${r.method} ${r.path}`).sort();
+    const served = routesOf(t.app)
+      .map((r) => `${r.method} ${r.path}`)
+      .sort();
     const listed = rbacTable.map((r) => r.route).sort();
-    expect(served.filter((r) => !listed.includes(r)), 'routes missing from the RBAC table').toEqual([]);
-    expect(listed.filter((r) => !served.includes(r)), 'table rows for routes that do not exist').toEqual([]);
+    expect(
+      served.filter((r) => !listed.includes(r)),
+      'routes missing from the RBAC table',
+    ).toEqual([]);
+    expect(
+      listed.filter((r) => !served.includes(r)),
+      'table rows for routes that do not exist',
+    ).toEqual([]);
   });
 
   for (const row of rbacTable) {

@@ -42,7 +42,13 @@ export const benchmarks: Benchmark[] = [
       const url = pgAdminUrl.replace(/\/[^/]*$/, `/${dbName}`);
       const closers: Array<() => Promise<unknown>> = [];
       try {
-        const env = { NODE_ENV: 'production', LOG_LEVEL: 'silent', DATABASE_URL: url, PUBLIC_URL: 'http://127.0.0.1:3999', STRIPE_API_BASE_URL: 'http://127.0.0.1:9' };
+        const env = {
+          NODE_ENV: 'production',
+          LOG_LEVEL: 'silent',
+          DATABASE_URL: url,
+          PUBLIC_URL: 'http://127.0.0.1:3999',
+          STRIPE_API_BASE_URL: 'http://127.0.0.1:9',
+        };
         const { db, pool } = createDb(url, { max: 20 });
         pool.on('error', () => undefined); // the final DROP … WITH (FORCE) ends idle connections
         closers.push(() => pool.end());
@@ -50,10 +56,20 @@ export const benchmarks: Benchmark[] = [
         const accountIds = await seedDemoAccounts(db);
         await campaignSeeder.run({ db, config, log: () => undefined, accountIds });
 
-        const ours = await listen(createApp({ db, pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) }));
+        const ours = await listen(
+          createApp({ db, pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) }),
+        );
         closers.push(() => new Promise((r) => ours.server.close(r)));
         const uncachedConfig = loadConfig({ ...env, CAMPAIGN_CACHE_MS: '0' });
-        const uncached = await listen(createApp({ db, pool, config: uncachedConfig, mailer: createMailerFromConfig(uncachedConfig), stripe: createStripeFromConfig(uncachedConfig) }));
+        const uncached = await listen(
+          createApp({
+            db,
+            pool,
+            config: uncachedConfig,
+            mailer: createMailerFromConfig(uncachedConfig),
+            stripe: createStripeFromConfig(uncachedConfig),
+          }),
+        );
         closers.push(() => new Promise((r) => uncached.server.close(r)));
 
         const barePool = new pg.Pool({ connectionString: url, max: 20 });
@@ -80,7 +96,8 @@ export const benchmarks: Benchmark[] = [
         log(`bare express+pg: ${b.rps.toFixed(0)} req/s (p99 ${b.p99} ms, ${b.errors} errors)`);
         log(`lightkeel (3 s cache): ${o.rps.toFixed(0)} req/s (p99 ${o.p99} ms, ${o.errors} errors)`);
         log(`lightkeel (no cache): ${n.rps.toFixed(0)} req/s (p99 ${n.p99} ms, ${n.errors} errors)`);
-        if (o.errors + b.errors + n.errors > 0) throw new Error(`errors under load: ours ${o.errors}, uncached ${n.errors}, bare ${b.errors}`);
+        if (o.errors + b.errors + n.errors > 0)
+          throw new Error(`errors under load: ours ${o.errors}, uncached ${n.errors}, bare ${b.errors}`);
         return {
           ratio: o.rps / b.rps,
           detail: `${CONNECTIONS} conns × ${DURATION_S} s: ours ${o.rps.toFixed(0)} rps vs bare ${b.rps.toFixed(0)} rps; without the read cache ${n.rps.toFixed(0)} rps (${(n.rps / b.rps).toFixed(2)}×); 0 errors`,

@@ -23,10 +23,22 @@ function sets(count: number, catalog: number): TleWriteInput[] {
   for (let i = 0; i < count; i++) {
     const day = i * 0.01;
     out.push({
-      catalogNumber: String(catalog).padStart(5, '0'), catalogNumberInt: catalog, classification: 'U', internationalDesignator: '25061C',
-      epochMs: Date.UTC(2020, 0, 1) + day * DAY_MS, meanMotionRevPerDay: 14.3266 - day * 2e-6 + 1e-6 * Math.sin(i), meanMotionDotRevPerDay2: 2.5e-6,
-      meanMotionDdotRevPerDay3: 0, bstar: 2.1e-3, inclinationDeg: 98.52, raanDeg: (40 + day) % 360, eccentricity: 0.0002 + 1e-5 * Math.sin(i / 50),
-      argPerigeeDeg: (90 + i) % 360, meanAnomalyDeg: (270 + 7 * i) % 360, elementSetNo: (i % 999) + 1, revAtEpoch: (12000 + Math.round(day * 14.3)) % 100000,
+      catalogNumber: String(catalog).padStart(5, '0'),
+      catalogNumberInt: catalog,
+      classification: 'U',
+      internationalDesignator: '25061C',
+      epochMs: Date.UTC(2020, 0, 1) + day * DAY_MS,
+      meanMotionRevPerDay: 14.3266 - day * 2e-6 + 1e-6 * Math.sin(i),
+      meanMotionDotRevPerDay2: 2.5e-6,
+      meanMotionDdotRevPerDay3: 0,
+      bstar: 2.1e-3,
+      inclinationDeg: 98.52,
+      raanDeg: (40 + day) % 360,
+      eccentricity: 0.0002 + 1e-5 * Math.sin(i / 50),
+      argPerigeeDeg: (90 + i) % 360,
+      meanAnomalyDeg: (270 + 7 * i) % 360,
+      elementSetNo: (i % 999) + 1,
+      revAtEpoch: (12000 + Math.round(day * 14.3)) % 100000,
     });
   }
   return out;
@@ -41,7 +53,9 @@ async function freshDatabase(ctx: BenchContext) {
   const url = ctx.pgAdminUrl.replace(/\/[^/]*$/, `/${name}`);
   const { db, pool } = createDb(url);
   return {
-    db, pool, url,
+    db,
+    pool,
+    url,
     drop: async () => {
       await pool.end();
       const c = new pg.Client({ connectionString: ctx.pgAdminUrl });
@@ -53,20 +67,42 @@ async function freshDatabase(ctx: BenchContext) {
 }
 
 async function appOn(d: Awaited<ReturnType<typeof freshDatabase>>) {
-  const config = loadConfig({ NODE_ENV: 'test', LOG_LEVEL: 'silent', DATABASE_URL: d.url, SESSION_SECRET: 'bench-session-secret-0123456789', UPLOAD_LIMIT_BYTES: String(64 * 1024 * 1024), SIGN_IN_LIMIT_PER_IP: '1000' });
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'silent',
+    DATABASE_URL: d.url,
+    SESSION_SECRET: 'bench-session-secret-0123456789',
+    UPLOAD_LIMIT_BYTES: String(64 * 1024 * 1024),
+    SIGN_IN_LIMIT_PER_IP: '1000',
+  });
   const app = createApp({ db: d.db, pool: d.pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) });
   await seedDemoAccounts(d.db);
   const agent = request.agent(app);
   let csrf = (await agent.get('/api/auth/csrf')).body.csrfToken as string;
-  await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email: 'engineer@saltmarsh.example', password: DEMO_PASSWORD }).expect(200);
+  await agent
+    .post('/api/auth/sign-in')
+    .set('x-csrf-token', csrf)
+    .send({ email: 'engineer@saltmarsh.example', password: DEMO_PASSWORD })
+    .expect(200);
   csrf = (await agent.get('/api/auth/csrf')).body.csrfToken as string;
   return { agent, csrf };
 }
 
 async function createCraft(agent: request.Agent, csrf: string, catalog: number) {
-  const res = await agent.post('/api/orbit/spacecraft').set('x-csrf-token', csrf).send({
-    name: `Bench ${catalog}`, slug: `bench-${catalog}`, catalogNumber: String(catalog), massKg: 4.8, sailAreaM2: 24, sailReflectivity: 0.9, dragCoefficient: 2.2, dragAreaEdgeOnM2: 0.12,
-  }).expect(201);
+  const res = await agent
+    .post('/api/orbit/spacecraft')
+    .set('x-csrf-token', csrf)
+    .send({
+      name: `Bench ${catalog}`,
+      slug: `bench-${catalog}`,
+      catalogNumber: String(catalog),
+      massKg: 4.8,
+      sailAreaM2: 24,
+      sailReflectivity: 0.9,
+      dragCoefficient: 2.2,
+      dragAreaEdgeOnM2: 0.12,
+    })
+    .expect(201);
   return res.body.spacecraft.id as string;
 }
 
@@ -93,25 +129,54 @@ async function bareParseAndCopy(pool: pg.Pool, text: string, spacecraftId: strin
   const lines = text.split('\n');
   const rows: string[] = [];
   for (let i = 0; i + 1 < lines.length; i += 2) {
-    const l1 = lines[i]!, l2 = lines[i + 1]!;
+    const l1 = lines[i]!,
+      l2 = lines[i + 1]!;
     const s = twoline2satrec(l1, l2);
     const a = s.a * EARTH_RADIUS_KM;
     const epochMs = (s.jdsatepoch - 2440587.5) * DAY_MS;
     const iso = new Date(epochMs).toISOString();
     const e = s.ecco;
-    rows.push([
-      spacecraftId, fileId, i + 1, s.satnum, iso, epochMs, Number(l1.slice(64, 68)), 'U', '25061C', s.no * 1440 / (2 * Math.PI), s.ndot, s.nddot, s.bstar,
-      s.inclo, s.nodeo, e, s.argpo, s.mo, Number(l2.slice(63, 68)), l1, l2, a, a * (1 + e) - EARTH_RADIUS_KM, a * (1 - e) - EARTH_RADIUS_KM, a - EARTH_RADIUS_KM,
-      (2 * Math.PI) / s.no, -398600.8e9 / (2 * a * 1e3),
-    ].join('\t'));
+    rows.push(
+      [
+        spacecraftId,
+        fileId,
+        i + 1,
+        s.satnum,
+        iso,
+        epochMs,
+        Number(l1.slice(64, 68)),
+        'U',
+        '25061C',
+        (s.no * 1440) / (2 * Math.PI),
+        s.ndot,
+        s.nddot,
+        s.bstar,
+        s.inclo,
+        s.nodeo,
+        e,
+        s.argpo,
+        s.mo,
+        Number(l2.slice(63, 68)),
+        l1,
+        l2,
+        a,
+        a * (1 + e) - EARTH_RADIUS_KM,
+        a * (1 - e) - EARTH_RADIUS_KM,
+        a - EARTH_RADIUS_KM,
+        (2 * Math.PI) / s.no,
+        -398600.8e9 / (2 * a * 1e3),
+      ].join('\t'),
+    );
   }
   const client = await pool.connect();
   try {
     await client.query('begin');
-    const stream = client.query(copyFrom(`copy element_sets (spacecraft_id, file_id, source_line, catalog_number_int, epoch, epoch_ms, element_set_no, classification,
+    const stream = client.query(
+      copyFrom(`copy element_sets (spacecraft_id, file_id, source_line, catalog_number_int, epoch, epoch_ms, element_set_no, classification,
       international_designator, mean_motion_rev_per_day, mean_motion_dot_rev_per_day2, mean_motion_ddot_rev_per_day3, bstar, inclination_deg, raan_deg,
       eccentricity, arg_perigee_deg, mean_anomaly_deg, rev_at_epoch, line1, line2, semi_major_axis_km, apogee_altitude_km, perigee_altitude_km,
-      mean_altitude_km, period_min, specific_energy_j_per_kg) from stdin`));
+      mean_altitude_km, period_min, specific_energy_j_per_kg) from stdin`),
+    );
     await pipeline(Readable.from([rows.join('\n') + '\n']), stream);
     await client.query('commit');
   } finally {
@@ -126,7 +191,8 @@ const ingest: Benchmark = {
   better: 'lower',
   async run(ctx) {
     const N = 100_000;
-    const ours: number[] = [], bare: number[] = [];
+    const ours: number[] = [],
+      bare: number[] = [];
     for (let rep = 0; rep < 3; rep++) {
       const catalog = 90000 + rep;
       const text = fileOf(sets(N, catalog));
@@ -135,7 +201,11 @@ const ingest: Benchmark = {
         const { agent, csrf } = await appOn(d);
         const craftId = await createCraft(agent, csrf, catalog);
         const t0 = performance.now();
-        const started = await agent.post(`/api/orbit/spacecraft/${craftId}/uploads`).set('x-csrf-token', csrf).attach('file', Buffer.from(text), 'bench.tle').expect(202);
+        const started = await agent
+          .post(`/api/orbit/spacecraft/${craftId}/uploads`)
+          .set('x-csrf-token', csrf)
+          .attach('file', Buffer.from(text), 'bench.tle')
+          .expect(202);
         const preview = await settle(agent, started.body.upload.id);
         if (preview.counts.new !== N) throw new Error(`preview found ${preview.counts.new} new sets`);
         await agent.post(`/api/orbit/uploads/${preview.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
@@ -147,7 +217,9 @@ const ingest: Benchmark = {
         const other = await createCraft(agent, csrf, catalog + 100);
         const { rows } = await d.pool.query(
           `insert into element_set_files (spacecraft_id, content_sha256, filename, format, byte_size, content, record_count, imported_count, duplicate_count, invalid_count)
-           values ($1, 'bench', 'bench.tle', 'tle', 0, '', 0, 0, 0, 0) returning id`, [other]);
+           values ($1, 'bench', 'bench.tle', 'tle', 0, '', 0, 0, 0, 0) returning id`,
+          [other],
+        );
         const t1 = performance.now();
         const copied = await bareParseAndCopy(d.pool, text, other, rows[0].id);
         bare.push(performance.now() - t1);
@@ -156,8 +228,12 @@ const ingest: Benchmark = {
         await d.drop();
       }
     }
-    const o = median(ours), b = median(bare);
-    return { ratio: o / b, detail: `${N.toLocaleString('en-GB')} sets: upload→preview→import ${o.toFixed(0)} ms vs satellite.js parse + COPY ${b.toFixed(0)} ms (median of 3)` };
+    const o = median(ours),
+      b = median(bare);
+    return {
+      ratio: o / b,
+      detail: `${N.toLocaleString('en-GB')} sets: upload→preview→import ${o.toFixed(0)} ms vs satellite.js parse + COPY ${b.toFixed(0)} ms (median of 3)`,
+    };
   },
 };
 
@@ -171,12 +247,18 @@ const trend: Benchmark = {
     try {
       const { agent, csrf } = await appOn(d);
       const craftId = await createCraft(agent, csrf, 91000);
-      const started = await agent.post(`/api/orbit/spacecraft/${craftId}/uploads`).set('x-csrf-token', csrf).attach('file', Buffer.from(fileOf(sets(N, 91000))), 'bench.tle').expect(202);
+      const started = await agent
+        .post(`/api/orbit/spacecraft/${craftId}/uploads`)
+        .set('x-csrf-token', csrf)
+        .attach('file', Buffer.from(fileOf(sets(N, 91000))), 'bench.tle')
+        .expect(202);
       await settle(agent, started.body.upload.id);
       await agent.post(`/api/orbit/uploads/${started.body.upload.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
       const done = await settle(agent, started.body.upload.id);
       if (done.importedCount !== N) throw new Error(`imported ${done.importedCount}`);
-      const ours: number[] = [], cached: number[] = [], bare: number[] = [];
+      const ours: number[] = [],
+        cached: number[] = [],
+        bare: number[] = [];
       const c0 = performance.now();
       const first = await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
       const coldMs = performance.now() - c0;
@@ -185,7 +267,10 @@ const trend: Benchmark = {
       const express = (await import('express')).default;
       const bareApp = express();
       bareApp.get('/rows', async (_req, res) => {
-        const { rows } = await d.pool.query('select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier from element_sets where spacecraft_id = $1 order by epoch_ms, element_set_no', [craftId]);
+        const { rows } = await d.pool.query(
+          'select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier from element_sets where spacecraft_id = $1 order by epoch_ms, element_set_no',
+          [craftId],
+        );
         res.json(rows);
       });
       const bareAgent = request(bareApp);
@@ -194,7 +279,10 @@ const trend: Benchmark = {
       const windowOf = (k: number) => ({ from: new Date(lastMs - 30 * DAY_MS).toISOString(), to: new Date(lastMs + k).toISOString() });
       for (let k = 0; k < 12; k++) {
         const t0 = performance.now();
-        const r = await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).query(windowOf(k + 1)).expect(200);
+        const r = await agent
+          .get(`/api/orbit/spacecraft/${craftId}/trend`)
+          .query(windowOf(k + 1))
+          .expect(200);
         if (k > 1) ours.push(performance.now() - t0);
         if (r.body.series.epochMs.length !== N) throw new Error('trend lost rows');
         if (r.body.rates === null || r.body.counts.inWindow !== first.body.counts.inWindow) throw new Error('trend window differs');
@@ -204,11 +292,19 @@ const trend: Benchmark = {
         if (b.body.length !== N) throw new Error('select lost rows');
         // The same window again: the cached rates.
         const t2 = performance.now();
-        await agent.get(`/api/orbit/spacecraft/${craftId}/trend`).query(windowOf(k + 1)).expect(200);
+        await agent
+          .get(`/api/orbit/spacecraft/${craftId}/trend`)
+          .query(windowOf(k + 1))
+          .expect(200);
         if (k > 1) cached.push(performance.now() - t2);
       }
-      const o = median(ours), b = median(bare), c = median(cached);
-      return { ratio: o / b, detail: `${N.toLocaleString('en-GB')} sets: uncached trend endpoint ${o.toFixed(1)} ms vs bare SELECT as JSON ${b.toFixed(1)} ms (median of 10, a window not seen before each time; cached window ${c.toFixed(1)} ms; first call after the import ${coldMs.toFixed(0)} ms)` };
+      const o = median(ours),
+        b = median(bare),
+        c = median(cached);
+      return {
+        ratio: o / b,
+        detail: `${N.toLocaleString('en-GB')} sets: uncached trend endpoint ${o.toFixed(1)} ms vs bare SELECT as JSON ${b.toFixed(1)} ms (median of 10, a window not seen before each time; cached window ${c.toFixed(1)} ms; first call after the import ${coldMs.toFixed(0)} ms)`,
+      };
     } finally {
       await d.drop();
     }

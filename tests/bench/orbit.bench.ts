@@ -1,6 +1,13 @@
 // Orbit engine benchmarks, each against a bare satellite.js loop over the same inputs in the same run.
 import { eciToGeodetic, gstime, propagate, twoline2satrec } from 'satellite.js';
-import { deriveElementSet, formatTleFile, meanMotionForSemiMajorAxis, parseElementSets, sgp4AltitudeRange, type TleWriteInput } from '../../shared/orbit';
+import {
+  deriveElementSet,
+  formatTleFile,
+  meanMotionForSemiMajorAxis,
+  parseElementSets,
+  sgp4AltitudeRange,
+  type TleWriteInput,
+} from '../../shared/orbit';
 import { median, type Benchmark } from './harness';
 
 /**
@@ -10,7 +17,9 @@ import { median, type Benchmark } from './harness';
 async function interleaved(ours: () => void, bare: () => void, rounds = 7): Promise<{ ratio: number; oursMs: number; bareMs: number }> {
   ours();
   bare();
-  const o: number[] = [], b: number[] = [], r: number[] = [];
+  const o: number[] = [],
+    b: number[] = [],
+    r: number[] = [];
   for (let k = 0; k < rounds; k++) {
     let t = performance.now();
     ours();
@@ -32,11 +41,21 @@ function makeSets(count: number): TleWriteInput[] {
     const e = 0.0005 + (k % 50) * 0.0004;
     const i = 20 + (k % 80);
     out.push({
-      catalogNumber: String(10_000 + (k % 90_000)).padStart(5, '0'), classification: 'U', internationalDesignator: '25001A',
-      epochMs: t0 + k * 600_000, meanMotionRevPerDay: meanMotionForSemiMajorAxis(6378.135 + altitudeKm, e, i),
-      meanMotionDotRevPerDay2: 1e-6 * (k % 7), meanMotionDdotRevPerDay3: 0, bstar: 1e-4 * (1 + (k % 9)),
-      inclinationDeg: i, raanDeg: (k * 7.3) % 360, eccentricity: e, argPerigeeDeg: (k * 13.1) % 360, meanAnomalyDeg: (k * 29.7) % 360,
-      elementSetNo: k % 9999, revAtEpoch: k % 99_999,
+      catalogNumber: String(10_000 + (k % 90_000)).padStart(5, '0'),
+      classification: 'U',
+      internationalDesignator: '25001A',
+      epochMs: t0 + k * 600_000,
+      meanMotionRevPerDay: meanMotionForSemiMajorAxis(6378.135 + altitudeKm, e, i),
+      meanMotionDotRevPerDay2: 1e-6 * (k % 7),
+      meanMotionDdotRevPerDay3: 0,
+      bstar: 1e-4 * (1 + (k % 9)),
+      inclinationDeg: i,
+      raanDeg: (k * 7.3) % 360,
+      eccentricity: e,
+      argPerigeeDeg: (k * 13.1) % 360,
+      meanAnomalyDeg: (k * 29.7) % 360,
+      elementSetNo: k % 9999,
+      revAtEpoch: k % 99_999,
     });
   }
   return out;
@@ -62,7 +81,10 @@ export const benchmarks: Benchmark[] = [
           for (let i = 0; i + 1 < lines.length; i += 2) sink += twoline2satrec(lines[i]!, lines[i + 1]!).a;
         },
       );
-      return { ratio: m.ratio, detail: `parse+derive ${m.oursMs.toFixed(0)} ms vs twoline2satrec ${m.bareMs.toFixed(0)} ms (100k sets, median of 7 interleaved rounds)` };
+      return {
+        ratio: m.ratio,
+        detail: `parse+derive ${m.oursMs.toFixed(0)} ms vs twoline2satrec ${m.bareMs.toFixed(0)} ms (100k sets, median of 7 interleaved rounds)`,
+      };
     },
   },
   {
@@ -72,36 +94,41 @@ export const benchmarks: Benchmark[] = [
     async run() {
       const sets = parseElementSets(formatTleFile(makeSets(5_000))).records;
       const samples = 60;
-      let peakRss = process.memoryUsage().rss, peakHeap = process.memoryUsage().heapUsed;
+      let peakRss = process.memoryUsage().rss,
+        peakHeap = process.memoryUsage().heapUsed;
       const sample = () => {
         const m = process.memoryUsage();
         peakRss = Math.max(peakRss, m.rss);
         peakHeap = Math.max(peakHeap, m.heapUsed);
       };
-      const m = await interleaved(() => {
-        for (let k = 0; k < sets.length; k++) {
-          const r = sgp4AltitudeRange(sets[k]!, { samplesPerRev: samples });
-          if (r.ok) sink += r.minAltitudeKm + r.maxAltitudeKm;
-          if (k % 1000 === 0) sample();
-        }
-      }, () => {
-        for (let k = 0; k < sets.length; k++) {
-          const s = sets[k]!;
-          const sat = twoline2satrec(s.line1, s.line2);
-          const periodMin = (2 * Math.PI) / sat.no;
-          const epochMs = (sat.jdsatepoch - 2440587.5) * 86_400_000;
-          let min = Infinity, max = -Infinity;
-          for (let j = 0; j < samples; j++) {
-            const date = new Date(epochMs + ((j * periodMin) / samples) * 60_000);
-            const pv = propagate(sat, date);
-            if (!pv) break;
-            const h = eciToGeodetic(pv.position, gstime(date)).height;
-            if (h < min) min = h;
-            if (h > max) max = h;
+      const m = await interleaved(
+        () => {
+          for (let k = 0; k < sets.length; k++) {
+            const r = sgp4AltitudeRange(sets[k]!, { samplesPerRev: samples });
+            if (r.ok) sink += r.minAltitudeKm + r.maxAltitudeKm;
+            if (k % 1000 === 0) sample();
           }
-          sink += min + max;
-        }
-      });
+        },
+        () => {
+          for (let k = 0; k < sets.length; k++) {
+            const s = sets[k]!;
+            const sat = twoline2satrec(s.line1, s.line2);
+            const periodMin = (2 * Math.PI) / sat.no;
+            const epochMs = (sat.jdsatepoch - 2440587.5) * 86_400_000;
+            let min = Infinity,
+              max = -Infinity;
+            for (let j = 0; j < samples; j++) {
+              const date = new Date(epochMs + ((j * periodMin) / samples) * 60_000);
+              const pv = propagate(sat, date);
+              if (!pv) break;
+              const h = eciToGeodetic(pv.position, gstime(date)).height;
+              if (h < min) min = h;
+              if (h > max) max = h;
+            }
+            sink += min + max;
+          }
+        },
+      );
       sample();
       return {
         ratio: m.ratio,

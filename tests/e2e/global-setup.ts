@@ -54,7 +54,14 @@ export default async function setup(project: TestProject) {
   const build = spawnSync(path.join('node_modules', '.bin', 'vite'), ['build', '--logLevel', 'error'], { stdio: 'inherit' });
   if (build.status !== 0) throw new Error('vite build failed');
 
-  const app = createApp({ db, pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config), clientDir: defaultClientDir });
+  const app = createApp({
+    db,
+    pool,
+    config,
+    mailer: createMailerFromConfig(config),
+    stripe: createStripeFromConfig(config),
+    clientDir: defaultClientDir,
+  });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(appPort, '127.0.0.1', () => resolve(s));
   });

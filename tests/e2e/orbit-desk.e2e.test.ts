@@ -26,11 +26,13 @@ describe('the orbit desk in the browser', () => {
 
     await page.goto(`${baseUrl}/console/orbit/upload`);
     await page.getByRole('heading', { name: 'Upload element sets' }).waitFor();
-    await page.getByLabel('Element-set file').setInputFiles({ name: 'tern-1-latest.tle', mimeType: 'text/plain', buffer: Buffer.from(fileText) });
+    await page
+      .getByLabel('Element-set file')
+      .setInputFiles({ name: 'tern-1-latest.tle', mimeType: 'text/plain', buffer: Buffer.from(fileText) });
     const preview = page.getByTestId('upload-preview');
     await preview.getByRole('heading', { name: 'Preview of tern-1-latest.tle' }).waitFor();
     const counts = preview.getByTestId('upload-counts');
-    await expect.poll(async () => counts.innerText()).toMatch(new RegExp(`New\\s+${fresh.length - 1}\\b`, "i"));
+    await expect.poll(async () => counts.innerText()).toMatch(new RegExp(`New\\s+${fresh.length - 1}\\b`, 'i'));
     expect(await counts.innerText()).toMatch(/Invalid\s+1\b/i);
     await expect.poll(async () => preview.getByRole('row').nth(1).innerText()).toMatch(new RegExp(`^${damagedLine}`));
     await shot(page, 'orbit-01-upload-preview-desktop');
@@ -71,10 +73,13 @@ describe('the orbit desk in the browser', () => {
     const { page, context, problems } = await newPage(browser, { width: 390, height: 844 });
     await signInAs(page, baseUrl, 'engineer@saltmarsh.example', DEMO_PASSWORD);
     await page.goto(`${baseUrl}/console/orbit`);
-    await page.getByTestId('rates').waitFor().catch(async (e) => {
-      await shot(page, 'orbit-06-trend-phone-failed');
-      throw e;
-    });
+    await page
+      .getByTestId('rates')
+      .waitFor()
+      .catch(async (e) => {
+        await shot(page, 'orbit-06-trend-phone-failed');
+        throw e;
+      });
     await shot(page, 'orbit-06-trend-phone');
     await page.goto(`${baseUrl}/console/orbit/upload`);
     await page.getByRole('heading', { name: 'Upload element sets' }).waitFor();

@@ -79,7 +79,10 @@ describe('pledging in the browser', () => {
     await page.getByRole('button', { name: 'Continue to payment' }).click();
 
     await payOnHostedPage(page, '4000 0000 0000 0002');
-    await page.getByText(/declined/i).first().waitFor();
+    await page
+      .getByText(/declined/i)
+      .first()
+      .waitFor();
     await shot(page, 'pledge-08-hosted-declined-phone');
     await page.getByRole('link', { name: 'Cancel and go back' }).click();
 
@@ -141,12 +144,17 @@ describe('the campaign desk', () => {
     await shot(page, 'pledge-14-campaign-desk-desktop');
     await form.getByRole('button', { name: 'Save tier' }).click();
     await page.getByText('Sail log postcard, signed ·').waitFor();
-    await expect.poll(async () => {
-      await page.goto(`${baseUrl}/campaign`);
-      // count() does not wait: let the campaign render before counting its tier headings.
-      await page.getByRole('heading', { name: 'Reward tiers' }).waitFor();
-      return page.getByRole('heading', { name: 'Sail log postcard, signed' }).count();
-    }, { timeout: 15_000, interval: 1000 }).toBe(1);
+    await expect
+      .poll(
+        async () => {
+          await page.goto(`${baseUrl}/campaign`);
+          // count() does not wait: let the campaign render before counting its tier headings.
+          await page.getByRole('heading', { name: 'Reward tiers' }).waitFor();
+          return page.getByRole('heading', { name: 'Sail log postcard, signed' }).count();
+        },
+        { timeout: 15_000, interval: 1000 },
+      )
+      .toBe(1);
     expect(problems).toEqual([]);
     await context.close();
   });

@@ -49,7 +49,14 @@ describe('each role sees its own navigation', () => {
     const { page, context, problems } = await newPage(browser, { width: 390, height: 844 });
     await page.goto(`${baseUrl}/`);
     await page.getByRole('button', { name: /menu/i }).first().click();
-    await expect.poll(() => page.getByRole('link', { name: /sign in/i }).first().isVisible()).toBe(true);
+    await expect
+      .poll(() =>
+        page
+          .getByRole('link', { name: /sign in/i })
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
     await shot(page, 'home-phone-menu');
     expect(problems).toEqual([]);
     await context.close();

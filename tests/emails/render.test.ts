@@ -60,7 +60,14 @@ describe('e-mail templates', () => {
       expect(r.html).toContain('Wren &lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; Co');
       expect(r.text).toContain(hostile);
       // Apart from the reader's own words, the text part holds no markup from the layout.
-      expect(r.text.split(hostile).join('').split(hostileTitle).join('').replace(/<[^>\s]+@[^>\s]+>/g, '')).not.toMatch(/<\/?[a-z][^>]*>/i);
+      expect(
+        r.text
+          .split(hostile)
+          .join('')
+          .split(hostileTitle)
+          .join('')
+          .replace(/<[^>\s]+@[^>\s]+>/g, ''),
+      ).not.toMatch(/<\/?[a-z][^>]*>/i);
     });
   }
 
@@ -88,12 +95,10 @@ describe('e-mail templates', () => {
   });
 
   it('rejects bad data with the field named, before rendering', async () => {
-    await expect(renderEmail('verify-email', { displayName: 'A', verifyUrl: 'javascript:alert(1)' })).rejects.toThrow(
-      /verifyUrl/,
+    await expect(renderEmail('verify-email', { displayName: 'A', verifyUrl: 'javascript:alert(1)' })).rejects.toThrow(/verifyUrl/);
+    await expect(renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], amountMinor: 12.5 })).rejects.toThrow(
+      /amountMinor/,
     );
-    await expect(
-      renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], amountMinor: 12.5 }),
-    ).rejects.toThrow(/amountMinor/);
     await expect(renderEmail('verify-email', { displayName: 'A\r\nBcc: x', verifyUrl: 'http://127.0.0.1/v' })).rejects.toThrow(
       /displayName/,
     );

@@ -90,7 +90,14 @@ describe('payments fake through the real SDK', () => {
   beforeAll(async () => {
     tmp = mkdtempSync(path.join(os.tmpdir(), 'payments-fake-test-'));
     receiver = await startReceiver();
-    fake = await createPaymentsFake({ port: 0, webhookUrl: receiver.url, webhookSecret: SECRET, apiKey: KEY, statePath: path.join(tmp, 'state.json'), autoPayouts: false });
+    fake = await createPaymentsFake({
+      port: 0,
+      webhookUrl: receiver.url,
+      webhookSecret: SECRET,
+      apiKey: KEY,
+      statePath: path.join(tmp, 'state.json'),
+      autoPayouts: false,
+    });
     stripe = sdk(fake);
   });
 
@@ -132,7 +139,12 @@ describe('payments fake through the real SDK', () => {
   it('creates one-time and monthly prices and lists them by product', async () => {
     const product = await stripe.products.create({ name: 'Sail patch' });
     const once = await stripe.prices.create({ product: product.id, currency: 'usd', unit_amount: 2500 });
-    const monthly = await stripe.prices.create({ product: product.id, currency: 'USD', unit_amount: 700, recurring: { interval: 'month' } });
+    const monthly = await stripe.prices.create({
+      product: product.id,
+      currency: 'USD',
+      unit_amount: 700,
+      recurring: { interval: 'month' },
+    });
     expect(once).toMatchObject({ type: 'one_time', unit_amount: 2500, currency: 'usd', recurring: null });
     expect(monthly).toMatchObject({ type: 'recurring', recurring: { interval: 'month', interval_count: 1 } });
     const again = await stripe.prices.retrieve(monthly.id, { expand: ['product'] });
@@ -148,14 +160,18 @@ describe('payments fake through the real SDK', () => {
     expect(missing).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(missing).toMatchObject({ statusCode: 404, code: 'resource_missing' });
 
-    const bad = await stripe.prices.create({ product_data: { name: 'x' }, unit_amount: 100 } as Stripe.PriceCreateParams).catch((e: unknown) => e);
+    const bad = await stripe.prices
+      .create({ product_data: { name: 'x' }, unit_amount: 100 } as Stripe.PriceCreateParams)
+      .catch((e: unknown) => e);
     expect(bad).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(bad).toMatchObject({ param: 'currency', code: 'parameter_missing' });
 
     const unknownParam = await stripe.customers.create({ colour: 'red' } as Stripe.CustomerCreateParams).catch((e: unknown) => e);
     expect(unknownParam).toMatchObject({ type: 'StripeInvalidRequestError', param: 'colour' });
 
-    const wrongKey = await sdk(fake, 'sk_test_wrong').customers.list().catch((e: unknown) => e);
+    const wrongKey = await sdk(fake, 'sk_test_wrong')
+      .customers.list()
+      .catch((e: unknown) => e);
     expect(wrongKey).toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
 
     const declined = await stripe.paymentIntents
@@ -200,7 +216,9 @@ describe('payments fake through the real SDK', () => {
     expect(submitted.status).toBe(303);
     expect(submitted.location).toBe(`http://127.0.0.1:9/thanks?session=${session.id}`);
 
-    const done = await stripe.checkout.sessions.retrieve(session.id, { expand: ['payment_intent.latest_charge.balance_transaction', 'line_items'] });
+    const done = await stripe.checkout.sessions.retrieve(session.id, {
+      expand: ['payment_intent.latest_charge.balance_transaction', 'line_items'],
+    });
     expect(done).toMatchObject({ status: 'complete', payment_status: 'paid', client_reference_id: 'pledge-42' });
     expect(done.line_items?.data[0]).toMatchObject({ quantity: 2, amount_total: 5000 });
     const pi = done.payment_intent as Stripe.PaymentIntent;
@@ -223,8 +241,12 @@ describe('payments fake through the real SDK', () => {
     const original = receiver.received.find((r) => r.body.includes(completed[0]!.id))!;
     const tampered = original.body.replace('"amount_total": 5000', '"amount_total": 1');
     expect(tampered).not.toBe(original.body);
-    expect(() => stripe.webhooks.constructEvent(tampered, original.signature, SECRET)).toThrow(Stripe.errors.StripeSignatureVerificationError);
-    expect(() => stripe.webhooks.constructEvent(original.body, original.signature, 'whsec_other')).toThrow(Stripe.errors.StripeSignatureVerificationError);
+    expect(() => stripe.webhooks.constructEvent(tampered, original.signature, SECRET)).toThrow(
+      Stripe.errors.StripeSignatureVerificationError,
+    );
+    expect(() => stripe.webhooks.constructEvent(original.body, original.signature, 'whsec_other')).toThrow(
+      Stripe.errors.StripeSignatureVerificationError,
+    );
   });
 
   it('shows a decline on the page, raises payment_intent.payment_failed and lets the backer try again', async () => {
@@ -250,7 +272,10 @@ describe('payments fake through the real SDK', () => {
     expect(open.status).toBe('open');
     await control(fake, 'POST', '/_fake/webhooks/flush');
     const failed = eventsOf('payment_intent.payment_failed', open.payment_intent as string);
-    expect(failed.map((e) => (e.data.object as Stripe.PaymentIntent).last_payment_error?.decline_code)).toEqual(['generic_decline', 'insufficient_funds']);
+    expect(failed.map((e) => (e.data.object as Stripe.PaymentIntent).last_payment_error?.decline_code)).toEqual([
+      'generic_decline',
+      'insufficient_funds',
+    ]);
 
     const retry = await submitCard(session.url!, { card_number: '4242424242424242' });
     expect(retry.status).toBe(303);
@@ -282,7 +307,9 @@ describe('payments fake through the real SDK', () => {
 
     await control(fake, 'POST', '/_fake/webhooks/flush');
     expect(eventsOf('charge.refunded', charge.id).map((e) => (e.data.object as Stripe.Charge).amount_refunded)).toEqual([1000, 5000]);
-    expect(eventsOf('refund.created').map((e) => (e.data.object as Stripe.Refund).id)).toEqual(expect.arrayContaining([partial.id, rest.id]));
+    expect(eventsOf('refund.created').map((e) => (e.data.object as Stripe.Refund).id)).toEqual(
+      expect.arrayContaining([partial.id, rest.id]),
+    );
   });
 
   it('opens a dispute after a payment with the dispute test card', async () => {
@@ -398,8 +425,18 @@ describe('payments fake through the real SDK', () => {
   });
 
   it('creates no subscription on a declined first payment and expires an unused checkout after a day', async () => {
-    const price = await stripe.prices.create({ product_data: { name: 'Crew membership' }, currency: 'usd', unit_amount: 900, recurring: { interval: 'month' } });
-    const session = await stripe.checkout.sessions.create({ mode: 'subscription', line_items: [{ price: price.id, quantity: 1 }], success_url: 'http://127.0.0.1:9/ok', customer_email: 'try@example.test' });
+    const price = await stripe.prices.create({
+      product_data: { name: 'Crew membership' },
+      currency: 'usd',
+      unit_amount: 900,
+      recurring: { interval: 'month' },
+    });
+    const session = await stripe.checkout.sessions.create({
+      mode: 'subscription',
+      line_items: [{ price: price.id, quantity: 1 }],
+      success_url: 'http://127.0.0.1:9/ok',
+      customer_email: 'try@example.test',
+    });
     const declined = await submitCard(session.url!, { card_number: '4000000000000341' });
     expect(declined.status).toBe(402);
     expect((await stripe.checkout.sessions.retrieve(session.id)).subscription).toBeNull();
@@ -410,7 +447,13 @@ describe('payments fake through the real SDK', () => {
     const again = await fetch(session.url!);
     expect(await again.text()).toContain('This checkout is complete.');
 
-    const unused = await stripe.checkout.sessions.create({ mode: 'payment', line_items: [{ price: (await stripe.prices.create({ product_data: { name: 'Patch' }, currency: 'usd', unit_amount: 500 })).id, quantity: 1 }], success_url: 'http://127.0.0.1:9/ok' });
+    const unused = await stripe.checkout.sessions.create({
+      mode: 'payment',
+      line_items: [
+        { price: (await stripe.prices.create({ product_data: { name: 'Patch' }, currency: 'usd', unit_amount: 500 })).id, quantity: 1 },
+      ],
+      success_url: 'http://127.0.0.1:9/ok',
+    });
     await fake.clock.advance(DAY + 1);
     expect(await stripe.checkout.sessions.retrieve(unused.id)).toMatchObject({ status: 'expired', url: null });
     expect((await fetch(`${fake.url}/pay/${unused.id}`)).status).toBe(410);
@@ -455,7 +498,14 @@ describe('payments fake through the real SDK', () => {
     const customer = await stripe.customers.create({ email: 'kept@example.test' }, { idempotencyKey: 'restart-key' });
     const nowBefore = fake.clock.now();
     await fake.close();
-    fake = await createPaymentsFake({ port: 0, webhookUrl: receiver.url, webhookSecret: SECRET, apiKey: KEY, statePath: path.join(tmp, 'state.json'), autoPayouts: false });
+    fake = await createPaymentsFake({
+      port: 0,
+      webhookUrl: receiver.url,
+      webhookSecret: SECRET,
+      apiKey: KEY,
+      statePath: path.join(tmp, 'state.json'),
+      autoPayouts: false,
+    });
     stripe = sdk(fake);
     expect((await stripe.customers.retrieve(customer.id)).id).toBe(customer.id);
     expect(fake.clock.now()).toBeGreaterThanOrEqual(nowBefore);
@@ -470,7 +520,12 @@ describe('payments fake through the real SDK', () => {
 describe('webhook delivery', () => {
   it('retries with backoff after the endpoint answers 500, keeping one object in order', async () => {
     const receiver = await startReceiver();
-    const fake = await createPaymentsFake({ port: 0, webhookUrl: receiver.url, webhookSecret: SECRET, webhookRetryDelaysMs: [50, 100, 200] });
+    const fake = await createPaymentsFake({
+      port: 0,
+      webhookUrl: receiver.url,
+      webhookSecret: SECRET,
+      webhookRetryDelaysMs: [50, 100, 200],
+    });
     try {
       const stripe = sdk(fake);
       receiver.failNextRequests(2);

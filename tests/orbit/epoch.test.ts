@@ -4,9 +4,12 @@ import { dayOfYearToMs, msToDayOfYear, msToIso, parseCcsdsTime } from '../../sha
 
 describe('epoch helpers', () => {
   it('msToIso writes exactly what Date#toISOString writes', () => {
-    fc.assert(fc.property(fc.double({ min: -6e13, max: 2.5e14, noNaN: true }), (ms) => {
-      expect(msToIso(ms)).toBe(new Date(Math.round(ms)).toISOString());
-    }), { numRuns: 5000 });
+    fc.assert(
+      fc.property(fc.double({ min: -6e13, max: 2.5e14, noNaN: true }), (ms) => {
+        expect(msToIso(ms)).toBe(new Date(Math.round(ms)).toISOString());
+      }),
+      { numRuns: 5000 },
+    );
     expect(msToIso(NaN)).toBe('');
   });
   it('day-of-year conversions invert each other (day 1.0 = 1 January 00:00 UTC)', () => {

@@ -61,25 +61,59 @@ const XML = `<?xml version="1.0" encoding="UTF-8"?>
 </ndm>
 `;
 
-const JSON_TEXT = JSON.stringify([{
-  OBJECT_NAME: '00005 TEST', OBJECT_ID: '1958-002B', EPOCH: '2000-06-27T18:50:19.733568', MEAN_MOTION: 10.82419157,
-  ECCENTRICITY: 0.1859667, INCLINATION: 34.2682, RA_OF_ASC_NODE: 348.7242, ARG_OF_PERICENTER: 331.7664, MEAN_ANOMALY: 19.3264,
-  EPHEMERIS_TYPE: 0, CLASSIFICATION_TYPE: 'U', NORAD_CAT_ID: 5, ELEMENT_SET_NO: 475, REV_AT_EPOCH: 41366, BSTAR: 0.000028098,
-  MEAN_MOTION_DOT: 2.3e-7, MEAN_MOTION_DDOT: 0,
-}], null, 2);
+const JSON_TEXT = JSON.stringify(
+  [
+    {
+      OBJECT_NAME: '00005 TEST',
+      OBJECT_ID: '1958-002B',
+      EPOCH: '2000-06-27T18:50:19.733568',
+      MEAN_MOTION: 10.82419157,
+      ECCENTRICITY: 0.1859667,
+      INCLINATION: 34.2682,
+      RA_OF_ASC_NODE: 348.7242,
+      ARG_OF_PERICENTER: 331.7664,
+      MEAN_ANOMALY: 19.3264,
+      EPHEMERIS_TYPE: 0,
+      CLASSIFICATION_TYPE: 'U',
+      NORAD_CAT_ID: 5,
+      ELEMENT_SET_NO: 475,
+      REV_AT_EPOCH: 41366,
+      BSTAR: 0.000028098,
+      MEAN_MOTION_DOT: 2.3e-7,
+      MEAN_MOTION_DDOT: 0,
+    },
+  ],
+  null,
+  2,
+);
 
 const CSV = `OBJECT_NAME,OBJECT_ID,EPOCH,MEAN_MOTION,ECCENTRICITY,INCLINATION,RA_OF_ASC_NODE,ARG_OF_PERICENTER,MEAN_ANOMALY,EPHEMERIS_TYPE,CLASSIFICATION_TYPE,NORAD_CAT_ID,ELEMENT_SET_NO,REV_AT_EPOCH,BSTAR,MEAN_MOTION_DOT,MEAN_MOTION_DDOT
 00005 TEST,1958-002B,2000-06-27T18:50:19.733568,10.82419157,.1859667,34.2682,348.7242,331.7664,19.3264,0,U,5,475,41366,.28098E-4,.23E-6,0
 `;
 
 const NUMERIC: (keyof ElementSet)[] = [
-  'catalogNumberInt', 'meanMotionRevPerDay', 'meanMotionDotRevPerDay2', 'meanMotionDdotRevPerDay3', 'bstar', 'inclinationDeg',
-  'raanDeg', 'eccentricity', 'argPerigeeDeg', 'meanAnomalyDeg', 'elementSetNo', 'revAtEpoch',
+  'catalogNumberInt',
+  'meanMotionRevPerDay',
+  'meanMotionDotRevPerDay2',
+  'meanMotionDdotRevPerDay3',
+  'bstar',
+  'inclinationDeg',
+  'raanDeg',
+  'eccentricity',
+  'argPerigeeDeg',
+  'meanAnomalyDeg',
+  'elementSetNo',
+  'revAtEpoch',
 ];
 
 describe('OMM parsers agree with the same set as a TLE', () => {
   const tle = parseElementSets(TLE).records[0]!;
-  const inputs: Array<[string, string]> = [['omm-kvn', KVN], ['omm-xml', XML], ['omm-json', JSON_TEXT], ['omm-csv', CSV]];
+  const inputs: Array<[string, string]> = [
+    ['omm-kvn', KVN],
+    ['omm-xml', XML],
+    ['omm-json', JSON_TEXT],
+    ['omm-csv', CSV],
+  ];
   for (const [format, text] of inputs) {
     it(`${format}: detected from content, same elements, epoch within 0.01 ms, identical synthesized TLE lines`, () => {
       expect(detectFormat(text)).toBe(format);
@@ -122,7 +156,7 @@ describe('OMM errors name the line and the keyword', () => {
     const r = parseElementSets(KVN + `COMMENT ${'x'.repeat(300)}\n`);
     expect(r.errors[0]).toMatchObject({ line: 26, expected: 'at most 254 characters (KVN)' });
   });
-  it('XML: malformed XML gives the validator\'s line', () => {
+  it("XML: malformed XML gives the validator's line", () => {
     const r = parseElementSets(XML.replace('</ECCENTRICITY>', '</ECCENTRICITYX>'));
     expect(r.records).toHaveLength(0);
     const expectedLine = XML.split('\n').findIndex((l) => l.includes('</ECCENTRICITY>')) + 1;
@@ -134,7 +168,11 @@ describe('OMM errors name the line and the keyword', () => {
     expect(parseElementSets(bare).records).toHaveLength(1);
   });
   it('JSON: each bad object is reported at its own line; the good ones are kept', () => {
-    const list = [JSON.parse(JSON_TEXT)[0], { ...JSON.parse(JSON_TEXT)[0], INCLINATION: 200 }, { ...JSON.parse(JSON_TEXT)[0], EPOCH: 'yesterday' }];
+    const list = [
+      JSON.parse(JSON_TEXT)[0],
+      { ...JSON.parse(JSON_TEXT)[0], INCLINATION: 200 },
+      { ...JSON.parse(JSON_TEXT)[0], EPOCH: 'yesterday' },
+    ];
     const text = JSON.stringify(list, null, 2);
     const r = parseElementSets(text);
     expect(r.records).toHaveLength(1);

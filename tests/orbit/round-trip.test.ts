@@ -24,43 +24,55 @@ const setArb: fc.Arbitrary<TleWriteInput> = fc.record({
 
 describe('TLE writer and parser round trip', () => {
   it('any set written is parsed back within the precision of each field, checksums right', () => {
-    fc.assert(fc.property(setArb, (s) => {
-      const { line1, line2 } = writeTle(s);
-      expect(line1).toHaveLength(69);
-      expect(line2).toHaveLength(69);
-      const r = parseElementSets(`${line1}\n${line2}\n`);
-      expect(r.errors).toEqual([]);
-      const p = r.records[0]!;
-      expect(p.catalogNumber).toBe(s.catalogNumber);
-      expect(p.classification).toBe(s.classification);
-      expect(p.internationalDesignator).toBe(s.internationalDesignator);
-      expect(Math.abs(p.epochMs - s.epochMs)).toBeLessThanOrEqual(0.5e-8 * 86_400_000 + 1e-3);
-      expect(Math.abs(p.meanMotionRevPerDay - s.meanMotionRevPerDay)).toBeLessThanOrEqual(0.5e-8 + 1e-12);
-      expect(Math.abs(p.meanMotionDotRevPerDay2 - s.meanMotionDotRevPerDay2)).toBeLessThanOrEqual(0.5e-8 + 1e-15);
-      expect(Math.abs(p.eccentricity - s.eccentricity)).toBeLessThanOrEqual(0.5e-7 + 1e-15);
-      expect(Math.abs(p.inclinationDeg - s.inclinationDeg)).toBeLessThanOrEqual(0.5e-4 + 1e-12);
-      for (const k of ['raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg'] as const) {
-        const d = Math.abs(p[k] - s[k]);
-        expect(Math.min(d, 360 - d)).toBeLessThanOrEqual(0.5e-4 + 1e-9);
-      }
-      for (const k of ['bstar', 'meanMotionDdotRevPerDay3'] as const) {
-        // Five significant digits, or zero below 1e-10.
-        expect(Math.abs(p[k] - s[k])).toBeLessThanOrEqual(Math.abs(s[k]) * 0.6e-4 + 1e-10);
-      }
-      expect(p.elementSetNo).toBe(s.elementSetNo);
-      expect(p.revAtEpoch).toBe(s.revAtEpoch);
-      // Writing the parsed set gives the same lines again.
-      expect(writeTle(p)).toEqual({ line1, line2 });
-    }), { numRuns: 2000 });
+    fc.assert(
+      fc.property(setArb, (s) => {
+        const { line1, line2 } = writeTle(s);
+        expect(line1).toHaveLength(69);
+        expect(line2).toHaveLength(69);
+        const r = parseElementSets(`${line1}\n${line2}\n`);
+        expect(r.errors).toEqual([]);
+        const p = r.records[0]!;
+        expect(p.catalogNumber).toBe(s.catalogNumber);
+        expect(p.classification).toBe(s.classification);
+        expect(p.internationalDesignator).toBe(s.internationalDesignator);
+        expect(Math.abs(p.epochMs - s.epochMs)).toBeLessThanOrEqual(0.5e-8 * 86_400_000 + 1e-3);
+        expect(Math.abs(p.meanMotionRevPerDay - s.meanMotionRevPerDay)).toBeLessThanOrEqual(0.5e-8 + 1e-12);
+        expect(Math.abs(p.meanMotionDotRevPerDay2 - s.meanMotionDotRevPerDay2)).toBeLessThanOrEqual(0.5e-8 + 1e-15);
+        expect(Math.abs(p.eccentricity - s.eccentricity)).toBeLessThanOrEqual(0.5e-7 + 1e-15);
+        expect(Math.abs(p.inclinationDeg - s.inclinationDeg)).toBeLessThanOrEqual(0.5e-4 + 1e-12);
+        for (const k of ['raanDeg', 'argPerigeeDeg', 'meanAnomalyDeg'] as const) {
+          const d = Math.abs(p[k] - s[k]);
+          expect(Math.min(d, 360 - d)).toBeLessThanOrEqual(0.5e-4 + 1e-9);
+        }
+        for (const k of ['bstar', 'meanMotionDdotRevPerDay3'] as const) {
+          // Five significant digits, or zero below 1e-10.
+          expect(Math.abs(p[k] - s[k])).toBeLessThanOrEqual(Math.abs(s[k]) * 0.6e-4 + 1e-10);
+        }
+        expect(p.elementSetNo).toBe(s.elementSetNo);
+        expect(p.revAtEpoch).toBe(s.revAtEpoch);
+        // Writing the parsed set gives the same lines again.
+        expect(writeTle(p)).toEqual({ line1, line2 });
+      }),
+      { numRuns: 2000 },
+    );
   });
 
   it('formatTleFile with names round-trips a whole file', () => {
-    fc.assert(fc.property(fc.array(setArb.map((s) => ({ ...s, name: `CRAFT ${s.catalogNumber}` })), { minLength: 1, maxLength: 30 }), (sets) => {
-      const text = formatTleFile(sets, { withNames: true });
-      const r = parseElementSets(text);
-      expect(r.errors).toEqual([]);
-      expect(r.records.map((x) => x.name)).toEqual(sets.map((x) => x.name));
-      expect(r.records.map((x) => x.sourceLine)).toEqual(sets.map((_, i) => 3 * i + 1));
-    }), { numRuns: 200 });
+    fc.assert(
+      fc.property(
+        fc.array(
+          setArb.map((s) => ({ ...s, name: `CRAFT ${s.catalogNumber}` })),
+          { minLength: 1, maxLength: 30 },
+        ),
+        (sets) => {
+          const text = formatTleFile(sets, { withNames: true });
+          const r = parseElementSets(text);
+          expect(r.errors).toEqual([]);
+          expect(r.records.map((x) => x.name)).toEqual(sets.map((x) => x.name));
+          expect(r.records.map((x) => x.sourceLine)).toEqual(sets.map((_, i) => 3 * i + 1));
+        },
+      ),
+      { numRuns: 200 },
+    );
   });
 });

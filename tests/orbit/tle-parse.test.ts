@@ -20,7 +20,9 @@ describe('two- and three-line files', () => {
     expect(r.format).toBe('tle');
     expect(r.errors).toEqual([]);
     expect(r.records.map((x) => [x.name, x.catalogNumber, x.sourceLine])).toEqual([
-      ['TERN ONE', '00005', 2], ['SECOND', '06251', 7], [undefined, '00005', 10],
+      ['TERN ONE', '00005', 2],
+      ['SECOND', '06251', 7],
+      [undefined, '00005', 10],
     ]);
   });
   it('parses thousands of sets', () => {

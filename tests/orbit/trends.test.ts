@@ -1,8 +1,19 @@
 // Trends, sailing periods and lifetime on synthetic histories written with our TLE writer and parsed back.
 import { describe, expect, it } from 'vitest';
 import {
-  LIFETIME_CAUTION, compareSailingPeriods, computeTrend, crossoverAltitudeKm, deriveElementSet, estimateLifetime,
-  formatTleFile, meanMotionForSemiMajorAxis, parseElementSets, theilSen, MU_WGS72_KM3_PER_S2, type ElementSet, type TleWriteInput,
+  LIFETIME_CAUTION,
+  compareSailingPeriods,
+  computeTrend,
+  crossoverAltitudeKm,
+  deriveElementSet,
+  estimateLifetime,
+  formatTleFile,
+  meanMotionForSemiMajorAxis,
+  parseElementSets,
+  theilSen,
+  MU_WGS72_KM3_PER_S2,
+  type ElementSet,
+  type TleWriteInput,
 } from '../../shared/orbit';
 
 const DAY = 86_400_000;
@@ -11,7 +22,10 @@ const T0 = Date.UTC(2025, 0, 1);
 /** Deterministic pseudo-random numbers in [−1, 1). */
 function noise(seed: number) {
   let s = seed >>> 0;
-  return () => { s = (s * 1664525 + 1013904223) >>> 0; return s / 2 ** 31 - 1; };
+  return () => {
+    s = (s * 1664525 + 1013904223) >>> 0;
+    return s / 2 ** 31 - 1;
+  };
 }
 
 function history(opts: { days: number; perDay: number; aKm: (tDays: number) => number; noiseKm?: number; seed?: number }): TleWriteInput[] {
@@ -21,10 +35,21 @@ function history(opts: { days: number; perDay: number; aKm: (tDays: number) => n
     const t = k / opts.perDay;
     const a = opts.aKm(t) + (opts.noiseKm ?? 0) * rnd();
     out.push({
-      catalogNumber: '99001', classification: 'U', internationalDesignator: '25001A', epochMs: T0 + t * DAY,
-      meanMotionRevPerDay: meanMotionForSemiMajorAxis(a, 0.0012, 98.6), meanMotionDotRevPerDay2: 0, meanMotionDdotRevPerDay3: 0,
-      bstar: 1e-4, inclinationDeg: 98.6, raanDeg: (10 + t * 0.9856) % 360, eccentricity: 0.0012, argPerigeeDeg: 90, meanAnomalyDeg: 0,
-      elementSetNo: (k % 999) + 1, revAtEpoch: k,
+      catalogNumber: '99001',
+      classification: 'U',
+      internationalDesignator: '25001A',
+      epochMs: T0 + t * DAY,
+      meanMotionRevPerDay: meanMotionForSemiMajorAxis(a, 0.0012, 98.6),
+      meanMotionDotRevPerDay2: 0,
+      meanMotionDdotRevPerDay3: 0,
+      bstar: 1e-4,
+      inclinationDeg: 98.6,
+      raanDeg: (10 + t * 0.9856) % 360,
+      eccentricity: 0.0012,
+      argPerigeeDeg: 90,
+      meanAnomalyDeg: 0,
+      elementSetNo: (k % 999) + 1,
+      revAtEpoch: k,
     });
   }
   return out;
@@ -127,9 +152,10 @@ describe('compareSailingPeriods', () => {
     const cmp = compareSailingPeriods(trend.points, periods);
     expect(cmp.raising.periodCount).toBe(2);
     expect(cmp.off.periodCount).toBe(2);
-    const aM = 7158 * 1e3, mu = MU_WGS72_KM3_PER_S2 * 1e9;
+    const aM = 7158 * 1e3,
+      mu = MU_WGS72_KM3_PER_S2 * 1e9;
     // da/dt → dE/dt = μ/(2a²)·da/dt → a_t = (dE/dt)/v.
-    const expectedYield = (mu / (2 * aM * aM)) * ((0.14 * 1e3) / 86_400) / Math.sqrt(mu / aM);
+    const expectedYield = ((mu / (2 * aM * aM)) * ((0.14 * 1e3) / 86_400)) / Math.sqrt(mu / aM);
     expect(cmp.sailYieldMPerS2! / expectedYield).toBeCloseTo(1, 1);
     expect(cmp.uncertaintyMPerS2!).toBeGreaterThan(0);
     expect(cmp.uncertaintyMPerS2!).toBeLessThan(0.1 * expectedYield);
@@ -138,7 +164,10 @@ describe('compareSailingPeriods', () => {
   });
 
   it('notes periods with too few sets and returns null yield without an off period', () => {
-    const cmp = compareSailingPeriods(computeTrend(sets).points, [periods[1]!, { startMs: T0 - 10 * DAY, endMs: T0 - 9 * DAY, mode: 'edge-on' }]);
+    const cmp = compareSailingPeriods(computeTrend(sets).points, [
+      periods[1]!,
+      { startMs: T0 - 10 * DAY, endMs: T0 - 9 * DAY, mode: 'edge-on' },
+    ]);
     expect(cmp.sailYieldMPerS2).toBeNull();
     expect(cmp.notes.join(' ')).toMatch(/fewer than 3/);
   });
@@ -158,7 +187,9 @@ describe('estimateLifetime', () => {
   it('matches the closed form for a single exponential layer: Δt = H/(ρ0·B·√(μa))·(e^{Δh/H} − 1) within 2 %', () => {
     // Between 600 and 500 km the CIRA-72 row at 500 km (ρ0 = 6.967e-13, H = 63.822 km) applies: from 599 km down to 500 km.
     const est = estimateLifetime({ epochMs: T0, semiMajorAxisKm: 6378.137 + 599 }, craft, { reentryAltitudeKm: 500 })!;
-    const B = (2.2 * 24) / 4.8, H = 63.822e3, rho0 = 6.967e-13;
+    const B = (2.2 * 24) / 4.8,
+      H = 63.822e3,
+      rho0 = 6.967e-13;
     const a = (6378.137 + 550) * 1e3;
     const tSeconds = (H / (rho0 * B * Math.sqrt(3.986004418e14 * a))) * (Math.exp(99e3 / H) - 1);
     expect(Math.abs(est.mean.days! / (tSeconds / 86_400) - 1)).toBeLessThan(0.02);

@@ -3,14 +3,18 @@
 import { describe, expect, it } from 'vitest';
 import { constants as satConst, eciToGeodetic, gstime, propagate, twoline2satrec } from 'satellite.js';
 import {
-  deriveElementSet, meanMotionForSemiMajorAxis, parseElementSets, sgp4AltitudeRange, EARTH_RADIUS_WGS72_KM,
+  deriveElementSet,
+  meanMotionForSemiMajorAxis,
+  parseElementSets,
+  sgp4AltitudeRange,
+  EARTH_RADIUS_WGS72_KM,
 } from '../../shared/orbit';
 import { readVerificationCases } from './reference-data';
 
 const cases = readVerificationCases();
 const sets = parseElementSets(cases.map((c) => `${c.line1}\n${c.line2}`).join('\n'), { verifyChecksum: false }).records;
 
-describe('derived quantities as SGP4 treats the set (un-Kozai\'d mean motion, WGS-72)', () => {
+describe("derived quantities as SGP4 treats the set (un-Kozai'd mean motion, WGS-72)", () => {
   it('semi-major axis, perigee and apogee equal satellite.js satrec.a, altp, alta (Earth radii × 6378.135 km)', () => {
     expect(sets.length).toBe(cases.length);
     for (const s of sets) {
@@ -39,7 +43,14 @@ describe('derived quantities as SGP4 treats the set (un-Kozai\'d mean motion, WG
   });
 
   // Perigee altitudes stated in the SGP4-VER.TLE comments; SGP4's perigee is a(1−e) − 6378.135 km.
-  const stated: Array<[string, number]> = [['06251', 377.26], ['28350', 127.2], ['29238', 212.24], ['28623', 135.75], ['16925', 82.48], ['28872', -51]];
+  const stated: Array<[string, number]> = [
+    ['06251', 377.26],
+    ['28350', 127.2],
+    ['29238', 212.24],
+    ['28623', 135.75],
+    ['16925', 82.48],
+    ['28872', -51],
+  ];
   for (const [cat, perigeeKm] of stated) {
     it(`${cat}: perigee altitude as stated in SGP4-VER.TLE ("perigee = ${perigeeKm}")`, () => {
       const c = cases.find((x) => x.catalogNumber === cat)!;
@@ -51,7 +62,7 @@ describe('derived quantities as SGP4 treats the set (un-Kozai\'d mean motion, WG
     });
   }
 
-  it('Kepler\'s third law at 1.0027379 rev/day gives the geostationary radius, 42 164 km (textbook value, from memory)', () => {
+  it("Kepler's third law at 1.0027379 rev/day gives the geostationary radius, 42 164 km (textbook value, from memory)", () => {
     const geo = { meanMotionRevPerDay: 1.0027379, eccentricity: 0, inclinationDeg: 0, meanMotionDotRevPerDay2: 0 };
     const d = deriveElementSet(geo);
     expect(Math.abs(d.keplerSemiMajorAxisKm - 42_164)).toBeLessThan(1);
@@ -76,7 +87,9 @@ describe('derived quantities as SGP4 treats the set (un-Kozai\'d mean motion, WG
 
   it('meanMotionForSemiMajorAxis inverts the un-Kozai step', () => {
     const n = meanMotionForSemiMajorAxis(6378.137 + 780, 0.001, 98.5);
-    expect(deriveElementSet({ meanMotionRevPerDay: n, eccentricity: 0.001, inclinationDeg: 98.5, meanMotionDotRevPerDay2: 0 }).semiMajorAxisKm).toBeCloseTo(6378.137 + 780, 6);
+    expect(
+      deriveElementSet({ meanMotionRevPerDay: n, eccentricity: 0.001, inclinationDeg: 98.5, meanMotionDotRevPerDay2: 0 }).semiMajorAxisKm,
+    ).toBeCloseTo(6378.137 + 780, 6);
   });
 });
 
@@ -87,7 +100,8 @@ describe('SGP4 min/max geodetic altitude over one revolution (WGS-84)', () => {
       const r = sgp4AltitudeRange(s, { samplesPerRev: 90 });
       if (!r.ok) throw new Error(r.error.message);
       const sat = twoline2satrec(s.line1, s.line2);
-      let min = Infinity, max = -Infinity;
+      let min = Infinity,
+        max = -Infinity;
       const epochMs = (sat.jdsatepoch - 2440587.5) * 86_400_000;
       for (let k = 0; k < 90; k++) {
         const t = (k * r.periodMin) / 90;

@@ -30,7 +30,10 @@ export function readVerificationCases(): VerificationCase[] {
   let comments: string[] = [];
   for (let i = 0; i < lines.length; i++) {
     const l = lines[i]!;
-    if (l.startsWith('#')) { comments.push(l); continue; }
+    if (l.startsWith('#')) {
+      comments.push(l);
+      continue;
+    }
     if (l.startsWith('1 ')) {
       const l2 = lines[i + 1]!;
       const [startMin, stopMin, stepMin] = l2.slice(69).trim().split(/\s+/).map(Number) as [number, number, number];
@@ -50,7 +53,10 @@ export function readReferenceOutput(): { catalogNumber: string; rows: ReferenceR
   for (const line of readReferenceFile('tcppver.out').split(/\r?\n/)) {
     const t = line.trim();
     if (!t) continue;
-    if (t.endsWith('xx')) { blocks.push({ catalogNumber: t.split(/\s+/)[0]!, rows: [] }); continue; }
+    if (t.endsWith('xx')) {
+      blocks.push({ catalogNumber: t.split(/\s+/)[0]!, rows: [] });
+      continue;
+    }
     const f = t.split(/\s+/).map(Number);
     blocks[blocks.length - 1]!.rows.push({ minutes: f[0]!, r: [f[1]!, f[2]!, f[3]!], v: [f[4]!, f[5]!, f[6]!] });
   }

@@ -1,10 +1,25 @@
 // Sail and drag physics against published values (REFERENCES.md §4–6).
 import { describe, expect, it } from 'vitest';
 import {
-  AU_M, atmosphericDensityKgPerM3, characteristicAccelerationMPerS2, circularSpeedMPerS, crossoverAltitudeKm,
-  dragForceN, orbitEnergyBalance, photonMomentumKgMPerS, sailForceN, sailPressurePa, sailThrustGeometry,
-  solarIrradianceWPerM2, solarRadiationPressurePa, sunlitFraction, usableThrustFraction, betaAngleDeg,
-  harrisPriesterDensityKgPerM3, cira72ExponentialDensityKgPerM3, sunlightAtEpoch,
+  AU_M,
+  atmosphericDensityKgPerM3,
+  characteristicAccelerationMPerS2,
+  circularSpeedMPerS,
+  crossoverAltitudeKm,
+  dragForceN,
+  orbitEnergyBalance,
+  photonMomentumKgMPerS,
+  sailForceN,
+  sailPressurePa,
+  sailThrustGeometry,
+  solarIrradianceWPerM2,
+  solarRadiationPressurePa,
+  sunlitFraction,
+  usableThrustFraction,
+  betaAngleDeg,
+  harrisPriesterDensityKgPerM3,
+  cira72ExponentialDensityKgPerM3,
+  sunlightAtEpoch,
 } from '../../shared/orbit';
 
 function expectRelative(actual: number, expected: number, tol = 1e-9) {
@@ -57,11 +72,14 @@ describe('radiation pressure and photon momentum', () => {
     expectRelative(f.magnitudeN, solarRadiationPressurePa() * 10 * Math.cos(th));
   });
 
-  it('characteristic acceleration a0 = 2ηP/σ: an ideal sail at the critical loading ≈ 1.53 g/m² gives ≈ 5.93 mm/s², the Sun\'s gravity at 1 AU (McInnes 1999 — from memory)', () => {
+  it("characteristic acceleration a0 = 2ηP/σ: an ideal sail at the critical loading ≈ 1.53 g/m² gives ≈ 5.93 mm/s², the Sun's gravity at 1 AU (McInnes 1999 — from memory)", () => {
     const a0 = characteristicAccelerationMPerS2({ massKg: 1.53e-3, sailAreaM2: 1, reflectivity: 1 });
     expect(a0 * 1e3).toBeCloseTo(5.93, 1);
     // Tern-1 (4.8 kg, 24 m², ideal): 2·P/σ with σ = 0.2 kg/m².
-    expectRelative(characteristicAccelerationMPerS2({ massKg: 4.8, sailAreaM2: 24, reflectivity: 1 }), (2 * solarRadiationPressurePa()) / 0.2);
+    expectRelative(
+      characteristicAccelerationMPerS2({ massKg: 4.8, sailAreaM2: 24, reflectivity: 1 }),
+      (2 * solarRadiationPressurePa()) / 0.2,
+    );
   });
 });
 

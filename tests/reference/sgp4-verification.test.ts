@@ -32,7 +32,8 @@ describe('SGP4 verification cases (AIAA 2006-6753)', () => {
       const satrec = createSatrec(set);
       const block = blocks[k]!;
       expect(block.rows.length).toBeGreaterThan(0);
-      let worstKm = 0, worstKmPerS = 0;
+      let worstKm = 0,
+        worstKmPerS = 0;
       for (const row of block.rows) {
         const s = propagateMinutes(satrec, row.minutes);
         if (!('positionKm' in s)) throw new Error(`${c.catalogNumber} at ${row.minutes}: ${s.message}`);

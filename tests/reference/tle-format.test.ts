@@ -1,9 +1,7 @@
 // Two-line element set format rules (REFERENCES.md §2: the published column layout, checksum, epoch year rule,
 // alpha-5 catalog numbers).
 import { describe, expect, it } from 'vitest';
-import {
-  formatCatalogNumber, parseCatalogNumber, parseElementSets, tleChecksum, tleYearToFullYear, writeTle,
-} from '../../shared/orbit';
+import { formatCatalogNumber, parseCatalogNumber, parseElementSets, tleChecksum, tleYearToFullYear, writeTle } from '../../shared/orbit';
 
 const L1 = '1 00005U 58002B   00179.78495062  .00000023  00000-0  28098-4 0  4753';
 const L2 = '2 00005  34.2682 348.7242 1859667 331.7664  19.3264 10.82419157413667';
@@ -15,8 +13,12 @@ describe('TLE checksum (modulo 10, digits and "-" = 1)', () => {
   });
   it('counts each minus sign as 1', () => {
     const base = '1 04632U 70093B   04031.91070959 -.00000084  00000-0  10000-3 0  995';
-    let digits = 0, minus = 0;
-    for (const ch of base) { if (ch >= '0' && ch <= '9') digits += Number(ch); if (ch === '-') minus++; }
+    let digits = 0,
+      minus = 0;
+    for (const ch of base) {
+      if (ch >= '0' && ch <= '9') digits += Number(ch);
+      if (ch === '-') minus++;
+    }
     expect(minus).toBe(3);
     expect(tleChecksum(base)).toBe((digits + minus) % 10);
     expect(tleChecksum(base)).toBe(5); // the published line ends "9955"
@@ -54,7 +56,9 @@ describe('the published 00005 example parses field by field', () => {
     expect(writeTle(s)).toEqual({ line1: L1, line2: L2 });
   });
   it('reads negative exponent fields (16925: n̈/6 = −30915-6 = −0.30915e-6)', () => {
-    const r2 = parseElementSets('1 16925U 86065D   06151.67415771  .02550794 -30915-6  18784-3 0  4486\n2 16925  62.0906 295.0239 5596327 245.1593  47.9690  4.88511875148616\n');
+    const r2 = parseElementSets(
+      '1 16925U 86065D   06151.67415771  .02550794 -30915-6  18784-3 0  4486\n2 16925  62.0906 295.0239 5596327 245.1593  47.9690  4.88511875148616\n',
+    );
     expect(r2.errors).toEqual([]);
     expect(r2.records[0]!.meanMotionDdotRevPerDay3).toBeCloseTo(-0.30915e-6, 18);
     expect(r2.records[0]!.bstar).toBeCloseTo(0.18784e-3, 16);
@@ -62,11 +66,20 @@ describe('the published 00005 example parses field by field', () => {
 });
 
 describe('epoch year rule: 57–99 → 19xx, 00–56 → 20xx', () => {
-  it.each([[57, 1957], [99, 1999], [0, 2000], [56, 2056], [24, 2024]])('%i → %i', (yy, full) => {
+  it.each([
+    [57, 1957],
+    [99, 1999],
+    [0, 2000],
+    [56, 2056],
+    [24, 2024],
+  ])('%i → %i', (yy, full) => {
     expect(tleYearToFullYear(yy)).toBe(full);
   });
   it('applies in the parser: 57001.0 is 1 Jan 1957, 56001.0 is 1 Jan 2056', () => {
-    for (const [yy, iso] of [['57', '1957-01-01T00:00:00.000Z'], ['56', '2056-01-01T00:00:00.000Z']] as const) {
+    for (const [yy, iso] of [
+      ['57', '1957-01-01T00:00:00.000Z'],
+      ['56', '2056-01-01T00:00:00.000Z'],
+    ] as const) {
       const set = { ...parseElementSets(`${L1}\n${L2}`).records[0]! };
       set.epochMs = Date.parse(iso);
       const { line1, line2 } = writeTle(set);
@@ -85,11 +98,18 @@ describe('epoch year rule: 57–99 → 19xx, 00–56 → 20xx', () => {
 });
 
 describe('alpha-5 catalog numbers (letter for 10…33, I and O skipped)', () => {
-  it.each([['A0000', 100000], ['B1234', 111234], ['H9999', 179999], ['J0000', 180000], ['N0001', 220001], ['P0000', 230000], ['Z9999', 339999]])(
-    '%s = %i and back', (text, n) => {
-      expect(parseCatalogNumber(text)).toBe(n);
-      expect(formatCatalogNumber(n)).toBe(text);
-    });
+  it.each([
+    ['A0000', 100000],
+    ['B1234', 111234],
+    ['H9999', 179999],
+    ['J0000', 180000],
+    ['N0001', 220001],
+    ['P0000', 230000],
+    ['Z9999', 339999],
+  ])('%s = %i and back', (text, n) => {
+    expect(parseCatalogNumber(text)).toBe(n);
+    expect(formatCatalogNumber(n)).toBe(text);
+  });
   it('rejects I and O', () => {
     expect(parseCatalogNumber('I0000')).toBeNaN();
     expect(parseCatalogNumber('O0000')).toBeNaN();

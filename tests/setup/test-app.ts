@@ -29,7 +29,14 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
     SESSION_SECRET: 'test-session-secret-0123456789',
     ...env,
   });
-  const build = () => createApp({ db: database.db, pool: database.pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) });
+  const build = () =>
+    createApp({
+      db: database.db,
+      pool: database.pool,
+      config,
+      mailer: createMailerFromConfig(config),
+      stripe: createStripeFromConfig(config),
+    });
   const app = build();
   return {
     app,

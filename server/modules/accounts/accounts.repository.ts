@@ -32,7 +32,10 @@ export function createAccountsRepository({ db }: { db: Db }) {
     rolesOf,
     view,
     async findById(id: string, tx: Db = db) {
-      const [row] = await tx.select().from(accounts).where(and(eq(accounts.id, id), isNull(accounts.deletedAt)));
+      const [row] = await tx
+        .select()
+        .from(accounts)
+        .where(and(eq(accounts.id, id), isNull(accounts.deletedAt)));
       return row;
     },
     async findByEmail(email: string, tx: Db = db) {
@@ -43,18 +46,21 @@ export function createAccountsRepository({ db }: { db: Db }) {
       return row;
     },
     async findIdentity(provider: string, subject: string, tx: Db = db) {
-      const [row] = await tx.select().from(identities).where(and(eq(identities.provider, provider), eq(identities.subject, subject)));
+      const [row] = await tx
+        .select()
+        .from(identities)
+        .where(and(eq(identities.provider, provider), eq(identities.subject, subject)));
       return row;
     },
     async passwordIdentity(accountId: string, tx: Db = db) {
-      const [row] = await tx.select().from(identities).where(and(eq(identities.accountId, accountId), eq(identities.provider, 'password')));
+      const [row] = await tx
+        .select()
+        .from(identities)
+        .where(and(eq(identities.accountId, accountId), eq(identities.provider, 'password')));
       return row;
     },
     /** Creates an account with the backer role; a taken e-mail (any case) is a domain error. */
-    async create(
-      tx: Db,
-      input: { email: string; displayName: string; emailVerified?: boolean; roles?: Role[] },
-    ): Promise<AccountRow> {
+    async create(tx: Db, input: { email: string; displayName: string; emailVerified?: boolean; roles?: Role[] }): Promise<AccountRow> {
       try {
         const [row] = await tx
           .insert(accounts)
@@ -70,7 +76,12 @@ export function createAccountsRepository({ db }: { db: Db }) {
     },
     async list(q?: string) {
       const where = q ? or(ilike(accounts.email, `%${q}%`), ilike(accounts.displayName, `%${q}%`)) : undefined;
-      const rows = await db.select().from(accounts).where(and(isNull(accounts.deletedAt), where)).orderBy(asc(accounts.createdAt)).limit(500);
+      const rows = await db
+        .select()
+        .from(accounts)
+        .where(and(isNull(accounts.deletedAt), where))
+        .orderBy(asc(accounts.createdAt))
+        .limit(500);
       return Promise.all(rows.map((r) => view(r)));
     },
   };

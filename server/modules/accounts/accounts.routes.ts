@@ -10,7 +10,6 @@ import { createAdminService } from './admin.service';
 import { listAudit, recordAudit } from '../audit/audit.repository';
 import { grantRoleSchema, roleSchema, updateAccountSchema } from '../../../shared/schemas/auth';
 
-
 export function createAccountRouter({ db }: { db: Db }) {
   const router = Router();
   const repo = createAccountsRepository({ db });
@@ -21,7 +20,14 @@ export function createAccountRouter({ db }: { db: Db }) {
       const id = req.user!.id;
       const row = await db.transaction(async (tx) => {
         const [updated] = await tx.update(accounts).set({ displayName: body.displayName }).where(eq(accounts.id, id)).returning();
-        await recordAudit(tx, { actorId: id, action: 'account.renamed', subjectType: 'account', subjectId: id, before: { displayName: req.user!.displayName }, after: { displayName: body.displayName } });
+        await recordAudit(tx, {
+          actorId: id,
+          action: 'account.renamed',
+          subjectType: 'account',
+          subjectId: id,
+          before: { displayName: req.user!.displayName },
+          after: { displayName: body.displayName },
+        });
         return updated!;
       });
       res.json({ account: await repo.view(row) });

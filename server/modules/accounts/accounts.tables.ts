@@ -29,10 +29,7 @@ export const identities = pgTable(
     passwordHash: text('password_hash'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [
-    uniqueIndex('identities_provider_subject_key').on(t.provider, t.subject),
-    index('identities_account_idx').on(t.accountId),
-  ],
+  (t) => [uniqueIndex('identities_provider_subject_key').on(t.provider, t.subject), index('identities_account_idx').on(t.accountId)],
 );
 
 export const accountRoles = pgTable(
@@ -47,20 +44,17 @@ export const accountRoles = pgTable(
   (t) => [primaryKey({ columns: [t.accountId, t.role] })],
 );
 
-export const authTokens = pgTable(
-  'auth_tokens',
-  {
-    id: uuid('id').primaryKey().defaultRandom(),
-    accountId: uuid('account_id')
-      .notNull()
-      .references(() => accounts.id, { onDelete: 'cascade' }),
-    purpose: text('purpose').notNull(), // 'verify-email' | 'reset-password'
-    tokenHash: text('token_hash').notNull().unique(),
-    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
-    usedAt: timestamp('used_at', { withTimezone: true }),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
-  },
-);
+export const authTokens = pgTable('auth_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  accountId: uuid('account_id')
+    .notNull()
+    .references(() => accounts.id, { onDelete: 'cascade' }),
+  purpose: text('purpose').notNull(), // 'verify-email' | 'reset-password'
+  tokenHash: text('token_hash').notNull().unique(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 export const emailPreferences = pgTable('email_preferences', {
   accountId: uuid('account_id')

@@ -16,7 +16,14 @@ export function createAdminService({ db }: { db: Db }) {
         const before = await repo.rolesOf(accountId, tx);
         if (!before.includes(role)) {
           await tx.insert(accountRoles).values({ accountId, role }).onConflictDoNothing();
-          await recordAudit(tx, { actorId, action: 'role.granted', subjectType: 'account', subjectId: accountId, before: { roles: before }, after: { roles: [...before, role].sort() } });
+          await recordAudit(tx, {
+            actorId,
+            action: 'role.granted',
+            subjectType: 'account',
+            subjectId: accountId,
+            before: { roles: before },
+            after: { roles: [...before, role].sort() },
+          });
         }
         return repo.view(account, tx);
       });
@@ -35,7 +42,14 @@ export function createAdminService({ db }: { db: Db }) {
         const before = await repo.rolesOf(accountId, tx);
         if (before.includes(role)) {
           await tx.delete(accountRoles).where(and(eq(accountRoles.accountId, accountId), eq(accountRoles.role, role)));
-          await recordAudit(tx, { actorId, action: 'role.revoked', subjectType: 'account', subjectId: accountId, before: { roles: before }, after: { roles: before.filter((r) => r !== role) } });
+          await recordAudit(tx, {
+            actorId,
+            action: 'role.revoked',
+            subjectType: 'account',
+            subjectId: accountId,
+            before: { roles: before },
+            after: { roles: before.filter((r) => r !== role) },
+          });
         }
         return repo.view(account, tx);
       });

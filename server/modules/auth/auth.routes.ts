@@ -31,7 +31,13 @@ export function safeReturnTo(value: unknown) {
   return typeof value === 'string' && value.startsWith('/') && !value.startsWith('//') && !value.includes('\\') ? value : '/';
 }
 
-export function createAuthRouter({ db, auth, pp, config, generateCsrfToken }: {
+export function createAuthRouter({
+  db,
+  auth,
+  pp,
+  config,
+  generateCsrfToken,
+}: {
   db: Db;
   auth: AuthService;
   pp: Authenticator;
@@ -56,7 +62,10 @@ export function createAuthRouter({ db, auth, pp, config, generateCsrfToken }: {
     skipSuccessfulRequests: true,
     standardHeaders: false,
     legacyHeaders: false,
-    keyGenerator: (req) => `acct:${String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase()}`,
+    keyGenerator: (req) =>
+      `acct:${String((req.body as { email?: unknown })?.email ?? '')
+        .trim()
+        .toLowerCase()}`,
     handler: tooMany('Too many failed sign-ins for this account. Wait a little and try again.'),
   });
 

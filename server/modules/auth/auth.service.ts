@@ -15,8 +15,7 @@ const ARGON2 = { algorithm: 2 as Algorithm, memoryCost: 19456, timeCost: 2, para
 const RESET_MINUTES = 60;
 const VERIFY_HOURS = 48;
 
-export const invalidCredentials = () =>
-  new AppError(401, 'auth.invalid_credentials', 'That e-mail and password do not match an account.');
+export const invalidCredentials = () => new AppError(401, 'auth.invalid_credentials', 'That e-mail and password do not match an account.');
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
@@ -36,7 +35,14 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
       const [row] = await tx
         .update(authTokens)
         .set({ usedAt: new Date() })
-        .where(and(eq(authTokens.tokenHash, sha256(token)), eq(authTokens.purpose, purpose), isNull(authTokens.usedAt), gt(authTokens.expiresAt, new Date())))
+        .where(
+          and(
+            eq(authTokens.tokenHash, sha256(token)),
+            eq(authTokens.purpose, purpose),
+            isNull(authTokens.usedAt),
+            gt(authTokens.expiresAt, new Date()),
+          ),
+        )
         .returning();
       if (!row) throw badRequest('auth.token_invalid', 'This link has expired or was already used. Ask for a new one.');
       return row;
@@ -58,7 +64,13 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
       const account = await db.transaction(async (tx) => {
         const row = await repo.create(tx, { email: input.email, displayName: input.displayName });
         await tx.insert(identities).values({ accountId: row.id, provider: 'password', passwordHash });
-        await recordAudit(tx, { actorId: row.id, action: 'account.created', subjectType: 'account', subjectId: row.id, after: { email: row.email, via: 'password' } });
+        await recordAudit(tx, {
+          actorId: row.id,
+          action: 'account.created',
+          subjectType: 'account',
+          subjectId: row.id,
+          after: { email: row.email, via: 'password' },
+        });
         return row;
       });
       await sendVerification(account).catch(() => undefined); // the account stands; the mail can be re-sent
@@ -82,15 +94,31 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
           if (account) return account;
         }
         if (!profile.email || !profile.emailVerified) {
-          throw new AppError(403, 'auth.email_unverified', 'Your provider did not confirm an e-mail address, so we cannot sign you in with it.');
+          throw new AppError(
+            403,
+            'auth.email_unverified',
+            'Your provider did not confirm an e-mail address, so we cannot sign you in with it.',
+          );
         }
         let account = await repo.findByEmail(profile.email, tx);
         if (account) {
           if (!account.emailVerifiedAt) await tx.update(accounts).set({ emailVerifiedAt: new Date() }).where(eq(accounts.id, account.id));
-          await recordAudit(tx, { actorId: account.id, action: 'identity.linked', subjectType: 'account', subjectId: account.id, after: { provider } });
+          await recordAudit(tx, {
+            actorId: account.id,
+            action: 'identity.linked',
+            subjectType: 'account',
+            subjectId: account.id,
+            after: { provider },
+          });
         } else {
           account = await repo.create(tx, { email: profile.email, displayName: profile.displayName || profile.email, emailVerified: true });
-          await recordAudit(tx, { actorId: account.id, action: 'account.created', subjectType: 'account', subjectId: account.id, after: { email: account.email, via: provider } });
+          await recordAudit(tx, {
+            actorId: account.id,
+            action: 'account.created',
+            subjectType: 'account',
+            subjectId: account.id,
+            after: { email: account.email, via: provider },
+          });
         }
         await tx.insert(identities).values({ accountId: account.id, provider, subject: profile.subject });
         return account;
@@ -123,7 +151,10 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
         if (existing) await tx.update(identities).set({ passwordHash }).where(eq(identities.id, existing.id));
         else await tx.insert(identities).values({ accountId: row.accountId, provider: 'password', passwordHash });
         // A reset also proves the mailbox.
-        await tx.update(accounts).set({ emailVerifiedAt: new Date() }).where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
+        await tx
+          .update(accounts)
+          .set({ emailVerifiedAt: new Date() })
+          .where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
         await recordAudit(tx, { actorId: row.accountId, action: 'password.reset', subjectType: 'account', subjectId: row.accountId });
       });
     },

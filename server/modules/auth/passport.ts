@@ -32,9 +32,7 @@ export function createPassport({ config, auth }: { config: Config; auth: AuthSer
         clientID: config.GOOGLE_CLIENT_ID,
         clientSecret: config.GOOGLE_CLIENT_SECRET,
         callbackURL: `${config.PUBLIC_URL}/api/auth/google/callback`,
-        ...(base
-          ? { authorizationURL: `${base}/authorize`, tokenURL: `${base}/token`, userProfileURL: `${base}/userinfo` }
-          : {}),
+        ...(base ? { authorizationURL: `${base}/authorize`, tokenURL: `${base}/token`, userProfileURL: `${base}/userinfo` } : {}),
         scope: ['openid', 'email', 'profile'],
       },
       (_accessToken: string, _refreshToken: string, profile: Profile, done: (err: unknown, user?: Express.User | false) => void) => {

@@ -6,7 +6,10 @@ import { rateLimitHits } from './auth.tables';
 /** An express-rate-limit store in PostgreSQL, so every app process counts the same attempts. */
 export class PgRateLimitStore implements Store {
   private windowMs = 60_000;
-  constructor(private readonly db: Db, readonly prefix: string) {}
+  constructor(
+    private readonly db: Db,
+    readonly prefix: string,
+  ) {}
 
   init(options: Options) {
     this.windowMs = options.windowMs;

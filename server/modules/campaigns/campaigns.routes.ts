@@ -26,9 +26,12 @@ export function createCampaignsRouter({ campaigns }: { campaigns: CampaignsServi
 
   router.get(
     '/:slug/backers',
-    validated({ params: slugParams, query: z.object({ limit: z.coerce.number().int().min(1).max(100).default(20) }) }, async (_req, res, { params, query }) => {
-      res.json({ backers: await campaigns.backers(params.slug, query.limit) });
-    }),
+    validated(
+      { params: slugParams, query: z.object({ limit: z.coerce.number().int().min(1).max(100).default(20) }) },
+      async (_req, res, { params, query }) => {
+        res.json({ backers: await campaigns.backers(params.slug, query.limit) });
+      },
+    ),
   );
 
   // Staff: the same campaign with inactive tiers, uncached, for the console form.

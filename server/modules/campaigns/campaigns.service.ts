@@ -6,13 +6,7 @@ import { pledges } from '../pledges/pledges.tables';
 import { campaignReadSql, type CampaignReadRow } from './campaign-read.sql';
 import { recordAudit } from '../audit/audit.repository';
 import { badRequest, conflict, notFound } from '../../errors';
-import type {
-  CampaignView,
-  StretchTargetsInput,
-  TierInput,
-  TierView,
-  UpdateCampaignInput,
-} from '../../../shared/schemas/campaign';
+import type { CampaignView, StretchTargetsInput, TierInput, TierView, UpdateCampaignInput } from '../../../shared/schemas/campaign';
 
 export const campaignNotFound = (slug: string) => notFound('campaigns.not_found', `There is no campaign "${slug}".`);
 
@@ -51,7 +45,11 @@ export function campaignViewOf(row: CampaignReadRow, now: Date, opts: { includeI
     startsAt: startsAt.toISOString(),
     endsAt: endsAt.toISOString(),
     tiers: row.tiers.filter((t) => opts.includeInactive || t.active).map(tierView),
-    stretchTargets: row.stretchTargets.map((s) => ({ ...s, amountMinor: Number(s.amountMinor), reached: raisedMinor >= Number(s.amountMinor) })),
+    stretchTargets: row.stretchTargets.map((s) => ({
+      ...s,
+      amountMinor: Number(s.amountMinor),
+      reached: raisedMinor >= Number(s.amountMinor),
+    })),
     progress: {
       raisedMinor,
       goalMinor,
@@ -59,7 +57,8 @@ export function campaignViewOf(row: CampaignReadRow, now: Date, opts: { includeI
       backers: Number(row.backers),
       percent: Math.floor((raisedMinor * 100) / goalMinor),
       status,
-      secondsLeft: status === 'ended' ? 0 : Math.max(0, Math.floor((endsAt.getTime() - Math.max(now.getTime(), startsAt.getTime())) / 1000)),
+      secondsLeft:
+        status === 'ended' ? 0 : Math.max(0, Math.floor((endsAt.getTime() - Math.max(now.getTime(), startsAt.getTime())) / 1000)),
       asOf: now.toISOString(),
     },
   };
@@ -87,8 +86,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
     return row;
   }
 
-  const tierRowView = (t: typeof tiers.$inferSelect) =>
-    tierView({ ...t, estimatedDelivery: t.estimatedDelivery ?? null });
+  const tierRowView = (t: typeof tiers.$inferSelect) => tierView({ ...t, estimatedDelivery: t.estimatedDelivery ?? null });
 
   return {
     invalidate() {
@@ -113,7 +111,14 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
     async backers(slug: string, limit: number) {
       const campaign = await requireCampaign(slug);
       const rows = await db
-        .select({ id: pledges.id, publicName: pledges.publicName, message: pledges.message, tierTitle: tiers.title, kind: pledges.kind, paidAt: pledges.paidAt })
+        .select({
+          id: pledges.id,
+          publicName: pledges.publicName,
+          message: pledges.message,
+          tierTitle: tiers.title,
+          kind: pledges.kind,
+          paidAt: pledges.paidAt,
+        })
         .from(pledges)
         .leftJoin(tiers, eq(tiers.id, pledges.tierId))
         .where(and(eq(pledges.campaignId, campaign.id), inArray(pledges.state, ['paid', 'partly_refunded'])))
@@ -158,7 +163,14 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           endsAt: c.endsAt.toISOString(),
           storyLength: c.story.length,
         });
-        await recordAudit(tx, { actorId, action: 'campaign.updated', subjectType: 'campaign', subjectId: before.id, before: pick(before), after: pick(values) });
+        await recordAudit(tx, {
+          actorId,
+          action: 'campaign.updated',
+          subjectType: 'campaign',
+          subjectId: before.id,
+          before: pick(before),
+          after: pick(values),
+        });
       });
       cache.clear();
       return this.view(slug, { fresh: true, includeInactive: true });
@@ -181,7 +193,11 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
     async updateTier({ actorId, slug, tierId, input }: { actorId: string; slug: string; tierId: string; input: TierInput }) {
       const tier = await db.transaction(async (tx) => {
         const campaign = await requireCampaign(slug, tx as unknown as Db);
-        const [before] = await tx.select().from(tiers).where(and(eq(tiers.id, tierId), eq(tiers.campaignId, campaign.id))).for('update');
+        const [before] = await tx
+          .select()
+          .from(tiers)
+          .where(and(eq(tiers.id, tierId), eq(tiers.campaignId, campaign.id)))
+          .for('update');
         if (!before) throw notFound('campaigns.tier_not_found', 'This campaign has no such tier.');
         if (input.kind !== before.kind && before.soldCount > 0) {
           throw conflict('campaigns.tier_kind_locked', 'A tier that has backers cannot switch between one-time and monthly.');
@@ -202,7 +218,14 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           .where(eq(tiers.id, before.id))
           .returning();
         const { processorPriceId: _p, createdAt: _c, updatedAt: _u, ...auditBefore } = before;
-        await recordAudit(tx, { actorId, action: 'tier.updated', subjectType: 'tier', subjectId: before.id, before: auditBefore, after: input });
+        await recordAudit(tx, {
+          actorId,
+          action: 'tier.updated',
+          subjectType: 'tier',
+          subjectId: before.id,
+          before: auditBefore,
+          after: input,
+        });
         return row!;
       });
       cache.clear();
@@ -212,7 +235,11 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
     async replaceStretchTargets({ actorId, slug, input }: { actorId: string; slug: string; input: StretchTargetsInput }) {
       await db.transaction(async (tx) => {
         const campaign = await requireCampaign(slug, tx as unknown as Db);
-        const before = await tx.select().from(stretchTargets).where(eq(stretchTargets.campaignId, campaign.id)).orderBy(asc(stretchTargets.amountMinor));
+        const before = await tx
+          .select()
+          .from(stretchTargets)
+          .where(eq(stretchTargets.campaignId, campaign.id))
+          .orderBy(asc(stretchTargets.amountMinor));
         await tx.delete(stretchTargets).where(eq(stretchTargets.campaignId, campaign.id));
         if (input.targets.length > 0) await tx.insert(stretchTargets).values(input.targets.map((t) => ({ ...t, campaignId: campaign.id })));
         await recordAudit(tx, {
@@ -227,7 +254,6 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
       cache.clear();
       return this.view(slug, { fresh: true, includeInactive: true });
     },
-
   };
 }
 

@@ -33,7 +33,9 @@ export const tiers = pgTable(
   'tiers',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    campaignId: uuid('campaign_id').notNull().references(() => campaigns.id, { onDelete: 'cascade' }),
+    campaignId: uuid('campaign_id')
+      .notNull()
+      .references(() => campaigns.id, { onDelete: 'cascade' }),
     title: text('title').notNull(),
     description: text('description').notNull().default(''),
     minAmountMinor: bigint('min_amount_minor', { mode: 'number' }).notNull(),
@@ -62,11 +64,16 @@ export const stretchTargets = pgTable(
   'stretch_targets',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    campaignId: uuid('campaign_id').notNull().references(() => campaigns.id, { onDelete: 'cascade' }),
+    campaignId: uuid('campaign_id')
+      .notNull()
+      .references(() => campaigns.id, { onDelete: 'cascade' }),
     amountMinor: bigint('amount_minor', { mode: 'number' }).notNull(),
     title: text('title').notNull(),
     description: text('description').notNull().default(''),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('stretch_targets_campaign_idx').on(t.campaignId, t.amountMinor), check('stretch_targets_amount_positive', sql`${t.amountMinor} > 0`)],
+  (t) => [
+    index('stretch_targets_campaign_idx').on(t.campaignId, t.amountMinor),
+    check('stretch_targets_amount_positive', sql`${t.amountMinor} > 0`),
+  ],
 );

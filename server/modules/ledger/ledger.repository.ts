@@ -39,7 +39,11 @@ export async function pledgeTotals(tx: Tx, pledgeId: string) {
 }
 
 export async function entriesOfPledge(tx: Tx, pledgeId: string) {
-  return tx.select().from(ledgerEntries).where(eq(ledgerEntries.pledgeId, pledgeId)).orderBy(asc(ledgerEntries.occurredAt), asc(ledgerEntries.id));
+  return tx
+    .select()
+    .from(ledgerEntries)
+    .where(eq(ledgerEntries.pledgeId, pledgeId))
+    .orderBy(asc(ledgerEntries.occurredAt), asc(ledgerEntries.id));
 }
 
 export async function pledgeIdOfCharge(tx: Tx, chargeId: string): Promise<string | null> {

@@ -34,9 +34,6 @@ export const ledgerEntries = pgTable(
     index('ledger_entries_campaign_idx').on(t.campaignId, t.kind),
     index('ledger_entries_pledge_idx').on(t.pledgeId),
     check('ledger_entries_currency_iso', sql`${t.currency} ~ '^[A-Z]{3}$'`),
-    check(
-      'ledger_entries_sign',
-      sql`(${t.kind} = 'charge' AND ${t.amountMinor} > 0) OR (${t.kind} <> 'charge' AND ${t.amountMinor} < 0)`,
-    ),
+    check('ledger_entries_sign', sql`(${t.kind} = 'charge' AND ${t.amountMinor} > 0) OR (${t.kind} <> 'charge' AND ${t.amountMinor} < 0)`),
   ],
 );

@@ -21,7 +21,10 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
   const stripe = processor.stripe;
 
   async function ownMembership(accountId: string, membershipId: string) {
-    const [row] = await db.select().from(memberships).where(and(eq(memberships.id, membershipId), eq(memberships.backerId, accountId)));
+    const [row] = await db
+      .select()
+      .from(memberships)
+      .where(and(eq(memberships.id, membershipId), eq(memberships.backerId, accountId)));
     if (!row) throw notFound('memberships.not_found', 'There is no such membership in your account.');
     return row;
   }
@@ -33,7 +36,12 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
       .from(pledges)
       .innerJoin(campaigns, eq(campaigns.id, pledges.campaignId))
       .leftJoin(tiers, eq(tiers.id, pledges.tierId))
-      .where(inArray(pledges.id, rows.map((r) => r.pledgeId)));
+      .where(
+        inArray(
+          pledges.id,
+          rows.map((r) => r.pledgeId),
+        ),
+      );
     return rows.map((m) => {
       const j = joined.find((x) => x.pledge.id === m.pledgeId)!;
       return {
@@ -56,7 +64,11 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
     if (!LIVE_SUBSCRIPTION.includes(m.status)) throw conflict('memberships.ended', 'This membership has already ended.');
     let sub;
     try {
-      sub = await stripe.subscriptions.update(m.subscriptionId, { cancel_at_period_end: cancel }, { idempotencyKey: `sub-cape-${m.subscriptionId}-${cancel}-${Date.now()}` });
+      sub = await stripe.subscriptions.update(
+        m.subscriptionId,
+        { cancel_at_period_end: cancel },
+        { idempotencyKey: `sub-cape-${m.subscriptionId}-${cancel}-${Date.now()}` },
+      );
     } catch (err) {
       throw processorUnavailable(err);
     }
@@ -95,7 +107,10 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
     async cardUpdateUrl(accountId: string, id: string) {
       const m = await ownMembership(accountId, id);
       try {
-        const portal = await stripe.billingPortal.sessions.create({ customer: m.customerId, return_url: `${config.PUBLIC_URL}/my-support/memberships` });
+        const portal = await stripe.billingPortal.sessions.create({
+          customer: m.customerId,
+          return_url: `${config.PUBLIC_URL}/my-support/memberships`,
+        });
         return portal.url;
       } catch (err) {
         throw processorUnavailable(err);
@@ -144,7 +159,10 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
     async exportData(accountId: string) {
       const [account] = await db.select().from(accounts).where(eq(accounts.id, accountId));
       const roles = await db.select({ role: accountRoles.role }).from(accountRoles).where(eq(accountRoles.accountId, accountId));
-      const ids = await db.select({ provider: identities.provider, createdAt: identities.createdAt }).from(identities).where(eq(identities.accountId, accountId));
+      const ids = await db
+        .select({ provider: identities.provider, createdAt: identities.createdAt })
+        .from(identities)
+        .where(eq(identities.accountId, accountId));
       const pledgeList = await this.pledges(accountId);
       const audit = await db
         .select({ at: auditLog.at, action: auditLog.action, subjectType: auditLog.subjectType, subjectId: auditLog.subjectId })
@@ -157,7 +175,13 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
         version: 1,
         exportedAt: new Date().toISOString(),
         account: account
-          ? { id: account.id, email: account.email, displayName: account.displayName, emailVerifiedAt: account.emailVerifiedAt?.toISOString() ?? null, createdAt: account.createdAt.toISOString() }
+          ? {
+              id: account.id,
+              email: account.email,
+              displayName: account.displayName,
+              emailVerifiedAt: account.emailVerifiedAt?.toISOString() ?? null,
+              createdAt: account.createdAt.toISOString(),
+            }
           : null,
         roles: roles.map((r) => r.role),
         signInMethods: ids.map((i) => ({ provider: i.provider, since: i.createdAt.toISOString() })),
@@ -175,12 +199,17 @@ export function createMySupportService(deps: { db: Db; config: Config; processor
      */
     async deleteAccount(account: { id: string; email: string; roles: readonly string[] }, confirmEmail: string) {
       if (confirmEmail.trim().toLowerCase() !== account.email.toLowerCase()) {
-        throw badRequest('account.confirm_mismatch', 'Type your e-mail address exactly to confirm.', [{ path: 'confirmEmail', message: 'does not match your e-mail address' }]);
+        throw badRequest('account.confirm_mismatch', 'Type your e-mail address exactly to confirm.', [
+          { path: 'confirmEmail', message: 'does not match your e-mail address' },
+        ]);
       }
       if (account.roles.some((r) => r !== 'backer')) {
         throw conflict('account.staff_cannot_delete', 'Staff accounts are removed by an admin: ask one to revoke your roles first.');
       }
-      const live = await db.select().from(memberships).where(and(eq(memberships.backerId, account.id), inArray(memberships.status, LIVE_SUBSCRIPTION)));
+      const live = await db
+        .select()
+        .from(memberships)
+        .where(and(eq(memberships.backerId, account.id), inArray(memberships.status, LIVE_SUBSCRIPTION)));
       for (const m of live) {
         try {
           await stripe.subscriptions.cancel(m.subscriptionId, {}, { idempotencyKey: `cancel-${m.subscriptionId}` });

@@ -47,7 +47,14 @@ export function decodeUpload(bytes: Buffer): { text: string; format: string } {
   if (text.trim() === '') throw emptyUpload();
   const format = detectFormat(text);
   if (format === 'unknown') {
-    const first = (text.replace(/^\uFEFF/, '').split('\n').find((l) => l.trim() !== '') ?? '').trim().slice(0, 40);
+    const first = (
+      text
+        .replace(/^\uFEFF/, '')
+        .split('\n')
+        .find((l) => l.trim() !== '') ?? ''
+    )
+      .trim()
+      .slice(0, 40);
     throw unrecognisedFormat(first.replace(/[^\x20-\x7e]/g, '?'));
   }
   return { text, format };
@@ -87,13 +94,28 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
   for (const r of parsed.records) {
     if (r.catalogNumberInt !== craft.catalogNumberInt) {
       ownInvalid++;
-      errors.push({ line: r.sourceLine, field: 'catalog number', message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`, expected: craft.catalogNumber });
+      errors.push({
+        line: r.sourceLine,
+        field: 'catalog number',
+        message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`,
+        expected: craft.catalogNumber,
+      });
       continue;
     }
     const d = deriveElementSet(r);
-    if (!(Number.isFinite(d.semiMajorAxisKm) && Number.isFinite(d.apogeeAltitudeKm) && Number.isFinite(d.perigeeAltitudeKm) && d.perigeeAltitudeKm > -6378)) {
+    if (!(
+      Number.isFinite(d.semiMajorAxisKm) &&
+      Number.isFinite(d.apogeeAltitudeKm) &&
+      Number.isFinite(d.perigeeAltitudeKm) &&
+      d.perigeeAltitudeKm > -6378
+    )) {
       ownInvalid++;
-      errors.push({ line: r.sourceLine, field: 'mean motion', message: 'the elements give no valid orbit', expected: 'a mean motion and eccentricity of a closed orbit' });
+      errors.push({
+        line: r.sourceLine,
+        field: 'mean motion',
+        message: 'the elements give no valid orbit',
+        expected: 'a mean motion and eccentricity of a closed orbit',
+      });
       continue;
     }
     const key = epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo);
@@ -104,12 +126,27 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
     seen.add(key);
     // Field by field: spreading the parser's objects is an order of magnitude slower at 100k sets.
     prepared.push({
-      catalogNumber: r.catalogNumber, catalogNumberInt: r.catalogNumberInt, classification: r.classification,
-      internationalDesignator: r.internationalDesignator, epoch: r.epoch, epochMs: r.epochMs, meanMotionRevPerDay: r.meanMotionRevPerDay,
-      meanMotionDotRevPerDay2: r.meanMotionDotRevPerDay2, meanMotionDdotRevPerDay3: r.meanMotionDdotRevPerDay3, bstar: r.bstar,
-      inclinationDeg: r.inclinationDeg, raanDeg: r.raanDeg, eccentricity: r.eccentricity, argPerigeeDeg: r.argPerigeeDeg,
-      meanAnomalyDeg: r.meanAnomalyDeg, ephemerisType: r.ephemerisType, elementSetNo: r.elementSetNo, revAtEpoch: r.revAtEpoch,
-      sourceLine: r.sourceLine, line1: r.line1, line2: r.line2,
+      catalogNumber: r.catalogNumber,
+      catalogNumberInt: r.catalogNumberInt,
+      classification: r.classification,
+      internationalDesignator: r.internationalDesignator,
+      epoch: r.epoch,
+      epochMs: r.epochMs,
+      meanMotionRevPerDay: r.meanMotionRevPerDay,
+      meanMotionDotRevPerDay2: r.meanMotionDotRevPerDay2,
+      meanMotionDdotRevPerDay3: r.meanMotionDdotRevPerDay3,
+      bstar: r.bstar,
+      inclinationDeg: r.inclinationDeg,
+      raanDeg: r.raanDeg,
+      eccentricity: r.eccentricity,
+      argPerigeeDeg: r.argPerigeeDeg,
+      meanAnomalyDeg: r.meanAnomalyDeg,
+      ephemerisType: r.ephemerisType,
+      elementSetNo: r.elementSetNo,
+      revAtEpoch: r.revAtEpoch,
+      sourceLine: r.sourceLine,
+      line1: r.line1,
+      line2: r.line2,
       semiMajorAxisKm: d.semiMajorAxisKm,
       apogeeAltitudeKm: d.apogeeAltitudeKm,
       perigeeAltitudeKm: d.perigeeAltitudeKm,
@@ -130,12 +167,31 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
 }
 
 const INSERT_COLUMNS = [
-  ['source_line', 'int4'], ['catalog_number_int', 'int4'], ['epoch', 'timestamptz'], ['epoch_ms', 'float8'], ['element_set_no', 'int4'],
-  ['classification', 'text'], ['international_designator', 'text'], ['mean_motion_rev_per_day', 'float8'], ['mean_motion_dot_rev_per_day2', 'float8'],
-  ['mean_motion_ddot_rev_per_day3', 'float8'], ['bstar', 'float8'], ['inclination_deg', 'float8'], ['raan_deg', 'float8'], ['eccentricity', 'float8'],
-  ['arg_perigee_deg', 'float8'], ['mean_anomaly_deg', 'float8'], ['rev_at_epoch', 'int4'], ['line1', 'text'], ['line2', 'text'],
-  ['semi_major_axis_km', 'float8'], ['apogee_altitude_km', 'float8'], ['perigee_altitude_km', 'float8'], ['mean_altitude_km', 'float8'],
-  ['period_min', 'float8'], ['specific_energy_j_per_kg', 'float8'],
+  ['source_line', 'int4'],
+  ['catalog_number_int', 'int4'],
+  ['epoch', 'timestamptz'],
+  ['epoch_ms', 'float8'],
+  ['element_set_no', 'int4'],
+  ['classification', 'text'],
+  ['international_designator', 'text'],
+  ['mean_motion_rev_per_day', 'float8'],
+  ['mean_motion_dot_rev_per_day2', 'float8'],
+  ['mean_motion_ddot_rev_per_day3', 'float8'],
+  ['bstar', 'float8'],
+  ['inclination_deg', 'float8'],
+  ['raan_deg', 'float8'],
+  ['eccentricity', 'float8'],
+  ['arg_perigee_deg', 'float8'],
+  ['mean_anomaly_deg', 'float8'],
+  ['rev_at_epoch', 'int4'],
+  ['line1', 'text'],
+  ['line2', 'text'],
+  ['semi_major_axis_km', 'float8'],
+  ['apogee_altitude_km', 'float8'],
+  ['perigee_altitude_km', 'float8'],
+  ['mean_altitude_km', 'float8'],
+  ['period_min', 'float8'],
+  ['specific_energy_j_per_kg', 'float8'],
 ] as const;
 
 const INCOMING_COLUMNS = INSERT_COLUMNS.map(([n, t]) => `${n} ${t}`).join(', ');
@@ -183,7 +239,12 @@ async function importOutliers(client: pg.PoolClient, spacecraftId: string, rows:
     [spacecraftId, start - OUTLIER_BIN_MS, end + OUTLIER_BIN_MS],
   );
   // New rows have no id yet: they go in as −1, −2, … (stored ids are positive).
-  const input: OutlierInput[] = stored.map((r) => ({ id: Number(r.id), epochMs: r.epoch_ms, semiMajorAxisKm: r.a, perigeeAltitudeKm: r.p }));
+  const input: OutlierInput[] = stored.map((r) => ({
+    id: Number(r.id),
+    epochMs: r.epoch_ms,
+    semiMajorAxisKm: r.a,
+    perigeeAltitudeKm: r.p,
+  }));
   for (let k = 0; k < rows.length; k++) {
     const r = rows[k]!;
     input.push({ id: -(k + 1), epochMs: r.epochMs, semiMajorAxisKm: r.semiMajorAxisKm, perigeeAltitudeKm: r.perigeeAltitudeKm });
@@ -223,7 +284,9 @@ export function jobView(row: JobRow, existingFile?: { id: string; filename: stri
     counts: { records: row.recordCount, new: row.newCount, duplicate: row.duplicateCount, invalid: row.invalidCount },
     importedCount: row.importedCount,
     errors: row.errors as ParseError[],
-    existingFile: existingFile ? { id: existingFile.id, filename: existingFile.filename, uploadedAt: existingFile.uploadedAt.toISOString() } : null,
+    existingFile: existingFile
+      ? { id: existingFile.id, filename: existingFile.filename, uploadedAt: existingFile.uploadedAt.toISOString() }
+      : null,
     fileId: row.fileId,
     message: row.message,
     createdAt: row.createdAt.toISOString(),
@@ -249,7 +312,11 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         logger?.error({ err, jobId }, 'element-set ingest failed');
         await db
           .update(ingestJobs)
-          .set({ status: 'failed', message: 'The import failed on our side and nothing was stored. Try again; if it fails again, report it.', updatedAt: new Date() })
+          .set({
+            status: 'failed',
+            message: 'The import failed on our side and nothing was stored. Try again; if it fails again, report it.',
+            updatedAt: new Date(),
+          })
           .where(eq(ingestJobs.id, jobId))
           .catch(() => undefined);
       })
@@ -269,14 +336,22 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     const writer = await pool.connect();
     const held = writer
       .query('update orbit_ingest_jobs set content = $2 where id = $1', [jobId, text])
-      .then(() => null, (error: unknown) => ({ error }))
+      .then(
+        () => null,
+        (error: unknown) => ({ error }),
+      )
       .finally(() => writer.release());
     // Let the socket take the text before the parse holds the event loop (bounded: a slow reader only costs overlap).
-    const socket = (writer as unknown as { connection?: { stream?: NodeJS.WritableStream & { writableLength?: number } } }).connection?.stream;
+    const socket = (writer as unknown as { connection?: { stream?: NodeJS.WritableStream & { writableLength?: number } } }).connection
+      ?.stream;
     if (socket && (socket.writableLength ?? 0) > 0) {
       await new Promise<void>((resolve) => {
         const timer = setTimeout(done, 2000);
-        function done() { clearTimeout(timer); socket!.removeListener('drain', done); resolve(); }
+        function done() {
+          clearTimeout(timer);
+          socket!.removeListener('drain', done);
+          resolve();
+        }
         socket.once('drain', done);
       });
     }
@@ -288,11 +363,18 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     // Count what the history already holds, in batches so progress moves on large files.
     let stored = 0;
     const fresh: PreparedSet[] = [];
-    let lo = Infinity, hi = -Infinity;
-    for (const r of result.prepared) { if (r.epochMs < lo) lo = r.epochMs; if (r.epochMs > hi) hi = r.epochMs; }
+    let lo = Infinity,
+      hi = -Infinity;
+    for (const r of result.prepared) {
+      if (r.epochMs < lo) lo = r.epochMs;
+      if (r.epochMs > hi) hi = r.epochMs;
+    }
     // A file that does not overlap the stored history in time cannot hold a stored set: skip the per-set lookups.
     const { rows: overlap } = total
-      ? await pool.query<{ n: number }>('select count(*)::int as n from element_sets where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms <= $3', [craft.id, lo - 1, hi + 1])
+      ? await pool.query<{ n: number }>(
+          'select count(*)::int as n from element_sets where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms <= $3',
+          [craft.id, lo - 1, hi + 1],
+        )
       : { rows: [{ n: 0 }] };
     if (!overlap[0]?.n) for (const r of result.prepared) fresh.push(r);
     for (let i = 0; overlap[0]?.n && i < total; i += INSERT_BATCH) {
@@ -309,7 +391,10 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         if (have.has(epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo))) stored++;
         else fresh.push(r);
       }
-      await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [jobId, Math.min(total, i + chunk.length)]);
+      await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [
+        jobId,
+        Math.min(total, i + chunk.length),
+      ]);
     }
     remember(jobId, fresh);
     await db
@@ -342,12 +427,23 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
       // Nothing new to store: no file row either, so an all-invalid or already-stored upload leaves no trace but the job.
       await db
         .update(ingestJobs)
-        .set({ status: 'imported', importedCount: 0, content: null, fileId: job.existingFileId, message: importMessage(0, job.duplicateCount), updatedAt: new Date() })
+        .set({
+          status: 'imported',
+          importedCount: 0,
+          content: null,
+          fileId: job.existingFileId,
+          message: importMessage(0, job.duplicateCount),
+          updatedAt: new Date(),
+        })
         .where(eq(ingestJobs.id, job.id));
       return;
     }
-    let lo = Infinity, hi = -Infinity;
-    for (const r of rows) { if (r.epochMs < lo) lo = r.epochMs; if (r.epochMs > hi) hi = r.epochMs; }
+    let lo = Infinity,
+      hi = -Infinity;
+    for (const r of rows) {
+      if (r.epochMs < lo) lo = r.epochMs;
+      if (r.epochMs > hi) hi = r.epochMs;
+    }
     const client = await pool.connect();
     let imported = 0;
     let fileId: string;
@@ -362,27 +458,47 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         `insert into element_set_files (spacecraft_id, content_sha256, filename, format, byte_size, content, record_count, imported_count, duplicate_count, invalid_count, uploaded_by)
          select $1, $2, $3, $4, $5, coalesce(j.content, ''), $6, 0, $7, $8, $9 from orbit_ingest_jobs j where j.id = $10
          on conflict (spacecraft_id, content_sha256) do nothing returning id`,
-        [craft.id, job.contentSha256, job.filename, job.format ?? 'unknown', job.byteSize, job.recordCount, job.duplicateCount, job.invalidCount, job.createdBy, job.id],
+        [
+          craft.id,
+          job.contentSha256,
+          job.filename,
+          job.format ?? 'unknown',
+          job.byteSize,
+          job.recordCount,
+          job.duplicateCount,
+          job.invalidCount,
+          job.createdBy,
+          job.id,
+        ],
       );
       const newFile = ins.rows.length > 0;
       if (newFile) fileId = ins.rows[0]!.id;
       else {
-        const { rows: ex } = await client.query<{ id: string }>('select id from element_set_files where spacecraft_id = $1 and content_sha256 = $2', [craft.id, job.contentSha256]);
+        const { rows: ex } = await client.query<{ id: string }>(
+          'select id from element_set_files where spacecraft_id = $1 and content_sha256 = $2',
+          [craft.id, job.contentSha256],
+        );
         fileId = ex[0]!.id;
       }
       await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [job.id, rows.length]);
-      const progress = (n: number) => pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [job.id, n]).catch(() => undefined);
+      const progress = (n: number) =>
+        pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [job.id, n]).catch(() => undefined);
       // The outlier screen of the touched bins runs in turns while the COPY streams (the database does most of
       // that work), so the rows go in once, unflagged, and only the few outliers are marked after.
       // (Its SELECT is queued on this client ahead of the COPY; the settled form keeps a failure from going unhandled.)
-      const outliers = importOutliers(client, craft.id, rows, lo, hi).then((value) => ({ value }), (error: unknown) => ({ error }));
+      const outliers = importOutliers(client, craft.id, rows, lo, hi).then(
+        (value) => ({ value }),
+        (error: unknown) => ({ error }),
+      );
       // Straight COPY into the table first. Should any set be there already (a concurrent import of the same
       // file won the race), the unique key refuses the COPY; then COPY into a scratch table and
       // INSERT … ON CONFLICT DO NOTHING. Either way the key, not this code, keeps every set single.
       await client.query('savepoint direct_copy');
       let direct = true;
       try {
-        const copy = client.query(copyFrom(`copy element_sets (spacecraft_id, file_id, ${INSERT_COLUMNS.map(([n]) => n).join(', ')}) from stdin`));
+        const copy = client.query(
+          copyFrom(`copy element_sets (spacecraft_id, file_id, ${INSERT_COLUMNS.map(([n]) => n).join(', ')}) from stdin`),
+        );
         await pipeline(Readable.from(copyChunks(rows, progress, `${craft.id}\t${fileId}\t`)), copy);
         await client.query('release savepoint direct_copy');
         imported = rows.length;
@@ -409,19 +525,29 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
           );
         }
         if (changed.length) {
-          await client.query('update element_sets e set outlier = k.outlier from unnest($1::bigint[], $2::bool[]) as k(id, outlier) where e.id = k.id',
-            [changed.map((c) => c.id), changed.map((c) => c.outlier)]);
+          await client.query(
+            'update element_sets e set outlier = k.outlier from unnest($1::bigint[], $2::bool[]) as k(id, outlier) where e.id = k.id',
+            [changed.map((c) => c.id), changed.map((c) => c.outlier)],
+          );
         }
       } else if (imported > 0) {
         // Some rows were stored already, so the screen above counted them twice: redo it from the table.
         await refreshOutliers(client, craft.id, lo, hi);
       }
       if (newFile) {
-        await client.query('update element_set_files set imported_count = $2, duplicate_count = $3 where id = $1', [fileId, imported, job.duplicateCount + (rows.length - imported)]);
+        await client.query('update element_set_files set imported_count = $2, duplicate_count = $3 where id = $1', [
+          fileId,
+          imported,
+          job.duplicateCount + (rows.length - imported),
+        ]);
       }
       await client.query(
         `insert into audit_log (actor_id, action, subject_type, subject_id, after) values ($1, 'element_sets.imported', 'element_set_file', $2, $3)`,
-        [accountId, fileId, JSON.stringify({ jobId: job.id, filename: job.filename, imported, duplicates: job.duplicateCount + (rows.length - imported) })],
+        [
+          accountId,
+          fileId,
+          JSON.stringify({ jobId: job.id, filename: job.filename, imported, duplicates: job.duplicateCount + (rows.length - imported) }),
+        ],
       );
       await client.query('commit');
     } catch (err) {
@@ -448,10 +574,18 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
   async function getRow(jobId: string): Promise<JobRow> {
     const [row] = await db.select(jobColumns).from(ingestJobs).where(eq(ingestJobs.id, jobId));
     if (!row) throw uploadNotFound();
-    if ((row.status === 'parsing' || row.status === 'importing') && !running.has(row.id) && Date.now() - row.updatedAt.getTime() > STALE_AFTER_MS) {
+    if (
+      (row.status === 'parsing' || row.status === 'importing') &&
+      !running.has(row.id) &&
+      Date.now() - row.updatedAt.getTime() > STALE_AFTER_MS
+    ) {
       const [failed] = await db
         .update(ingestJobs)
-        .set({ status: 'failed', message: 'This upload was interrupted (the server restarted) and nothing was imported. Upload the file again.', updatedAt: new Date() })
+        .set({
+          status: 'failed',
+          message: 'This upload was interrupted (the server restarted) and nothing was imported. Upload the file again.',
+          updatedAt: new Date(),
+        })
         .where(eq(ingestJobs.id, row.id))
         .returning(jobColumns);
       return failed!;
@@ -527,7 +661,13 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         .returning(jobColumns);
       if (!row) throw uploadNotReady(current.status);
       parsedCache.delete(jobId);
-      await recordAudit(db, { actorId: accountId, action: 'element_sets.upload_cancelled', subjectType: 'ingest_job', subjectId: jobId, after: { filename: row.filename } });
+      await recordAudit(db, {
+        actorId: accountId,
+        action: 'element_sets.upload_cancelled',
+        subjectType: 'ingest_job',
+        subjectId: jobId,
+        after: { filename: row.filename },
+      });
       return view(row);
     },
 

@@ -8,10 +8,18 @@ export const uploadNotFound = () => notFound('orbit.upload_not_found', 'No uploa
 export const uploadNotReady = (status: string) =>
   conflict('orbit.upload_not_ready', `This upload is ${status}; only a previewed upload can be imported or cancelled.`);
 export const fileTooLarge = (limitBytes: number) =>
-  new AppError(413, 'orbit.file_too_large', `The file is larger than the ${formatBytes(limitBytes)} limit for element-set uploads. Split it into smaller files.`);
+  new AppError(
+    413,
+    'orbit.file_too_large',
+    `The file is larger than the ${formatBytes(limitBytes)} limit for element-set uploads. Split it into smaller files.`,
+  );
 export const emptyUpload = () => badRequest('orbit.empty_upload', 'Choose a file or paste some element sets: the upload was empty.');
 export const notText = (why: string) =>
-  new AppError(415, 'orbit.not_text', `This file is not text (${why}). Upload two-/three-line element sets or CCSDS OMM (KVN, XML, JSON or CSV).`);
+  new AppError(
+    415,
+    'orbit.not_text',
+    `This file is not text (${why}). Upload two-/three-line element sets or CCSDS OMM (KVN, XML, JSON or CSV).`,
+  );
 export const unrecognisedFormat = (firstLine: string) =>
   new AppError(
     415,
@@ -20,7 +28,8 @@ export const unrecognisedFormat = (firstLine: string) =>
   );
 export const sailingPeriodNotFound = () => notFound('orbit.sailing_period_not_found', 'No sailing period with this id.');
 export const snapshotNotFound = () => notFound('orbit.snapshot_not_found', 'No snapshot with this id.');
-export const snapshotNotYours = () => new AppError(403, 'orbit.snapshot_not_yours', 'Only the engineer who saved this snapshot (or an admin) may change it.');
+export const snapshotNotYours = () =>
+  new AppError(403, 'orbit.snapshot_not_yours', 'Only the engineer who saved this snapshot (or an admin) may change it.');
 export const fileNotFound = () => notFound('orbit.file_not_found', 'No element-set file with this id.');
 
 export function formatBytes(bytes: number): string {

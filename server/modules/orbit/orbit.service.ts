@@ -36,7 +36,16 @@ const sortColumns = { epoch: elementSets.epochMs, ...orbitColumns } as const;
 
 type PeriodRow = typeof sailingPeriods.$inferSelect;
 export function sailingPeriodView(p: PeriodRow) {
-  return { id: p.id, spacecraftId: p.spacecraftId, startAt: p.startAt.toISOString(), endAt: p.endAt.toISOString(), mode: p.mode, note: p.note, createdAt: p.createdAt.toISOString(), updatedAt: p.updatedAt.toISOString() };
+  return {
+    id: p.id,
+    spacecraftId: p.spacecraftId,
+    startAt: p.startAt.toISOString(),
+    endAt: p.endAt.toISOString(),
+    mode: p.mode,
+    note: p.note,
+    createdAt: p.createdAt.toISOString(),
+    updatedAt: p.updatedAt.toISOString(),
+  };
 }
 
 /**
@@ -45,7 +54,16 @@ export function sailingPeriodView(p: PeriodRow) {
  */
 const TREND_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier, element_set_no
   from element_sets where spacecraft_id = $1 order by epoch_ms, element_set_no`;
-type TrendRow = [epochMs: number, apogeeKm: number, perigeeKm: number, meanAltitudeKm: number, semiMajorAxisKm: number, energyJPerKg: number, outlier: boolean, elementSetNo: number];
+type TrendRow = [
+  epochMs: number,
+  apogeeKm: number,
+  perigeeKm: number,
+  meanAltitudeKm: number,
+  semiMajorAxisKm: number,
+  energyJPerKg: number,
+  outlier: boolean,
+  elementSetNo: number,
+];
 
 type WindowPoint = TrendSample & { meanAltitudeKm: number };
 /** The rate window's result: the costly part (Theil–Sen fits over the window's pairs), kept per history state. */
@@ -69,18 +87,32 @@ function rateLine(trend: WindowTrend, key: TrendKey, slopePerDay: number) {
  */
 function windowTrend(rows: readonly TrendRow[], fromMs: number, toMs: number, catalogNumber: string): WindowTrend {
   const inWindow: { catalogNumber: string; epochMs: number; elementSetNo: number; row: TrendRow }[] = [];
-  for (const row of rows) if (row[0] >= fromMs && row[0] <= toMs) inWindow.push({ catalogNumber, epochMs: row[0], elementSetNo: row[7], row });
+  for (const row of rows)
+    if (row[0] >= fromMs && row[0] <= toMs) inWindow.push({ catalogNumber, epochMs: row[0], elementSetNo: row[7], row });
   const { sets: unique, duplicatesRemoved } = dedupeElementSets(inWindow);
   const points: WindowPoint[] = unique.map(({ row: r }) => ({
-    epochMs: r[0], apogeeAltitudeKm: r[1], perigeeAltitudeKm: r[2], meanAltitudeKm: r[3], semiMajorAxisKm: r[4], specificEnergyJPerKg: r[5],
-    outlier: false, outlierScore: 0,
+    epochMs: r[0],
+    apogeeAltitudeKm: r[1],
+    perigeeAltitudeKm: r[2],
+    meanAltitudeKm: r[3],
+    semiMajorAxisKm: r[4],
+    specificEnergyJPerKg: r[5],
+    outlier: false,
+    outlierScore: 0,
   }));
   const fit = fitTrendSamples(points);
   return {
     points,
     rates: fit.rates,
     intervals: fit.intervals,
-    counts: { input: inWindow.length, inWindow: inWindow.length, duplicatesRemoved, outliers: fit.outliers, used: fit.used, otherObjects: 0 },
+    counts: {
+      input: inWindow.length,
+      inWindow: inWindow.length,
+      duplicatesRemoved,
+      outliers: fit.outliers,
+      used: fit.used,
+      otherObjects: 0,
+    },
     spanDays: points.length ? (points[points.length - 1]!.epochMs - points[0]!.epochMs) / DAY_MS : 0,
   };
 }
@@ -134,12 +166,20 @@ export function createOrbitService({ db }: { db: Db }) {
     // reused until an import changes it. Asked alongside the rows (another pooled connection), not after them.
     const [{ rows }, { rows: ver }] = await Promise.all([
       pool.query<TrendRow>({ text: TREND_SQL, values: [craft.id], rowMode: 'array' }),
-      pool.query<{ n: number; max: string | null }>('select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1', [craft.id]),
+      pool.query<{ n: number; max: string | null }>(
+        'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
+        [craft.id],
+      ),
     ]);
     const n = rows.length;
     const series = {
-      epochMs: new Array<number>(n), apogeeKm: new Array<number>(n), perigeeKm: new Array<number>(n), meanAltitudeKm: new Array<number>(n),
-      semiMajorAxisKm: new Array<number>(n), energyJPerKg: new Array<number>(n), outlier: [] as number[],
+      epochMs: new Array<number>(n),
+      apogeeKm: new Array<number>(n),
+      perigeeKm: new Array<number>(n),
+      meanAltitudeKm: new Array<number>(n),
+      semiMajorAxisKm: new Array<number>(n),
+      energyJPerKg: new Array<number>(n),
+      outlier: [] as number[],
     };
     for (let i = 0; i < n; i++) {
       const r = rows[i]!;
@@ -197,7 +237,10 @@ export function createOrbitService({ db }: { db: Db }) {
           .orderBy(...order)
           .limit(q.pageSize)
           .offset((q.page - 1) * q.pageSize),
-        db.select({ n: sql<number>`count(*)::int` }).from(elementSets).where(where),
+        db
+          .select({ n: sql<number>`count(*)::int` })
+          .from(elementSets)
+          .where(where),
       ]);
       const total = count?.n ?? 0;
       return {
@@ -220,12 +263,25 @@ export function createOrbitService({ db }: { db: Db }) {
         .where(historyFilter(spacecraftId, q))
         .orderBy(q.dir === 'asc' ? asc(col) : desc(col), q.dir === 'asc' ? asc(elementSets.id) : desc(elementSets.id));
       const esc = (v: string) => (/[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v);
-      const lines = ['epoch_utc,element_set_no,semi_major_axis_km,eccentricity,inclination_deg,apogee_altitude_km,perigee_altitude_km,bstar_per_earth_radius,outlier,source_file,source_line'];
+      const lines = [
+        'epoch_utc,element_set_no,semi_major_axis_km,eccentricity,inclination_deg,apogee_altitude_km,perigee_altitude_km,bstar_per_earth_radius,outlier,source_file,source_line',
+      ];
       for (const r of rows) {
-        lines.push([
-          r.epoch.toISOString(), r.elementSetNo, r.semiMajorAxisKm.toFixed(4), r.eccentricity.toFixed(7), r.inclinationDeg.toFixed(4),
-          r.apogeeAltitudeKm.toFixed(4), r.perigeeAltitudeKm.toFixed(4), r.bstar.toExponential(5), r.outlier, esc(r.fileName), r.sourceLine,
-        ].join(','));
+        lines.push(
+          [
+            r.epoch.toISOString(),
+            r.elementSetNo,
+            r.semiMajorAxisKm.toFixed(4),
+            r.eccentricity.toFixed(7),
+            r.inclinationDeg.toFixed(4),
+            r.apogeeAltitudeKm.toFixed(4),
+            r.perigeeAltitudeKm.toFixed(4),
+            r.bstar.toExponential(5),
+            r.outlier,
+            esc(r.fileName),
+            r.sourceLine,
+          ].join(','),
+        );
       }
       return lines.join('\r\n') + '\r\n';
     },
@@ -247,7 +303,14 @@ export function createOrbitService({ db }: { db: Db }) {
         rows.map((r) => ({ epochMs: r.epoch_ms, specificEnergyJPerKg: r.e, semiMajorAxisKm: r.a, outlier: r.outlier })),
         periods.map((p) => ({ startMs: p.startAt.getTime(), endMs: p.endAt.getTime(), mode: p.mode as SailMode })),
       );
-      const { rows: latestRows } = await pool.query<{ epoch_ms: number; mean_altitude_km: number; semi_major_axis_km: number; eccentricity: number; inclination_deg: number; raan_deg: number }>(
+      const { rows: latestRows } = await pool.query<{
+        epoch_ms: number;
+        mean_altitude_km: number;
+        semi_major_axis_km: number;
+        eccentricity: number;
+        inclination_deg: number;
+        raan_deg: number;
+      }>(
         'select epoch_ms, mean_altitude_km, semi_major_axis_km, eccentricity, inclination_deg, raan_deg from element_sets where spacecraft_id = $1 and not outlier order by epoch_ms desc limit 1',
         [craft.id],
       );
@@ -260,7 +323,11 @@ export function createOrbitService({ db }: { db: Db }) {
       const activities: SolarActivity[] = ['low', 'mean', 'high'];
       const byActivity = activities.map((activity) => {
         const raising = orbitEnergyBalance(sailCraftOf(craft, raisingArea), altitudeKm, { density: activity, betaDeg });
-        const edgeOn = orbitEnergyBalance(sailCraftOf(craft, craft.dragAreaEdgeOnM2), altitudeKm, { density: activity, betaDeg, sailing: false });
+        const edgeOn = orbitEnergyBalance(sailCraftOf(craft, craft.dragAreaEdgeOnM2), altitudeKm, {
+          density: activity,
+          betaDeg,
+          sailing: false,
+        });
         return {
           activity,
           densityKgPerM3: raising.densityKgPerM3,
@@ -302,9 +369,16 @@ export function createOrbitService({ db }: { db: Db }) {
       await craftOf(spacecraftId);
       const rows = await db
         .select({
-          id: elementSetFiles.id, filename: elementSetFiles.filename, format: elementSetFiles.format, byteSize: elementSetFiles.byteSize,
-          contentSha256: elementSetFiles.contentSha256, recordCount: elementSetFiles.recordCount, importedCount: elementSetFiles.importedCount,
-          duplicateCount: elementSetFiles.duplicateCount, invalidCount: elementSetFiles.invalidCount, uploadedAt: elementSetFiles.uploadedAt,
+          id: elementSetFiles.id,
+          filename: elementSetFiles.filename,
+          format: elementSetFiles.format,
+          byteSize: elementSetFiles.byteSize,
+          contentSha256: elementSetFiles.contentSha256,
+          recordCount: elementSetFiles.recordCount,
+          importedCount: elementSetFiles.importedCount,
+          duplicateCount: elementSetFiles.duplicateCount,
+          invalidCount: elementSetFiles.invalidCount,
+          uploadedAt: elementSetFiles.uploadedAt,
           uploadedBy: accounts.displayName,
         })
         .from(elementSetFiles)
@@ -333,10 +407,23 @@ export function createOrbitService({ db }: { db: Db }) {
       return db.transaction(async (tx) => {
         const [row] = await tx
           .insert(sailingPeriods)
-          .values({ spacecraftId, startAt: new Date(input.startAt), endAt: new Date(input.endAt), mode: input.mode, note: input.note, createdBy: actorId })
+          .values({
+            spacecraftId,
+            startAt: new Date(input.startAt),
+            endAt: new Date(input.endAt),
+            mode: input.mode,
+            note: input.note,
+            createdBy: actorId,
+          })
           .returning();
         const view = sailingPeriodView(row!);
-        await recordAudit(tx, { actorId, action: 'sailing_period.created', subjectType: 'sailing_period', subjectId: row!.id, after: view });
+        await recordAudit(tx, {
+          actorId,
+          action: 'sailing_period.created',
+          subjectType: 'sailing_period',
+          subjectId: row!.id,
+          after: view,
+        });
         return view;
       });
     },
@@ -347,11 +434,24 @@ export function createOrbitService({ db }: { db: Db }) {
         if (!before) throw sailingPeriodNotFound();
         const [row] = await tx
           .update(sailingPeriods)
-          .set({ startAt: new Date(input.startAt), endAt: new Date(input.endAt), mode: input.mode, note: input.note, updatedAt: new Date() })
+          .set({
+            startAt: new Date(input.startAt),
+            endAt: new Date(input.endAt),
+            mode: input.mode,
+            note: input.note,
+            updatedAt: new Date(),
+          })
           .where(eq(sailingPeriods.id, id))
           .returning();
         const view = sailingPeriodView(row!);
-        await recordAudit(tx, { actorId, action: 'sailing_period.updated', subjectType: 'sailing_period', subjectId: id, before: sailingPeriodView(before), after: view });
+        await recordAudit(tx, {
+          actorId,
+          action: 'sailing_period.updated',
+          subjectType: 'sailing_period',
+          subjectId: id,
+          before: sailingPeriodView(before),
+          after: view,
+        });
         return view;
       });
     },
@@ -360,7 +460,13 @@ export function createOrbitService({ db }: { db: Db }) {
       await db.transaction(async (tx) => {
         const [row] = await tx.delete(sailingPeriods).where(eq(sailingPeriods.id, id)).returning();
         if (!row) throw sailingPeriodNotFound();
-        await recordAudit(tx, { actorId, action: 'sailing_period.deleted', subjectType: 'sailing_period', subjectId: id, before: sailingPeriodView(row) });
+        await recordAudit(tx, {
+          actorId,
+          action: 'sailing_period.deleted',
+          subjectType: 'sailing_period',
+          subjectId: id,
+          before: sailingPeriodView(row),
+        });
       });
     },
 
@@ -368,13 +474,26 @@ export function createOrbitService({ db }: { db: Db }) {
     async publicSummary(slug: string) {
       const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.slug, slug));
       if (!craft) throw spacecraftNotFound();
-      const { rows } = await pool.query<{ epoch_ms: number; epoch: Date; apogee_altitude_km: number; perigee_altitude_km: number; mean_altitude_km: number }>(
+      const { rows } = await pool.query<{
+        epoch_ms: number;
+        epoch: Date;
+        apogee_altitude_km: number;
+        perigee_altitude_km: number;
+        mean_altitude_km: number;
+      }>(
         `select epoch_ms, epoch, apogee_altitude_km, perigee_altitude_km, mean_altitude_km from element_sets
           where spacecraft_id = $1 and not outlier order by epoch_ms desc limit 1`,
         [craft.id],
       );
       const latest = rows[0];
-      const base = { spacecraft: { name: craft.name, slug: craft.slug, catalogNumber: craft.catalogNumber, sailDeployedAt: craft.sailDeployedAt?.toISOString() ?? null } };
+      const base = {
+        spacecraft: {
+          name: craft.name,
+          slug: craft.slug,
+          catalogNumber: craft.catalogNumber,
+          sailDeployedAt: craft.sailDeployedAt?.toISOString() ?? null,
+        },
+      };
       if (!latest) return { ...base, latest: null, sinceSailDeployment: null, caution: SAFETY_CAUTION };
       const fromMs = craft.sailDeployedAt?.getTime();
       let since = null;
@@ -399,7 +518,12 @@ export function createOrbitService({ db }: { db: Db }) {
       }
       return {
         ...base,
-        latest: { epoch: latest.epoch.toISOString(), apogeeKm: latest.apogee_altitude_km, perigeeKm: latest.perigee_altitude_km, meanAltitudeKm: latest.mean_altitude_km },
+        latest: {
+          epoch: latest.epoch.toISOString(),
+          apogeeKm: latest.apogee_altitude_km,
+          perigeeKm: latest.perigee_altitude_km,
+          meanAltitudeKm: latest.mean_altitude_km,
+        },
         sinceSailDeployment: since,
         caution: SAFETY_CAUTION,
       };

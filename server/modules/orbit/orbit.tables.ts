@@ -1,6 +1,19 @@
 import { sql } from 'drizzle-orm';
 import {
-  pgTable, uuid, text, timestamp, doublePrecision, integer, bigserial, boolean, jsonb, uniqueIndex, index, pgEnum, date, check,
+  pgTable,
+  uuid,
+  text,
+  timestamp,
+  doublePrecision,
+  integer,
+  bigserial,
+  boolean,
+  jsonb,
+  uniqueIndex,
+  index,
+  pgEnum,
+  date,
+  check,
 } from 'drizzle-orm/pg-core';
 import { accounts } from '../accounts/accounts.tables';
 
@@ -32,7 +45,9 @@ export const elementSetFiles = pgTable(
   'element_set_files',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    spacecraftId: uuid('spacecraft_id').notNull().references(() => spacecraft.id, { onDelete: 'cascade' }),
+    spacecraftId: uuid('spacecraft_id')
+      .notNull()
+      .references(() => spacecraft.id, { onDelete: 'cascade' }),
     contentSha256: text('content_sha256').notNull(),
     filename: text('filename').notNull(),
     format: text('format').notNull(),
@@ -53,8 +68,12 @@ export const elementSets = pgTable(
   'element_sets',
   {
     id: bigserial('id', { mode: 'number' }).primaryKey(),
-    spacecraftId: uuid('spacecraft_id').notNull().references(() => spacecraft.id, { onDelete: 'cascade' }),
-    fileId: uuid('file_id').notNull().references(() => elementSetFiles.id, { onDelete: 'restrict' }),
+    spacecraftId: uuid('spacecraft_id')
+      .notNull()
+      .references(() => spacecraft.id, { onDelete: 'cascade' }),
+    fileId: uuid('file_id')
+      .notNull()
+      .references(() => elementSetFiles.id, { onDelete: 'restrict' }),
     sourceLine: integer('source_line').notNull(),
     catalogNumberInt: integer('catalog_number_int').notNull(),
     epoch: timestamp('epoch', { withTimezone: true, precision: 6 }).notNull(),
@@ -100,7 +119,9 @@ export const ingestJobs = pgTable(
   'orbit_ingest_jobs',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    spacecraftId: uuid('spacecraft_id').notNull().references(() => spacecraft.id, { onDelete: 'cascade' }),
+    spacecraftId: uuid('spacecraft_id')
+      .notNull()
+      .references(() => spacecraft.id, { onDelete: 'cascade' }),
     createdBy: uuid('created_by').references(() => accounts.id, { onDelete: 'set null' }),
     status: ingestStatusEnum('status').notNull(),
     filename: text('filename').notNull(),
@@ -117,7 +138,9 @@ export const ingestJobs = pgTable(
     invalidCount: integer('invalid_count').notNull().default(0),
     importedCount: integer('imported_count'),
     /** The first errors, with line numbers. */
-    errors: jsonb('errors').notNull().default(sql`'[]'::jsonb`),
+    errors: jsonb('errors')
+      .notNull()
+      .default(sql`'[]'::jsonb`),
     /** A file with the same content already stored for this spacecraft. */
     existingFileId: uuid('existing_file_id').references(() => elementSetFiles.id, { onDelete: 'set null' }),
     fileId: uuid('file_id').references(() => elementSetFiles.id, { onDelete: 'set null' }),
@@ -134,7 +157,9 @@ export const sailingPeriods = pgTable(
   'sailing_periods',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    spacecraftId: uuid('spacecraft_id').notNull().references(() => spacecraft.id, { onDelete: 'cascade' }),
+    spacecraftId: uuid('spacecraft_id')
+      .notNull()
+      .references(() => spacecraft.id, { onDelete: 'cascade' }),
     startAt: timestamp('start_at', { withTimezone: true }).notNull(),
     endAt: timestamp('end_at', { withTimezone: true }).notNull(),
     mode: sailModeEnum('mode').notNull(),
@@ -155,7 +180,9 @@ export const snapshots = pgTable(
     id: uuid('id').primaryKey().defaultRandom(),
     /** Stable public handle: set once at creation, kept through renames and publish toggles. */
     slug: text('slug').notNull(),
-    spacecraftId: uuid('spacecraft_id').notNull().references(() => spacecraft.id, { onDelete: 'cascade' }),
+    spacecraftId: uuid('spacecraft_id')
+      .notNull()
+      .references(() => spacecraft.id, { onDelete: 'cascade' }),
     ownerId: uuid('owner_id').references(() => accounts.id, { onDelete: 'set null' }),
     title: text('title').notNull(),
     caption: text('caption').notNull().default(''),

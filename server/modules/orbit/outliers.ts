@@ -23,7 +23,10 @@ function medianInPlace(a: Float64Array, n: number): number {
   for (let i = 1; i < n; i++) {
     const v = a[i]!;
     let j = i - 1;
-    while (j >= 0 && a[j]! > v) { a[j + 1] = a[j]!; j--; }
+    while (j >= 0 && a[j]! > v) {
+      a[j + 1] = a[j]!;
+      j--;
+    }
     a[j + 1] = v;
   }
   const m = n >> 1;
@@ -41,7 +44,8 @@ function predictAt(t: Float64Array, y: Float64Array, lo: number, hi: number, ski
   let c = 0;
   for (let a = 0; a < n; a++) {
     const ia = idx[a]!;
-    const ta = t[ia]!, ya = y[ia]!;
+    const ta = t[ia]!,
+      ya = y[ia]!;
     for (let b = a + 1; b < n; b++) {
       const ib = idx[b]!;
       const dx = t[ib]! - ta;
@@ -65,7 +69,8 @@ const STEP = 4096;
  * the trend bends; a one-sided line still follows it there, while a bad fit is far from all three.
  */
 function closestResidual(t: Float64Array, y: Float64Array, i: number, both: number): number {
-  const t0 = t[i]!, yi = y[i]!;
+  const t0 = t[i]!,
+    yi = y[i]!;
   let best = both;
   for (const d of [yi - predictAt(t, y, i - NEIGHBOURS - 1, i - 1, -1, t0), yi - predictAt(t, y, i + 1, i + NEIGHBOURS + 1, -1, t0)]) {
     if (Number.isFinite(d) && !(Math.abs(d) >= Math.abs(best))) best = d;

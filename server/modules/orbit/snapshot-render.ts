@@ -3,7 +3,9 @@ import { Resvg } from '@resvg/resvg-js';
 import { buildSnapshotChart, snapshotSvg, type SnapshotData } from '../../../shared/charts/snapshot-chart';
 
 // resvg reads TTF/OTF only (the web font is WOFF2), so the PNG uses DejaVu Sans from the system's fonts.
-const FONT_FILES = ['/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf', '/usr/share/fonts/truetype/dejavu/DejaVuSans-Bold.ttf'].filter((f) => existsSync(f));
+const FONT_FILES = ['/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf', '/usr/share/fonts/truetype/dejavu/DejaVuSans-Bold.ttf'].filter((f) =>
+  existsSync(f),
+);
 
 export function renderSnapshotSvg(snapshot: { title: string; caption: string; data: SnapshotData }): string {
   return snapshotSvg(buildSnapshotChart(snapshot.data, { title: snapshot.title, caption: snapshot.caption }));
@@ -14,7 +16,12 @@ export function renderSnapshotPng(snapshot: { title: string; caption: string; da
   const svg = renderSnapshotSvg(snapshot);
   const resvg = new Resvg(svg, {
     fitTo: { mode: 'zoom', value: 2 },
-    font: { fontFiles: FONT_FILES, loadSystemFonts: FONT_FILES.length === 0, defaultFontFamily: 'DejaVu Sans', sansSerifFamily: 'DejaVu Sans' },
+    font: {
+      fontFiles: FONT_FILES,
+      loadSystemFonts: FONT_FILES.length === 0,
+      defaultFontFamily: 'DejaVu Sans',
+      sansSerifFamily: 'DejaVu Sans',
+    },
   });
   return resvg.render().asPng();
 }

@@ -13,7 +13,11 @@ import type { OrbitService } from './orbit.service';
 type SnapshotRow = typeof snapshots.$inferSelect;
 
 const SERIES_OF: Record<SnapshotSeriesKey, 'apogeeKm' | 'perigeeKm' | 'meanAltitudeKm' | 'semiMajorAxisKm' | 'energyJPerKg'> = {
-  apogee: 'apogeeKm', perigee: 'perigeeKm', meanAltitude: 'meanAltitudeKm', semiMajorAxis: 'semiMajorAxisKm', energy: 'energyJPerKg',
+  apogee: 'apogeeKm',
+  perigee: 'perigeeKm',
+  meanAltitude: 'meanAltitudeKm',
+  semiMajorAxis: 'semiMajorAxisKm',
+  energy: 'energyJPerKg',
 };
 
 function newSlug(craftSlug: string) {
@@ -53,7 +57,11 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
   };
 
   async function load(id: string) {
-    const [r] = await db.select(withOwner).from(snapshots).leftJoin(accounts, eq(accounts.id, snapshots.ownerId)).where(eq(snapshots.id, id));
+    const [r] = await db
+      .select(withOwner)
+      .from(snapshots)
+      .leftJoin(accounts, eq(accounts.id, snapshots.ownerId))
+      .where(eq(snapshots.id, id));
     if (!r) throw snapshotNotFound();
     return r;
   }
@@ -101,9 +109,23 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
       const row = await db.transaction(async (tx) => {
         const [created] = await tx
           .insert(snapshots)
-          .values({ slug: newSlug(craft.slug), spacecraftId: craft.id, ownerId: actorId, title: input.title, caption: input.caption, isPublic: input.isPublic, data })
+          .values({
+            slug: newSlug(craft.slug),
+            spacecraftId: craft.id,
+            ownerId: actorId,
+            title: input.title,
+            caption: input.caption,
+            isPublic: input.isPublic,
+            data,
+          })
           .returning();
-        await recordAudit(tx, { actorId, action: 'snapshot.created', subjectType: 'snapshot', subjectId: created!.id, after: { title: input.title, isPublic: input.isPublic } });
+        await recordAudit(tx, {
+          actorId,
+          action: 'snapshot.created',
+          subjectType: 'snapshot',
+          subjectId: created!.id,
+          after: { title: input.title, isPublic: input.isPublic },
+        });
         return created!;
       });
       return (await this.get(row.id)) as SnapshotView;
@@ -114,7 +136,13 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
         opts.ownerId ? eq(snapshots.ownerId, opts.ownerId) : undefined,
         opts.spacecraftId ? eq(snapshots.spacecraftId, opts.spacecraftId) : undefined,
       );
-      const rows = await db.select(withOwner).from(snapshots).leftJoin(accounts, eq(accounts.id, snapshots.ownerId)).where(where).orderBy(desc(snapshots.createdAt)).limit(500);
+      const rows = await db
+        .select(withOwner)
+        .from(snapshots)
+        .leftJoin(accounts, eq(accounts.id, snapshots.ownerId))
+        .where(where)
+        .orderBy(desc(snapshots.createdAt))
+        .limit(500);
       return rows.map((r) => snapshotView(r.row, ownerOf(r)));
     },
 
@@ -137,14 +165,25 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
       return r.row;
     },
 
-    async update(actor: { id: string; roles: readonly Role[] }, id: string, patch: { title?: string; caption?: string; isPublic?: boolean }) {
+    async update(
+      actor: { id: string; roles: readonly Role[] },
+      id: string,
+      patch: { title?: string; caption?: string; isPublic?: boolean },
+    ) {
       const before = (await load(id)).row;
       mayChange(actor, before);
       await db.transaction(async (tx) => {
-        await tx.update(snapshots).set({ ...patch, updatedAt: new Date() }).where(eq(snapshots.id, id));
+        await tx
+          .update(snapshots)
+          .set({ ...patch, updatedAt: new Date() })
+          .where(eq(snapshots.id, id));
         await recordAudit(tx, {
-          actorId: actor.id, action: 'snapshot.updated', subjectType: 'snapshot', subjectId: id,
-          before: { title: before.title, caption: before.caption, isPublic: before.isPublic }, after: patch,
+          actorId: actor.id,
+          action: 'snapshot.updated',
+          subjectType: 'snapshot',
+          subjectId: id,
+          before: { title: before.title, caption: before.caption, isPublic: before.isPublic },
+          after: patch,
         });
       });
       return this.get(id);
@@ -155,7 +194,13 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
       mayChange(actor, before);
       await db.transaction(async (tx) => {
         await tx.delete(snapshots).where(eq(snapshots.id, id));
-        await recordAudit(tx, { actorId: actor.id, action: 'snapshot.deleted', subjectType: 'snapshot', subjectId: id, before: { title: before.title, slug: before.slug } });
+        await recordAudit(tx, {
+          actorId: actor.id,
+          action: 'snapshot.deleted',
+          subjectType: 'snapshot',
+          subjectId: id,
+          before: { title: before.title, slug: before.slug },
+        });
       });
     },
   };

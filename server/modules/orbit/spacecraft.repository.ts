@@ -73,7 +73,13 @@ export function createSpacecraftRepository({ db }: { db: Db }) {
       try {
         return await db.transaction(async (tx) => {
           const [row] = await tx.insert(spacecraft).values(toColumns(input)).returning();
-          await recordAudit(tx, { actorId, action: 'spacecraft.created', subjectType: 'spacecraft', subjectId: row!.id, after: spacecraftView(row!) });
+          await recordAudit(tx, {
+            actorId,
+            action: 'spacecraft.created',
+            subjectType: 'spacecraft',
+            subjectId: row!.id,
+            after: spacecraftView(row!),
+          });
           return row!;
         });
       } catch (err) {
@@ -85,8 +91,19 @@ export function createSpacecraftRepository({ db }: { db: Db }) {
         return await db.transaction(async (tx) => {
           const [before] = await tx.select().from(spacecraft).where(eq(spacecraft.id, id)).for('update');
           if (!before) throw spacecraftNotFound();
-          const [row] = await tx.update(spacecraft).set({ ...toColumns(input), updatedAt: new Date() }).where(eq(spacecraft.id, id)).returning();
-          await recordAudit(tx, { actorId, action: 'spacecraft.updated', subjectType: 'spacecraft', subjectId: id, before: spacecraftView(before), after: spacecraftView(row!) });
+          const [row] = await tx
+            .update(spacecraft)
+            .set({ ...toColumns(input), updatedAt: new Date() })
+            .where(eq(spacecraft.id, id))
+            .returning();
+          await recordAudit(tx, {
+            actorId,
+            action: 'spacecraft.updated',
+            subjectType: 'spacecraft',
+            subjectId: id,
+            before: spacecraftView(before),
+            after: spacecraftView(row!),
+          });
           return row!;
         });
       } catch (err) {

@@ -26,7 +26,9 @@ export function createPaymentsWebhookRouter({ payments, stripe, config }: { paym
       res.json({ received: true, outcome });
     } catch (err) {
       if (err instanceof RetryLater) {
-        throw new AppError(409, 'payments.event_early', `Not applied yet, send it again later: ${err.message}.`, undefined, { 'Retry-After': '5' });
+        throw new AppError(409, 'payments.event_early', `Not applied yet, send it again later: ${err.message}.`, undefined, {
+          'Retry-After': '5',
+        });
       }
       throw err;
     }

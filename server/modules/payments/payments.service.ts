@@ -54,7 +54,14 @@ function periodEndOf(sub: Stripe.Subscription): Date | null {
   return typeof end === 'number' ? new Date(end * 1000) : null;
 }
 
-export function createPaymentsService(deps: { db: Db; config: Config; mailer: Mailer; processor: Processor; campaigns: CampaignsService; logger: Logger }) {
+export function createPaymentsService(deps: {
+  db: Db;
+  config: Config;
+  mailer: Mailer;
+  processor: Processor;
+  campaigns: CampaignsService;
+  logger: Logger;
+}) {
   const { db, config, mailer, processor } = deps;
   const stripe = processor.stripe;
 
@@ -84,7 +91,11 @@ export function createPaymentsService(deps: { db: Db; config: Config; mailer: Ma
     for (const p of full.payments?.data ?? []) {
       const piId = idOf(p.payment?.payment_intent as string | null);
       const chargeId = idOf(p.payment?.charge as string | null);
-      const facts = piId ? await processor.chargeOfPaymentIntent(piId, invoice.id) : chargeId ? await processor.chargeFacts(chargeId, invoice.id) : null;
+      const facts = piId
+        ? await processor.chargeOfPaymentIntent(piId, invoice.id)
+        : chargeId
+          ? await processor.chargeFacts(chargeId, invoice.id)
+          : null;
       if (facts) out.push(facts);
     }
     return out;
@@ -111,7 +122,10 @@ export function createPaymentsService(deps: { db: Db; config: Config; mailer: Ma
       .onConflictDoUpdate({ target: memberships.subscriptionId, set: values })
       .returning();
     if (pledge.subscriptionId !== sub.id) {
-      await tx.update(pledges).set({ subscriptionId: sub.id, processorCustomerId: idOf(sub.customer as string), updatedAt: new Date() }).where(eq(pledges.id, pledge.id));
+      await tx
+        .update(pledges)
+        .set({ subscriptionId: sub.id, processorCustomerId: idOf(sub.customer as string), updatedAt: new Date() })
+        .where(eq(pledges.id, pledge.id));
     }
     return row!;
   }
@@ -190,7 +204,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; mailer: Ma
       case 'checkout.session.completed':
       case 'checkout.session.async_payment_succeeded': {
         const s = event.data.object;
-        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? (s.client_reference_id && uuidRe.test(s.client_reference_id) ? s.client_reference_id : null));
+        const pledgeId = await exists(
+          pledgeIdIn(s.metadata) ?? (s.client_reference_id && uuidRe.test(s.client_reference_id) ? s.client_reference_id : null),
+        );
         if (!pledgeId) return null;
         return {
           pledgeId,
@@ -214,7 +230,8 @@ export function createPaymentsService(deps: { db: Db; config: Config; mailer: Ma
                 if (session.mode === 'subscription' && session.subscription) {
                   await upsertMembership(tx, p, await stripe.subscriptions.retrieve(idOf(session.subscription as string)!));
                   const invoiceId = idOf(session.invoice as string | null);
-                  if (invoiceId) for (const facts of await chargesOfInvoice(await stripe.invoices.retrieve(invoiceId))) await recordCharge(tx, p, facts);
+                  if (invoiceId)
+                    for (const facts of await chargesOfInvoice(await stripe.invoices.retrieve(invoiceId))) await recordCharge(tx, p, facts);
                 } else if (session.payment_intent) {
                   const facts = await processor.chargeOfPaymentIntent(idOf(session.payment_intent as string)!);
                   if (facts) await recordCharge(tx, p, facts);
@@ -291,7 +308,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; mailer: Ma
           run: async (tx, pledge, after) => {
             const facts = await processor.chargeFacts(chargeId);
             const refunds = await stripe.refunds.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 1000 });
-            const disputes = event.type.startsWith('charge.dispute') ? await stripe.disputes.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 100 }) : [];
+            const disputes = event.type.startsWith('charge.dispute')
+              ? await stripe.disputes.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 100 })
+              : [];
             await settle(
               tx,
               pledge!,

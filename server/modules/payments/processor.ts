@@ -9,10 +9,16 @@ import type { ChargeFacts } from '../pledges/pledge-ledger';
 import { AppError } from '../../errors';
 
 export const processorUnavailable = (err: unknown) =>
-  new AppError(502, 'payments.processor_unavailable', `The payment processor did not answer as expected; nothing was charged. Try again in a moment. (${(err as Error).message})`);
+  new AppError(
+    502,
+    'payments.processor_unavailable',
+    `The payment processor did not answer as expected; nothing was charged. Try again in a moment. (${(err as Error).message})`,
+  );
 
 export const isMissing = (err: unknown, param?: string) =>
-  err instanceof Stripe.errors.StripeInvalidRequestError && err.code === 'resource_missing' && (!param || err.param === param || Boolean(err.param?.startsWith(param)));
+  err instanceof Stripe.errors.StripeInvalidRequestError &&
+  err.code === 'resource_missing' &&
+  (!param || err.param === param || Boolean(err.param?.startsWith(param)));
 
 export function createProcessor({ db, stripe }: { db: Db; stripe: Stripe }) {
   return {
@@ -45,16 +51,32 @@ export function createProcessor({ db, stripe }: { db: Db; stripe: Stripe }) {
     },
 
     /** The standing monthly price of a tier at its minimum amount. */
-    async monthlyPriceFor(tier: typeof tiers.$inferSelect, currency: string, productId: string, opts: { fresh?: boolean } = {}): Promise<string> {
+    async monthlyPriceFor(
+      tier: typeof tiers.$inferSelect,
+      currency: string,
+      productId: string,
+      opts: { fresh?: boolean } = {},
+    ): Promise<string> {
       if (tier.processorPriceId && !opts.fresh) return tier.processorPriceId;
       const price = await stripe.prices.create(
-        { product: productId, currency: currency.toLowerCase(), unit_amount: tier.minAmountMinor, recurring: { interval: 'month' }, metadata: { tier_id: tier.id } },
+        {
+          product: productId,
+          currency: currency.toLowerCase(),
+          unit_amount: tier.minAmountMinor,
+          recurring: { interval: 'month' },
+          metadata: { tier_id: tier.id },
+        },
         { idempotencyKey: `price-${tier.id}-${tier.minAmountMinor}-${productId}` },
       );
       await db
         .update(tiers)
         .set({ processorPriceId: price.id })
-        .where(and(eq(tiers.id, tier.id), tier.processorPriceId ? eq(tiers.processorPriceId, tier.processorPriceId) : isNull(tiers.processorPriceId)));
+        .where(
+          and(
+            eq(tiers.id, tier.id),
+            tier.processorPriceId ? eq(tiers.processorPriceId, tier.processorPriceId) : isNull(tiers.processorPriceId),
+          ),
+        );
       return price.id;
     },
 

@@ -111,13 +111,19 @@ export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.D
 async function holdSlotAgain(tx: Tx, pledge: PledgeRow) {
   // Money arrived after the slot was given back (an expired checkout paid late): it is sold all the same.
   if (pledge.slotState !== 'released' || !pledge.tierId) return pledge.slotState;
-  await tx.update(tiers).set({ soldCount: sql`${tiers.soldCount} + 1` }).where(eq(tiers.id, pledge.tierId));
+  await tx
+    .update(tiers)
+    .set({ soldCount: sql`${tiers.soldCount} + 1` })
+    .where(eq(tiers.id, pledge.tierId));
   return 'held' as const;
 }
 
 export async function releaseSlot(tx: Tx, pledge: PledgeRow): Promise<PledgeRow['slotState']> {
   if (pledge.slotState !== 'held' || !pledge.tierId) return pledge.slotState;
-  await tx.update(tiers).set({ soldCount: sql`greatest(${tiers.soldCount} - 1, 0)` }).where(eq(tiers.id, pledge.tierId));
+  await tx
+    .update(tiers)
+    .set({ soldCount: sql`greatest(${tiers.soldCount} - 1, 0)` })
+    .where(eq(tiers.id, pledge.tierId));
   return 'released';
 }
 

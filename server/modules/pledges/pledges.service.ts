@@ -28,9 +28,14 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
   async function views(rows: PledgeRow[]): Promise<PledgeView[]> {
     if (rows.length === 0) return [];
     const ids = rows.map((r) => r.id);
-    const campaignRows = await db.select({ id: campaigns.id, slug: campaigns.slug, title: campaigns.title }).from(campaigns).where(inArray(campaigns.id, [...new Set(rows.map((r) => r.campaignId))]));
+    const campaignRows = await db
+      .select({ id: campaigns.id, slug: campaigns.slug, title: campaigns.title })
+      .from(campaigns)
+      .where(inArray(campaigns.id, [...new Set(rows.map((r) => r.campaignId))]));
     const tierIds = [...new Set(rows.map((r) => r.tierId).filter((t): t is string => Boolean(t)))];
-    const tierRows = tierIds.length ? await db.select({ id: tiers.id, title: tiers.title }).from(tiers).where(inArray(tiers.id, tierIds)) : [];
+    const tierRows = tierIds.length
+      ? await db.select({ id: tiers.id, title: tiers.title }).from(tiers).where(inArray(tiers.id, tierIds))
+      : [];
     const totals = await db
       .select({
         pledgeId: ledgerEntries.pledgeId,
@@ -65,24 +70,39 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
   }
 
   async function ownPledge(accountId: string, pledgeId: string) {
-    const [row] = await db.select().from(pledges).where(and(eq(pledges.id, pledgeId), eq(pledges.backerId, accountId)));
+    const [row] = await db
+      .select()
+      .from(pledges)
+      .where(and(eq(pledges.id, pledgeId), eq(pledges.backerId, accountId)));
     if (!row) throw pledgeNotFound();
     return row;
   }
 
-  async function openCheckout(row: PledgeRow, account: Account, campaign: typeof campaigns.$inferSelect, tier: typeof tiers.$inferSelect | undefined) {
+  async function openCheckout(
+    row: PledgeRow,
+    account: Account,
+    campaign: typeof campaigns.$inferSelect,
+    tier: typeof tiers.$inferSelect | undefined,
+  ) {
     const metadata = { pledge_id: row.id, campaign_id: campaign.id, ...(tier ? { tier_id: tier.id } : {}) };
     const description = `${campaign.title}${tier ? ` — ${tier.title}` : ''}`;
     const build = async (fresh: { customer?: boolean; product?: boolean }): Promise<Stripe.Checkout.SessionCreateParams> => {
       const customer = await processor.customerFor(account, { fresh: fresh.customer });
-      const product = await processor.productFor(fresh.product ? { ...campaign, processorProductId: null } : campaign, { fresh: fresh.product });
+      const product = await processor.productFor(fresh.product ? { ...campaign, processorProductId: null } : campaign, {
+        fresh: fresh.product,
+      });
       const currency = row.currency.toLowerCase();
       let lineItem: Stripe.Checkout.SessionCreateParams.LineItem;
       if (row.kind === 'monthly' && tier && row.amountMinor === tier.minAmountMinor) {
         lineItem = { price: await processor.monthlyPriceFor(tier, row.currency, product, { fresh: fresh.product }), quantity: 1 };
       } else {
         lineItem = {
-          price_data: { currency, unit_amount: row.amountMinor, product, ...(row.kind === 'monthly' ? { recurring: { interval: 'month' as const } } : {}) },
+          price_data: {
+            currency,
+            unit_amount: row.amountMinor,
+            product,
+            ...(row.kind === 'monthly' ? { recurring: { interval: 'month' as const } } : {}),
+          },
           quantity: 1,
         };
       }
@@ -94,9 +114,7 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
         success_url: `${config.PUBLIC_URL}/pledges/${row.id}/thanks`,
         cancel_url: `${config.PUBLIC_URL}/pledges/${row.id}/cancelled`,
         metadata,
-        ...(row.kind === 'monthly'
-          ? { subscription_data: { metadata, description } }
-          : { payment_intent_data: { metadata, description } }),
+        ...(row.kind === 'monthly' ? { subscription_data: { metadata, description } } : { payment_intent_data: { metadata, description } }),
       };
     };
     // One key per attempt; a second try after a lost customer/product (processor state reset) gets its own.
@@ -113,10 +131,17 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
   return {
     views,
 
-    async create({ account, input }: { account: Account; input: CreatePledgeInput }): Promise<{ pledge: PledgeView; checkoutUrl: string; replayed: boolean }> {
+    async create({
+      account,
+      input,
+    }: {
+      account: Account;
+      input: CreatePledgeInput;
+    }): Promise<{ pledge: PledgeView; checkoutUrl: string; replayed: boolean }> {
       const [existing] = await db.select().from(pledges).where(eq(pledges.idempotencyKey, input.attemptKey));
       if (existing) {
-        if (existing.backerId !== account.id) throw conflict('pledges.attempt_key_taken', 'This attempt key belongs to another pledge; make a new one.');
+        if (existing.backerId !== account.id)
+          throw conflict('pledges.attempt_key_taken', 'This attempt key belongs to another pledge; make a new one.');
         if (existing.checkoutUrl && (existing.state === 'started' || existing.state === 'failed')) {
           return { pledge: (await views([existing]))[0]!, checkoutUrl: existing.checkoutUrl, replayed: true };
         }
@@ -131,8 +156,14 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
 
       let tier: typeof tiers.$inferSelect | undefined;
       if (input.tierId) {
-        [tier] = await db.select().from(tiers).where(and(eq(tiers.id, input.tierId), eq(tiers.campaignId, campaign.id), eq(tiers.active, true)));
-        if (!tier) throw badRequest('pledges.tier_unknown', 'This campaign has no such tier.', [{ path: 'tierId', message: 'is not a tier of this campaign' }]);
+        [tier] = await db
+          .select()
+          .from(tiers)
+          .where(and(eq(tiers.id, input.tierId), eq(tiers.campaignId, campaign.id), eq(tiers.active, true)));
+        if (!tier)
+          throw badRequest('pledges.tier_unknown', 'This campaign has no such tier.', [
+            { path: 'tierId', message: 'is not a tier of this campaign' },
+          ]);
         if (input.amountMinor < tier.minAmountMinor) {
           throw badRequest('pledges.amount_below_tier', `The ${tier.title} tier starts at ${tier.minAmountMinor} minor units.`, [
             { path: 'amountMinor', message: `must be at least ${tier.minAmountMinor} for this tier` },
@@ -191,7 +222,12 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
       }
       const [updated] = await db
         .update(pledges)
-        .set({ checkoutSessionId: session.id, checkoutUrl: session.url, processorCustomerId: typeof session.customer === 'string' ? session.customer : null, updatedAt: new Date() })
+        .set({
+          checkoutSessionId: session.id,
+          checkoutUrl: session.url,
+          processorCustomerId: typeof session.customer === 'string' ? session.customer : null,
+          updatedAt: new Date(),
+        })
         .where(eq(pledges.id, row.id))
         .returning();
       deps.campaigns.invalidate();

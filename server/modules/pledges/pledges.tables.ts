@@ -3,7 +3,15 @@ import { pgTable, uuid, text, timestamp, bigint, boolean, uniqueIndex, index, pg
 import { accounts } from '../accounts/accounts.tables';
 import { campaigns, tiers, tierKindEnum } from '../campaigns/campaigns.tables';
 
-export const pledgeStateEnum = pgEnum('pledge_state', ['started', 'paid', 'partly_refunded', 'refunded', 'disputed', 'failed', 'abandoned']);
+export const pledgeStateEnum = pgEnum('pledge_state', [
+  'started',
+  'paid',
+  'partly_refunded',
+  'refunded',
+  'disputed',
+  'failed',
+  'abandoned',
+]);
 /** none: the tier has no limit or no tier; held: counted in tiers.sold_count; released: given back. */
 export const slotStateEnum = pgEnum('pledge_slot_state', ['none', 'held', 'released']);
 
@@ -11,7 +19,9 @@ export const pledges = pgTable(
   'pledges',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    campaignId: uuid('campaign_id').notNull().references(() => campaigns.id, { onDelete: 'restrict' }),
+    campaignId: uuid('campaign_id')
+      .notNull()
+      .references(() => campaigns.id, { onDelete: 'restrict' }),
     tierId: uuid('tier_id').references(() => tiers.id, { onDelete: 'restrict' }),
     /** null once the backer deleted their account: the record stays for the books, anonymised. */
     backerId: uuid('backer_id').references(() => accounts.id, { onDelete: 'set null' }),
@@ -55,7 +65,9 @@ export const memberships = pgTable(
   'memberships',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    pledgeId: uuid('pledge_id').notNull().references(() => pledges.id, { onDelete: 'restrict' }),
+    pledgeId: uuid('pledge_id')
+      .notNull()
+      .references(() => pledges.id, { onDelete: 'restrict' }),
     backerId: uuid('backer_id').references(() => accounts.id, { onDelete: 'set null' }),
     tierId: uuid('tier_id').references(() => tiers.id, { onDelete: 'restrict' }),
     subscriptionId: text('subscription_id').notNull(),

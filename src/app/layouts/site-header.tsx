@@ -56,7 +56,10 @@ function AccountMenu({ account, onSignOut, signingOut }: { account: AccountView;
         onClick={() => setOpen((v) => !v)}
         className="inline-flex min-h-10 items-center gap-2 rounded-lg border border-foil-700 px-2 pr-3 text-sm font-semibold text-foil-100 hover:border-foil-400"
       >
-        <span aria-hidden="true" className="flex size-7 items-center justify-center rounded-full bg-amber-400 text-xs font-bold text-night-950">
+        <span
+          aria-hidden="true"
+          className="flex size-7 items-center justify-center rounded-full bg-amber-400 text-xs font-bold text-night-950"
+        >
           {initials(account.displayName) || '·'}
         </span>
         <span className="max-w-40 truncate">{account.displayName}</span>
@@ -74,7 +77,11 @@ function AccountMenu({ account, onSignOut, signingOut }: { account: AccountView;
         <ul className="space-y-0.5">
           {accountLinks(account).map((link) => (
             <li key={link.to}>
-              <Link to={link.to} onClick={close} className="block rounded-lg px-3 py-2 text-sm font-semibold text-foil-100 hover:bg-night-800">
+              <Link
+                to={link.to}
+                onClick={close}
+                className="block rounded-lg px-3 py-2 text-sm font-semibold text-foil-100 hover:bg-night-800"
+              >
                 {link.label}
               </Link>
             </li>
@@ -124,11 +131,12 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
               {link.label}
             </NavLink>
           ))}
-          {account && accountLinks(account).map((link) => (
-            <NavLink key={link.to} to={link.to} className={navLinkClass}>
-              {link.label}
-            </NavLink>
-          ))}
+          {account &&
+            accountLinks(account).map((link) => (
+              <NavLink key={link.to} to={link.to} className={navLinkClass}>
+                {link.label}
+              </NavLink>
+            ))}
         </nav>
 
         <div className="ml-auto hidden items-center gap-2 sm:flex">

@@ -1,7 +1,12 @@
 import { useEffect, type RefObject } from 'react';
 
 /** Close a disclosure on Escape (returning focus to its button) or on a click outside it. */
-export function useDismiss(open: boolean, close: () => void, container: RefObject<HTMLElement | null>, button: RefObject<HTMLElement | null>) {
+export function useDismiss(
+  open: boolean,
+  close: () => void,
+  container: RefObject<HTMLElement | null>,
+  button: RefObject<HTMLElement | null>,
+) {
   useEffect(() => {
     if (!open) return;
     const onKey = (event: KeyboardEvent) => {

@@ -22,12 +22,25 @@ export function Component() {
           const c = campaign.data;
           return (
             <>
-              <PageHeader eyebrow={c.title} title="Make a pledge" description={<Link to="/campaign" className="underline underline-offset-4">Back to the campaign</Link>} />
+              <PageHeader
+                eyebrow={c.title}
+                title="Make a pledge"
+                description={
+                  <Link to="/campaign" className="underline underline-offset-4">
+                    Back to the campaign
+                  </Link>
+                }
+              />
               {c.progress.status !== 'open' ? (
                 <Alert tone="info">This campaign is not taking pledges right now.</Alert>
               ) : (
                 <Card>
-                  <PledgeForm campaign={c} account={account} initialTierId={params.get('tier')} onCheckout={(url) => window.location.assign(url)} />
+                  <PledgeForm
+                    campaign={c}
+                    account={account}
+                    initialTierId={params.get('tier')}
+                    onCheckout={(url) => window.location.assign(url)}
+                  />
                 </Card>
               )}
             </>

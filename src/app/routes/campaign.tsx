@@ -49,7 +49,8 @@ export function Component() {
   useDocumentTitle(campaign.data?.title ?? 'Campaign');
 
   if (campaign.isPending) return <PageSpinner label="Loading the campaign…" />;
-  if (campaign.isError) return <PageLoadError title="Could not load the campaign" error={campaign.error} onRetry={() => campaign.refetch()} />;
+  if (campaign.isError)
+    return <PageLoadError title="Could not load the campaign" error={campaign.error} onRetry={() => campaign.refetch()} />;
   const c = campaign.data;
   const open = c.progress.status === 'open';
   const oneTime = c.tiers.filter((t) => t.kind === 'one-time');

@@ -58,7 +58,17 @@ function SailIllustration() {
       <circle cx="240" cy="78" r="76" fill="url(#sun-glow)" />
       <circle cx="240" cy="78" r="16" fill="#ffbe45" />
       {[0, 1, 2].map((i) => (
-        <line key={i} x1={222 - i * 12} y1={98 + i * 10} x2={190 - i * 12} y2={126 + i * 10} stroke="#ffbe45" strokeOpacity="0.5" strokeWidth="2" strokeDasharray="4 6" />
+        <line
+          key={i}
+          x1={222 - i * 12}
+          y1={98 + i * 10}
+          x2={190 - i * 12}
+          y2={126 + i * 10}
+          stroke="#ffbe45"
+          strokeOpacity="0.5"
+          strokeWidth="2"
+          strokeDasharray="4 6"
+        />
       ))}
       <ellipse cx="150" cy="176" rx="128" ry="40" fill="none" stroke="#5069b3" strokeOpacity="0.6" strokeDasharray="3 7" />
       <g transform="translate(150 170) rotate(-14)">
@@ -78,7 +88,10 @@ export function Component() {
   return (
     <>
       <section aria-labelledby="hero-title" className="relative overflow-hidden border-b border-foil-800/70">
-        <div aria-hidden="true" className="pointer-events-none absolute inset-0 bg-[radial-gradient(ellipse_at_80%_0%,rgba(52,76,150,0.45),transparent_60%)]" />
+        <div
+          aria-hidden="true"
+          className="pointer-events-none absolute inset-0 bg-[radial-gradient(ellipse_at_80%_0%,rgba(52,76,150,0.45),transparent_60%)]"
+        />
         <div className="relative mx-auto grid max-w-6xl items-center gap-10 px-4 py-14 sm:px-6 md:grid-cols-[1.2fr_1fr] md:py-20">
           <div>
             <p className="text-xs font-bold uppercase tracking-[0.2em] text-amber-400">Saltmarsh Orbital Society · Tern-1</p>
@@ -86,8 +99,8 @@ export function Component() {
               A sail the size of a small flat, pushed by sunlight.
             </h1>
             <p className="mt-5 max-w-xl text-lg text-foil-300">
-              Tern-1 is a 4.8 kg spacecraft built by a club of volunteers. In orbit it opens a 24 m² mirror and tries
-              to climb using nothing but the pressure of light. You can help it fly — and follow every turn of the sail.
+              Tern-1 is a 4.8 kg spacecraft built by a club of volunteers. In orbit it opens a 24 m² mirror and tries to climb using nothing
+              but the pressure of light. You can help it fly — and follow every turn of the sail.
             </p>
             <div className="mt-8 flex flex-wrap gap-3">
               <Link to="/campaign" className={buttonClasses({ size: 'lg' })}>
@@ -105,7 +118,9 @@ export function Component() {
       </section>
 
       <section aria-labelledby="facts-title" className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
-        <h2 id="facts-title" className="sr-only">Tern-1 at a glance</h2>
+        <h2 id="facts-title" className="sr-only">
+          Tern-1 at a glance
+        </h2>
         <dl className="grid grid-cols-2 gap-3 md:grid-cols-4">
           {facts.map((fact) => (
             <div key={fact.term} className="rounded-xl border border-foil-800 bg-night-900/70 px-4 py-3">
@@ -117,7 +132,9 @@ export function Component() {
       </section>
 
       <section id="story" aria-labelledby="story-title" className="mx-auto max-w-6xl scroll-mt-20 px-4 py-10 sm:px-6">
-        <h2 id="story-title" className="text-2xl font-bold text-foil-50 sm:text-3xl">The story so far</h2>
+        <h2 id="story-title" className="text-2xl font-bold text-foil-50 sm:text-3xl">
+          The story so far
+        </h2>
         <ol className="mt-6 grid gap-4 md:grid-cols-2">
           {chapters.map((chapter, index) => (
             <li key={chapter.title} className="rounded-2xl border border-foil-800 bg-night-900/60 p-5">
@@ -134,7 +151,9 @@ export function Component() {
       <section aria-labelledby="support-title" className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
         <div className="grid gap-8 rounded-2xl border border-amber-400/30 bg-gradient-to-br from-night-800 to-night-900 p-6 sm:p-10 md:grid-cols-[1fr_auto] md:items-center">
           <div>
-            <h2 id="support-title" className="text-2xl font-bold text-foil-50">What your pledge pays for</h2>
+            <h2 id="support-title" className="text-2xl font-bold text-foil-50">
+              What your pledge pays for
+            </h2>
             <ul className="mt-4 space-y-2 text-foil-200">
               {uses.map((use) => (
                 <li key={use} className="flex gap-3">

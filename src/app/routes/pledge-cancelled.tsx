@@ -24,7 +24,10 @@ function Cancelled({ id }: { id: string }) {
       title={paid ? 'This pledge was paid after all' : 'No payment was taken'}
       notice={
         !paid && (
-          <Alert tone={p.state === 'failed' ? 'error' : 'info'} title={p.state === 'failed' ? 'The card was not accepted' : 'You left the checkout'}>
+          <Alert
+            tone={p.state === 'failed' ? 'error' : 'info'}
+            title={p.state === 'failed' ? 'The card was not accepted' : 'You left the checkout'}
+          >
             {p.failureReason ?? 'Nothing was charged.'}
           </Alert>
         )

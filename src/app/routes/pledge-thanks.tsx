@@ -28,7 +28,9 @@ function Thanks({ id }: { id: string }) {
               {p.kind === 'monthly' ? 'Welcome to the crew. ' : ''}A confirmation is on its way to your inbox.
             </Alert>
           )}
-          {(p.state === 'failed' || p.state === 'abandoned') && <Alert title="The payment did not go through">{p.failureReason ?? 'No payment was taken.'}</Alert>}
+          {(p.state === 'failed' || p.state === 'abandoned') && (
+            <Alert title="The payment did not go through">{p.failureReason ?? 'No payment was taken.'}</Alert>
+          )}
         </>
       }
       next={{ to: '/my-support/pledges', label: 'See my pledges' }}

@@ -23,8 +23,13 @@ export function Component() {
           <h1 className="sr-only">{q.data.snapshot.title}</h1>
           <SnapshotChartView data={q.data.snapshot.data} title={q.data.snapshot.title} caption={q.data.snapshot.caption} />
           <p className="mt-3 text-sm text-foil-300">
-            <a className="text-amber-300 underline" href={q.data.snapshot.pngPath} download>Download PNG</a> ·{' '}
-            <a className="text-amber-300 underline" href={q.data.snapshot.svgPath} download>SVG</a>
+            <a className="text-amber-300 underline" href={q.data.snapshot.pngPath} download>
+              Download PNG
+            </a>{' '}
+            ·{' '}
+            <a className="text-amber-300 underline" href={q.data.snapshot.svgPath} download>
+              SVG
+            </a>
           </p>
         </Card>
       )}

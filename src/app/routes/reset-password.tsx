@@ -34,9 +34,7 @@ export function Component() {
           </Link>
         </>
       ) : !token ? (
-        <Alert title="This link is missing its token">
-          Open the link from the reset message again, or ask for a new one.
-        </Alert>
+        <Alert title="This link is missing its token">Open the link from the reset message again, or ask for a new one.</Alert>
       ) : (
         <ResetPasswordForm token={token} onDone={() => setDone(true)} />
       )}

@@ -14,7 +14,11 @@ export function RouteError({ standalone = false }: { standalone?: boolean }) {
     <Wrapper id={standalone ? 'main' : undefined} className="mx-auto max-w-xl px-4 py-16">
       <h1 className="mb-4 text-2xl font-bold text-foil-50">Something went wrong</h1>
       <Alert title={chunkFailed ? 'This page could not be loaded' : 'The page stopped working'}>
-        <p>{chunkFailed ? 'Lightkeel may have been updated since you opened it.' : 'Reloading usually helps. If it keeps happening, tell the mission team.'}</p>
+        <p>
+          {chunkFailed
+            ? 'Lightkeel may have been updated since you opened it.'
+            : 'Reloading usually helps. If it keeps happening, tell the mission team.'}
+        </p>
         <Button variant="secondary" size="sm" className="mt-3" onClick={() => window.location.reload()}>
           Reload
         </Button>

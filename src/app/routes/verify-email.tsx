@@ -28,16 +28,16 @@ export function Component() {
         <Alert title="This link is missing its token">Open the link from the verification message again.</Alert>
       ) : verify.isSuccess ? (
         <>
-          <Alert tone="success" title="E-mail verified">Receipts and dispatches will reach you at this address.</Alert>
+          <Alert tone="success" title="E-mail verified">
+            Receipts and dispatches will reach you at this address.
+          </Alert>
           <Link to="/my-support" className={buttonClasses({ size: 'lg', className: 'w-full' })}>
             Go to my support
           </Link>
         </>
       ) : verify.isError ? (
         <>
-          <Alert title="Could not verify">
-            {errorMessage(verify.error)} You can ask for a fresh link from your account page.
-          </Alert>
+          <Alert title="Could not verify">{errorMessage(verify.error)} You can ask for a fresh link from your account page.</Alert>
           <Link to="/my-support" className={buttonClasses({ variant: 'secondary', size: 'lg', className: 'w-full' })}>
             Go to my account
           </Link>

@@ -45,7 +45,11 @@ export const consoleSections: ConsoleSection[] = [
     title: 'Campaign desk',
     roles: ['outreach', 'admin'],
     summary: 'The campaign’s goal, dates, story, reward tiers and stretch targets.',
-    duties: ['Edit the campaign page: goal, dates and story.', 'Add, change or hide reward tiers and crew memberships.', 'Set the stretch targets.'],
+    duties: [
+      'Edit the campaign page: goal, dates and story.',
+      'Add, change or hide reward tiers and crew memberships.',
+      'Set the stretch targets.',
+    ],
     lazy: () => import('@/app/routes/console/campaign'),
   },
   {

@@ -13,11 +13,24 @@ const tones: Record<AlertTone, string> = {
 const glyphs: Record<AlertTone, string> = { error: '!', success: '✓', info: 'i', warning: '!' };
 
 /** Errors and warnings interrupt (role="alert"); success and info are polite status messages. */
-export function Alert({ tone = 'error', title, children, className }: { tone?: AlertTone; title?: ReactNode; children?: ReactNode; className?: string }) {
+export function Alert({
+  tone = 'error',
+  title,
+  children,
+  className,
+}: {
+  tone?: AlertTone;
+  title?: ReactNode;
+  children?: ReactNode;
+  className?: string;
+}) {
   const urgent = tone === 'error' || tone === 'warning';
   return (
     <div role={urgent ? 'alert' : 'status'} className={cn('flex gap-3 rounded-xl border px-4 py-3 text-sm', tones[tone], className)}>
-      <span aria-hidden="true" className="mt-0.5 flex size-5 shrink-0 items-center justify-center rounded-full border border-current text-xs font-bold">
+      <span
+        aria-hidden="true"
+        className="mt-0.5 flex size-5 shrink-0 items-center justify-center rounded-full border border-current text-xs font-bold"
+      >
         {glyphs[tone]}
       </span>
       <div className="min-w-0 space-y-1">

@@ -8,5 +8,9 @@ const tones = {
 } as const;
 
 export function Badge({ tone = 'neutral', children }: { tone?: keyof typeof tones; children: ReactNode }) {
-  return <span className={cn('inline-flex items-center whitespace-nowrap rounded-full border px-2.5 py-0.5 text-xs font-semibold', tones[tone])}>{children}</span>;
+  return (
+    <span className={cn('inline-flex items-center whitespace-nowrap rounded-full border px-2.5 py-0.5 text-xs font-semibold', tones[tone])}>
+      {children}
+    </span>
+  );
 }

@@ -10,7 +10,17 @@ export function Card({ className, ...rest }: HTMLAttributes<HTMLDivElement>) {
   );
 }
 
-export function CardHeader({ title, description, actions, level = 2 }: { title: ReactNode; description?: ReactNode; actions?: ReactNode; level?: 2 | 3 }) {
+export function CardHeader({
+  title,
+  description,
+  actions,
+  level = 2,
+}: {
+  title: ReactNode;
+  description?: ReactNode;
+  actions?: ReactNode;
+  level?: 2 | 3;
+}) {
   const Heading = level === 2 ? 'h2' : 'h3';
   return (
     <div className="mb-4 flex flex-wrap items-start justify-between gap-3">

@@ -1,7 +1,17 @@
 import type { ReactNode } from 'react';
 import { cn } from '@/lib/cn';
 
-export function EmptyState({ title, description, action, className }: { title: ReactNode; description?: ReactNode; action?: ReactNode; className?: string }) {
+export function EmptyState({
+  title,
+  description,
+  action,
+  className,
+}: {
+  title: ReactNode;
+  description?: ReactNode;
+  action?: ReactNode;
+  className?: string;
+}) {
   return (
     <div className={cn('flex flex-col items-center rounded-xl border border-dashed border-foil-700 px-6 py-10 text-center', className)}>
       <svg aria-hidden="true" viewBox="0 0 48 48" className="mb-3 size-10 text-foil-500">

@@ -1,6 +1,16 @@
 import type { ReactNode } from 'react';
 
-export function PageHeader({ title, eyebrow, description, actions }: { title: ReactNode; eyebrow?: ReactNode; description?: ReactNode; actions?: ReactNode }) {
+export function PageHeader({
+  title,
+  eyebrow,
+  description,
+  actions,
+}: {
+  title: ReactNode;
+  eyebrow?: ReactNode;
+  description?: ReactNode;
+  actions?: ReactNode;
+}) {
   return (
     <header className="mb-6 flex flex-wrap items-end justify-between gap-4 border-b border-foil-800/80 pb-5">
       <div className="min-w-0 max-w-3xl">

@@ -26,7 +26,10 @@ export function ProgressBar({
       aria-valuetext={valueText}
       className={cn('h-3 w-full overflow-hidden rounded-full bg-night-800 ring-1 ring-foil-700/60', className)}
     >
-      <div className="h-full rounded-full bg-gradient-to-r from-amber-500 to-amber-300 transition-[width]" style={{ width: `${percent}%` }} />
+      <div
+        className="h-full rounded-full bg-gradient-to-r from-amber-500 to-amber-300 transition-[width]"
+        style={{ width: `${percent}%` }}
+      />
     </div>
   );
 }

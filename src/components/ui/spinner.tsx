@@ -3,7 +3,15 @@ import { cn } from '@/lib/cn';
 const sizes = { sm: 'size-4 border-2', md: 'size-6 border-2', lg: 'size-10 border-[3px]' } as const;
 
 /** With a label it announces itself as a status; with `label={null}` it is decoration inside a labelled control. */
-export function Spinner({ size = 'md', label = 'Loading…', className }: { size?: keyof typeof sizes; label?: string | null; className?: string }) {
+export function Spinner({
+  size = 'md',
+  label = 'Loading…',
+  className,
+}: {
+  size?: keyof typeof sizes;
+  label?: string | null;
+  className?: string;
+}) {
   const ring = (
     <span
       aria-hidden="true"

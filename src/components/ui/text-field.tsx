@@ -27,13 +27,7 @@ export function TextField({ label, hint, error, id, className, ...rest }: TextFi
       <label htmlFor={inputId} className="block text-sm font-semibold text-foil-100">
         {label}
       </label>
-      <input
-        id={inputId}
-        className={inputClasses}
-        {...rest}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-      />
+      <input id={inputId} className={inputClasses} {...rest} aria-invalid={error ? true : undefined} aria-describedby={describedBy} />
       {hint && (
         <p id={hintId} className="text-sm text-foil-400">
           {hint}

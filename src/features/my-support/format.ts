@@ -4,7 +4,8 @@ export { money } from '@/lib/money';
 export const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
 export const dateTimeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'long', timeStyle: 'short' });
 
-export const stateTone = (s: PledgeState): 'good' | 'attention' | 'neutral' => (s === 'paid' ? 'good' : s === 'failed' || s === 'disputed' ? 'attention' : 'neutral');
+export const stateTone = (s: PledgeState): 'good' | 'attention' | 'neutral' =>
+  s === 'paid' ? 'good' : s === 'failed' || s === 'disputed' ? 'attention' : 'neutral';
 
 export const membershipLabels: Record<string, string> = {
   active: 'Active',

@@ -33,7 +33,9 @@ export function sci(value: number | null | undefined, digits = 2): string {
   if (value === 0) return '0';
   const exp = Math.floor(Math.log10(Math.abs(value)));
   const mant = value / 10 ** exp;
-  const sup = String(exp).replace(/-/g, '⁻').replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]!);
+  const sup = String(exp)
+    .replace(/-/g, '⁻')
+    .replace(/\d/g, (d) => '⁰¹²³⁴⁵⁶⁷⁸⁹'[Number(d)]!);
   return `${mant.toFixed(digits)} × 10${sup}`;
 }
 

@@ -5,7 +5,10 @@ export { money } from '@/lib/money';
 /** Typed major units ("35", "35.50", "1,200") → integer minor units, from the digits, never through a float. */
 export function parseAmountToMinor(text: string, currency: string): { minor: number } | { error: string } {
   const exponent = currencyExponent(currency);
-  const cleaned = text.trim().replace(/^[$€£]/, '').replace(/,/g, '');
+  const cleaned = text
+    .trim()
+    .replace(/^[$€£]/, '')
+    .replace(/,/g, '');
   const re = exponent > 0 ? new RegExp(`^(\\d{1,9})(?:\\.(\\d{1,${exponent}}))?$`) : /^(\d{1,12})()$/;
   const m = re.exec(cleaned);
   if (!m) return { error: exponent > 0 ? `Enter an amount such as 35 or 35.50` : 'Enter a whole amount' };

@@ -39,7 +39,10 @@ export function Component() {
       />
       <div className="space-y-6">
         <Card>
-          <CardHeader title="Campaign" description={`${money(c.progress.raisedMinor, c.currency)} raised from ${c.progress.backers} backers (${c.progress.percent}%).`} />
+          <CardHeader
+            title="Campaign"
+            description={`${money(c.progress.raisedMinor, c.currency)} raised from ${c.progress.backers} backers (${c.progress.percent}%).`}
+          />
           <CampaignDetailsForm key={c.id} campaign={c} />
         </Card>
         <Card>

@@ -16,7 +16,9 @@ export function Component() {
       <PageHeader
         eyebrow="Console"
         title="Your desks"
-        description={`Signed in as ${account.displayName} · ${sortRoles(account.roles).map((r) => roleLabels[r]).join(', ')}`}
+        description={`Signed in as ${account.displayName} · ${sortRoles(account.roles)
+          .map((r) => roleLabels[r])
+          .join(', ')}`}
       />
       <ul className="grid gap-4 sm:grid-cols-2">
         {sections.map((section) => (

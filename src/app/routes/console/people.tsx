@@ -21,10 +21,7 @@ export function Component() {
   const q = useDeferredValue(search);
   const accounts = useAccounts({ q });
 
-  const subjectNames = useMemo(
-    () => new Map((accounts.data?.accounts ?? []).map((a) => [a.id, a.email] as const)),
-    [accounts.data],
-  );
+  const subjectNames = useMemo(() => new Map((accounts.data?.accounts ?? []).map((a) => [a.id, a.email] as const)), [accounts.data]);
 
   return (
     <>

@@ -13,10 +13,17 @@ export function Component() {
   const navigate = useNavigate();
   return (
     <>
-      <PageHeader eyebrow="My support" title="Your data" description="Take a copy of everything we hold about you, or close your account." />
+      <PageHeader
+        eyebrow="My support"
+        title="Your data"
+        description="Take a copy of everything we hold about you, or close your account."
+      />
       <div className="grid max-w-3xl gap-6">
         <Card>
-          <CardHeader title="Download my data" description="One JSON file: your account, sign-in methods, e-mail choices, pledges with their payments, memberships and your recent activity." />
+          <CardHeader
+            title="Download my data"
+            description="One JSON file: your account, sign-in methods, e-mail choices, pledges with their payments, memberships and your recent activity."
+          />
           <a href={exportDataUrl} download className={buttonClasses({ variant: 'secondary' })}>
             Download my data (JSON)
           </a>

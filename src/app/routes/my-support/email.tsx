@@ -12,9 +12,19 @@ export function Component() {
   const prefs = useEmailPreferences();
   return (
     <>
-      <PageHeader eyebrow="My support" title="E-mail choices" description="Choose what we send you. Account messages such as password resets always arrive." />
+      <PageHeader
+        eyebrow="My support"
+        title="E-mail choices"
+        description="Choose what we send you. Account messages such as password resets always arrive."
+      />
       <Card className="max-w-2xl">
-        {prefs.isPending ? <PageSpinner /> : prefs.isError ? <Alert title="Could not load your choices">{errorMessage(prefs.error)}</Alert> : <EmailPreferencesForm initial={prefs.data} />}
+        {prefs.isPending ? (
+          <PageSpinner />
+        ) : prefs.isError ? (
+          <Alert title="Could not load your choices">{errorMessage(prefs.error)}</Alert>
+        ) : (
+          <EmailPreferencesForm initial={prefs.data} />
+        )}
       </Card>
     </>
   );

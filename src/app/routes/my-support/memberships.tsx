@@ -14,7 +14,11 @@ export function Component() {
   const memberships = useMemberships();
   return (
     <>
-      <PageHeader eyebrow="My support" title="Crew memberships" description="Monthly support: when it renews, how to update your card, and how to stop it." />
+      <PageHeader
+        eyebrow="My support"
+        title="Crew memberships"
+        description="Monthly support: when it renews, how to update your card, and how to stop it."
+      />
       {memberships.isPending ? (
         <PageSpinner />
       ) : memberships.isError ? (

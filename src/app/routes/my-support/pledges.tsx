@@ -14,7 +14,11 @@ export function Component() {
   const pledges = useMyPledges();
   return (
     <>
-      <PageHeader eyebrow="My support" title="Pledges" description="Every pledge you made, what was paid and refunded, and a receipt for each payment." />
+      <PageHeader
+        eyebrow="My support"
+        title="Pledges"
+        description="Every pledge you made, what was paid and refunded, and a receipt for each payment."
+      />
       {pledges.isPending ? (
         <PageSpinner />
       ) : pledges.isError ? (

@@ -48,7 +48,8 @@ export function Component() {
           <dd className="break-all font-mono text-foil-300">{r.processorId}</dd>
         </dl>
         <p className="mt-6 border-t border-foil-800 pt-4 text-sm text-foil-400">
-          This receipt shows what you paid and when. It is not tax advice: whether any of it counts for tax depends on where you live, so follow your local rules and ask a licensed tax adviser.
+          This receipt shows what you paid and when. It is not tax advice: whether any of it counts for tax depends on where you live, so
+          follow your local rules and ask a licensed tax adviser.
         </p>
         <p className="mt-4 text-sm">
           <Link to="/my-support/pledges" className="text-amber-300 underline underline-offset-4">

@@ -29,7 +29,10 @@ export function Component() {
           <ul className="divide-y divide-foil-800">
             {payments.map((pay) => (
               <li key={pay.id}>
-                <Link to={`/my-support/receipts/${pay.id}`} className="flex flex-wrap items-center justify-between gap-2 px-5 py-3 hover:bg-night-800/60">
+                <Link
+                  to={`/my-support/receipts/${pay.id}`}
+                  className="flex flex-wrap items-center justify-between gap-2 px-5 py-3 hover:bg-night-800/60"
+                >
                   <span className="text-foil-100">
                     {pay.kind === 'refund' ? 'Refund' : 'Payment'} · {pay.pledge.tier?.title ?? 'No reward'}
                     <span className="block text-sm text-foil-400">{dateFormat.format(new Date(pay.occurredAt))}</span>

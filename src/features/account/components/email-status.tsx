@@ -16,8 +16,7 @@ export function EmailStatus({ account }: { account: AccountView }) {
       {!account.emailVerified && (
         <>
           <p className="text-sm text-foil-300">
-            Confirm your address so receipts and mission dispatches reach you. The link is in the message we sent
-            when you signed up.
+            Confirm your address so receipts and mission dispatches reach you. The link is in the message we sent when you signed up.
           </p>
           {resend.isSuccess ? (
             <Alert tone="success">A new verification link is on its way to {account.email}.</Alert>

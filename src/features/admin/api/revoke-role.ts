@@ -4,9 +4,7 @@ import { api } from '@/lib/api-client';
 import { invalidateAfterRoleChange } from './keys';
 
 export function revokeRole({ accountId, role }: { accountId: string; role: Role }): Promise<{ account: AccountView }> {
-  return api.delete<{ account: AccountView }>(
-    `/api/admin/accounts/${encodeURIComponent(accountId)}/roles/${encodeURIComponent(role)}`,
-  );
+  return api.delete<{ account: AccountView }>(`/api/admin/accounts/${encodeURIComponent(accountId)}/roles/${encodeURIComponent(role)}`);
 }
 
 export function useRevokeRole({ onSuccess }: { onSuccess?: (account: AccountView) => void } = {}) {

@@ -104,7 +104,11 @@ export function AccountsTable({
 
   return (
     <>
-      {lastDone && <Alert tone="success" className="mb-4">{lastDone}</Alert>}
+      {lastDone && (
+        <Alert tone="success" className="mb-4">
+          {lastDone}
+        </Alert>
+      )}
       <ul className="divide-y divide-foil-800/70 rounded-xl border border-foil-700/60 sm:hidden" aria-label="Accounts and their roles">
         {accounts.map((account) => (
           <li key={account.id} className="space-y-3 p-4 text-sm">

@@ -78,7 +78,9 @@ export function AuditLogPanel({ subjectNames = new Map() }: { subjectNames?: Map
                         <li key={change.key ?? index} className="break-words">
                           {change.key && <span className="text-foil-400">{change.key}: </span>}
                           <span>{change.before}</span>
-                          <span aria-hidden="true" className="px-1.5 text-amber-400">→</span>
+                          <span aria-hidden="true" className="px-1.5 text-amber-400">
+                            →
+                          </span>
                           <span className="sr-only"> changed to </span>
                           <span className="text-foil-50">{change.after}</span>
                         </li>

@@ -32,8 +32,7 @@ export function ForgotPasswordForm() {
   if (sentTo) {
     return (
       <Alert tone="success" title="Check your inbox">
-        If an account uses {sentTo}, a link to choose a new password is on its way. The link works once and
-        expires after a short while.
+        If an account uses {sentTo}, a link to choose a new password is on its way. The link works once and expires after a short while.
       </Alert>
     );
   }

@@ -2,10 +2,19 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { campaignKeys } from './get-campaign';
 
-export type BackerView = { id: string; name: string | null; message: string | null; tier: string | null; kind: 'one-time' | 'monthly'; paidAt: string | null };
+export type BackerView = {
+  id: string;
+  name: string | null;
+  message: string | null;
+  tier: string | null;
+  kind: 'one-time' | 'monthly';
+  paidAt: string | null;
+};
 
 export function getBackers(slug: string, { signal }: { signal?: AbortSignal } = {}) {
-  return api.get<{ backers: BackerView[] }>(`/api/campaigns/${encodeURIComponent(slug)}/backers?limit=12`, { signal }).then((r) => r.backers);
+  return api
+    .get<{ backers: BackerView[] }>(`/api/campaigns/${encodeURIComponent(slug)}/backers?limit=12`, { signal })
+    .then((r) => r.backers);
 }
 
 export function getBackersQueryOptions(slug: string) {

@@ -33,7 +33,15 @@ export function CampaignDetailsForm({ campaign }: { campaign: CampaignView }) {
     if (goalMinor === null) return setErrors({ goalMinor: 'Enter the goal as a number such as 48000 or 48000.50' });
     setErrors({});
     update.mutate(
-      { title: v.title, summary: v.summary, story: v.story, goalMinor, currency: v.currency, startsAt: `${v.startsAt}:00Z`, endsAt: `${v.endsAt}:00Z` },
+      {
+        title: v.title,
+        summary: v.summary,
+        story: v.story,
+        goalMinor,
+        currency: v.currency,
+        startsAt: `${v.startsAt}:00Z`,
+        endsAt: `${v.endsAt}:00Z`,
+      },
       { onError: (err) => isApiError(err) && setErrors(Object.fromEntries(err.details.map((d) => [d.path, d.message]))) },
     );
   };
@@ -52,7 +60,14 @@ export function CampaignDetailsForm({ campaign }: { campaign: CampaignView }) {
       </div>
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label={`Goal (${v.currency})`} inputMode="decimal" value={v.goal} onChange={set('goal')} error={errors.goalMinor} />
-        <TextField label="Currency" hint="Locked once anyone has pledged." maxLength={3} value={v.currency} onChange={(e) => setV({ ...v, currency: e.target.value.toUpperCase() })} error={errors.currency} />
+        <TextField
+          label="Currency"
+          hint="Locked once anyone has pledged."
+          maxLength={3}
+          value={v.currency}
+          onChange={(e) => setV({ ...v, currency: e.target.value.toUpperCase() })}
+          error={errors.currency}
+        />
         <TextField label="Opens (UTC)" type="datetime-local" value={v.startsAt} onChange={set('startsAt')} error={errors.startsAt} />
         <TextField label="Closes (UTC)" type="datetime-local" value={v.endsAt} onChange={set('endsAt')} error={errors.endsAt} />
       </div>

@@ -14,7 +14,13 @@ export function CampaignProgress({ progress }: { progress: Progress }) {
         {raised}
       </p>
       <p className="text-sm text-foil-400">raised of a {goal} goal</p>
-      <ProgressBar className="mt-4" value={progress.raisedMinor} max={progress.goalMinor} label="Raised towards the goal" valueText={`${raised} of ${goal}, ${progress.percent}%`} />
+      <ProgressBar
+        className="mt-4"
+        value={progress.raisedMinor}
+        max={progress.goalMinor}
+        label="Raised towards the goal"
+        valueText={`${raised} of ${goal}, ${progress.percent}%`}
+      />
       <dl className="mt-4 grid grid-cols-3 gap-3 text-center">
         <div>
           <dt className="text-xs font-bold uppercase tracking-wider text-foil-500">Funded</dt>
@@ -27,7 +33,9 @@ export function CampaignProgress({ progress }: { progress: Progress }) {
           </dd>
         </div>
         <div>
-          <dt className="text-xs font-bold uppercase tracking-wider text-foil-500">{progress.status === 'upcoming' ? 'Opens in' : 'Time left'}</dt>
+          <dt className="text-xs font-bold uppercase tracking-wider text-foil-500">
+            {progress.status === 'upcoming' ? 'Opens in' : 'Time left'}
+          </dt>
           <dd className="text-lg font-bold text-foil-50">{timeLeft(progress.secondsLeft, progress.status)}</dd>
         </div>
       </dl>

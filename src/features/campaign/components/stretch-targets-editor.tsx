@@ -10,7 +10,9 @@ import { minorToMajorText, parseMajor } from '../format';
 
 export function StretchTargetsEditor({ campaign }: { campaign: CampaignView }) {
   const exp = currencyExponent(campaign.currency);
-  const [rows, setRows] = useState(campaign.stretchTargets.map((t) => ({ amount: minorToMajorText(t.amountMinor, exp), title: t.title, description: t.description })));
+  const [rows, setRows] = useState(
+    campaign.stretchTargets.map((t) => ({ amount: minorToMajorText(t.amountMinor, exp), title: t.title, description: t.description })),
+  );
   const [bad, setBad] = useState<string | null>(null);
   const save = useReplaceStretchTargets(campaign.slug);
   const update = (i: number, patch: Partial<(typeof rows)[number]>) => setRows(rows.map((r, j) => (j === i ? { ...r, ...patch } : r)));
@@ -27,7 +29,12 @@ export function StretchTargetsEditor({ campaign }: { campaign: CampaignView }) {
       {save.isSuccess && !bad && <Alert tone="success">Stretch targets saved.</Alert>}
       {rows.map((r, i) => (
         <div key={i} className="grid gap-3 rounded-xl border border-foil-800 p-3 sm:grid-cols-[10rem_1fr_auto] sm:items-end">
-          <TextField label={`Amount (${campaign.currency})`} inputMode="decimal" value={r.amount} onChange={(e) => update(i, { amount: e.target.value })} />
+          <TextField
+            label={`Amount (${campaign.currency})`}
+            inputMode="decimal"
+            value={r.amount}
+            onChange={(e) => update(i, { amount: e.target.value })}
+          />
           <TextField label="Title" value={r.title} onChange={(e) => update(i, { title: e.target.value })} />
           <Button variant="ghost" size="sm" onClick={() => setRows(rows.filter((_, j) => j !== i))}>
             Remove

@@ -11,7 +11,12 @@ export function StretchTargets({ targets, currency }: { targets: StretchTargetVi
       <ol className="mt-3 space-y-3">
         {targets.map((t) => (
           <li key={t.id} className="flex gap-3 rounded-xl border border-foil-800 bg-night-900/60 p-4">
-            <span aria-hidden="true" className={t.reached ? 'mt-1 size-3 shrink-0 rotate-45 bg-amber-400' : 'mt-1 size-3 shrink-0 rotate-45 border border-foil-500'} />
+            <span
+              aria-hidden="true"
+              className={
+                t.reached ? 'mt-1 size-3 shrink-0 rotate-45 bg-amber-400' : 'mt-1 size-3 shrink-0 rotate-45 border border-foil-500'
+              }
+            />
             <div className="min-w-0">
               <p className="font-semibold text-foil-50">
                 {money(t.amountMinor, currency)} · {t.title}

@@ -12,17 +12,21 @@ export function TierCard({ tier, currency, open }: { tier: TierView; currency: s
         <h3 id={`tier-${tier.id}`} className="text-lg font-bold text-foil-50">
           {tier.title}
         </h3>
-        {tier.kind === 'monthly' ? <Badge tone="good">Monthly</Badge> : tier.quantityLimit !== null && <Badge tone="attention">Limited</Badge>}
+        {tier.kind === 'monthly' ? (
+          <Badge tone="good">Monthly</Badge>
+        ) : (
+          tier.quantityLimit !== null && <Badge tone="attention">Limited</Badge>
+        )}
       </div>
-      <p className="mt-1 text-xl font-bold text-amber-300">
-        {tier.kind === 'monthly' ? `${price} a month` : `${price} or more`}
-      </p>
+      <p className="mt-1 text-xl font-bold text-amber-300">{tier.kind === 'monthly' ? `${price} a month` : `${price} or more`}</p>
       <p className="mt-3 flex-1 text-sm text-foil-300">{tier.description}</p>
       <dl className="mt-4 space-y-1 text-sm">
         {tier.remaining !== null && (
           <div className="flex justify-between gap-2">
             <dt className="text-foil-400">Left</dt>
-            <dd className="font-semibold text-foil-100">{tier.soldOut ? 'None — all taken' : `${tier.remaining} of ${tier.quantityLimit}`}</dd>
+            <dd className="font-semibold text-foil-100">
+              {tier.soldOut ? 'None — all taken' : `${tier.remaining} of ${tier.quantityLimit}`}
+            </dd>
           </div>
         )}
         {tier.estimatedDelivery && (
@@ -37,7 +41,9 @@ export function TierCard({ tier, currency, open }: { tier: TierView; currency: s
           {tier.kind === 'monthly' ? 'Join the crew' : 'Pledge'}
         </Link>
       ) : (
-        <p className="mt-5 rounded-lg border border-foil-800 px-3 py-2 text-center text-sm text-foil-400">{tier.soldOut ? 'Sold out' : 'Not open for pledges'}</p>
+        <p className="mt-5 rounded-lg border border-foil-800 px-3 py-2 text-center text-sm text-foil-400">
+          {tier.soldOut ? 'Sold out' : 'Not open for pledges'}
+        </p>
       )}
     </article>
   );

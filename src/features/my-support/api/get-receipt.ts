@@ -8,7 +8,11 @@ export function getReceipt(entryId: number, { signal }: { signal?: AbortSignal }
 }
 
 export function getReceiptQueryOptions(entryId: number) {
-  return queryOptions({ queryKey: mySupportKeys.receipt(entryId), queryFn: ({ signal }) => getReceipt(entryId, { signal }), staleTime: Infinity });
+  return queryOptions({
+    queryKey: mySupportKeys.receipt(entryId),
+    queryFn: ({ signal }) => getReceipt(entryId, { signal }),
+    staleTime: Infinity,
+  });
 }
 
 export function useReceipt(entryId: number) {

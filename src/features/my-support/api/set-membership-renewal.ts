@@ -5,7 +5,9 @@ import { mySupportKeys } from './get-my-pledges';
 
 /** `cancel`: stop at the end of the current period; `resume`: keep renewing. */
 export function setMembershipRenewal(id: string, action: 'cancel' | 'resume') {
-  return api.post<{ membership: MembershipView }>(`/api/my-support/memberships/${encodeURIComponent(id)}/${action}`).then((r) => r.membership);
+  return api
+    .post<{ membership: MembershipView }>(`/api/my-support/memberships/${encodeURIComponent(id)}/${action}`)
+    .then((r) => r.membership);
 }
 
 export function useSetMembershipRenewal() {

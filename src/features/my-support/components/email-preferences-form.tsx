@@ -26,8 +26,16 @@ export function EmailPreferencesForm({ initial }: { initial: EmailPreferences })
       <fieldset className="space-y-3">
         <legend className="sr-only">E-mails you want from Lightkeel</legend>
         {choices.map((c) => (
-          <label key={c.key} className="flex cursor-pointer items-start gap-3 rounded-xl border border-foil-700 px-4 py-3 hover:border-foil-500">
-            <input type="checkbox" className="mt-1 size-4 accent-amber-400" checked={prefs[c.key]} onChange={(e) => setPrefs({ ...prefs, [c.key]: e.target.checked })} />
+          <label
+            key={c.key}
+            className="flex cursor-pointer items-start gap-3 rounded-xl border border-foil-700 px-4 py-3 hover:border-foil-500"
+          >
+            <input
+              type="checkbox"
+              className="mt-1 size-4 accent-amber-400"
+              checked={prefs[c.key]}
+              onChange={(e) => setPrefs({ ...prefs, [c.key]: e.target.checked })}
+            />
             <span>
               <span className="block font-semibold text-foil-50">{c.label}</span>
               <span className="block text-sm text-foil-400">{c.hint}</span>

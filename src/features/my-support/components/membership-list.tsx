@@ -16,7 +16,11 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
   const renewal = useSetMembershipRenewal();
   return (
     <>
-      {renewal.isError && <Alert className="mb-4" title="Could not change the membership">{errorMessage(renewal.error)}</Alert>}
+      {renewal.isError && (
+        <Alert className="mb-4" title="Could not change the membership">
+          {errorMessage(renewal.error)}
+        </Alert>
+      )}
       <ul className="space-y-4">
         {memberships.map((m) => {
           const live = LIVE.includes(m.status);
@@ -30,7 +34,9 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
                   </p>
                   <p className="text-sm text-foil-400">{m.campaign.title}</p>
                 </div>
-                <Badge tone={m.cancelAtPeriodEnd && live ? 'attention' : m.status === 'active' ? 'good' : live ? 'attention' : 'neutral'}>{m.cancelAtPeriodEnd && live ? 'Ends soon' : (membershipLabels[m.status] ?? m.status)}</Badge>
+                <Badge tone={m.cancelAtPeriodEnd && live ? 'attention' : m.status === 'active' ? 'good' : live ? 'attention' : 'neutral'}>
+                  {m.cancelAtPeriodEnd && live ? 'Ends soon' : (membershipLabels[m.status] ?? m.status)}
+                </Badge>
               </div>
               <p className="mt-2 text-sm text-foil-300">
                 {!live
@@ -43,7 +49,12 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
               {live && (
                 <div className="mt-4 flex flex-wrap gap-2">
                   {m.cancelAtPeriodEnd ? (
-                    <Button variant="secondary" size="sm" loading={renewal.isPending && renewal.variables?.id === m.id} onClick={() => renewal.mutate({ id: m.id, action: 'resume' })}>
+                    <Button
+                      variant="secondary"
+                      size="sm"
+                      loading={renewal.isPending && renewal.variables?.id === m.id}
+                      onClick={() => renewal.mutate({ id: m.id, action: 'resume' })}
+                    >
                       Keep my membership
                     </Button>
                   ) : (
@@ -73,8 +84,9 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
         }}
       >
         <p>
-          You stay a crew member until {confirming?.currentPeriodEnd ? dateFormat.format(new Date(confirming.currentPeriodEnd)) : 'the end of this period'}; after that nothing more is
-          charged. You can change your mind until then.
+          You stay a crew member until{' '}
+          {confirming?.currentPeriodEnd ? dateFormat.format(new Date(confirming.currentPeriodEnd)) : 'the end of this period'}; after that
+          nothing more is charged. You can change your mind until then.
         </p>
       </ConfirmDialog>
     </>

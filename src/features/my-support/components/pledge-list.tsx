@@ -23,7 +23,9 @@ export function PledgeList({ pledges }: { pledges: MyPledge[] }) {
             </div>
             <Badge tone={stateTone(p.state)}>{pledgeStateLabels[p.state]}</Badge>
           </div>
-          {p.failureReason && (p.state === 'failed' || p.state === 'abandoned') && <p className="mt-2 text-sm text-amber-200">{p.failureReason}</p>}
+          {p.failureReason && (p.state === 'failed' || p.state === 'abandoned') && (
+            <p className="mt-2 text-sm text-amber-200">{p.failureReason}</p>
+          )}
           {p.checkoutUrl && p.state === 'started' && (
             <p className="mt-2 text-sm">
               <a className="font-semibold text-amber-300 underline underline-offset-4" href={p.checkoutUrl}>
@@ -36,10 +38,18 @@ export function PledgeList({ pledges }: { pledges: MyPledge[] }) {
               <caption className="sr-only">Payments of this pledge</caption>
               <thead>
                 <tr className="text-left text-xs uppercase tracking-wider text-foil-500">
-                  <th scope="col" className="py-1 font-bold">Date</th>
-                  <th scope="col" className="py-1 font-bold">What</th>
-                  <th scope="col" className="py-1 text-right font-bold">Amount</th>
-                  <th scope="col" className="py-1 text-right font-bold"><span className="sr-only">Receipt</span></th>
+                  <th scope="col" className="py-1 font-bold">
+                    Date
+                  </th>
+                  <th scope="col" className="py-1 font-bold">
+                    What
+                  </th>
+                  <th scope="col" className="py-1 text-right font-bold">
+                    Amount
+                  </th>
+                  <th scope="col" className="py-1 text-right font-bold">
+                    <span className="sr-only">Receipt</span>
+                  </th>
                 </tr>
               </thead>
               <tbody>

@@ -39,7 +39,10 @@ export function createSnapshot(values: CreateSnapshotValues) {
 }
 export function useCreateSnapshot() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: createSnapshot, onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }) });
+  return useMutation({
+    mutationFn: createSnapshot,
+    onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }),
+  });
 }
 
 export function updateSnapshot({ id, patch }: { id: string; patch: { title?: string; caption?: string; isPublic?: boolean } }) {
@@ -47,7 +50,10 @@ export function updateSnapshot({ id, patch }: { id: string; patch: { title?: str
 }
 export function useUpdateSnapshot() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: updateSnapshot, onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }) });
+  return useMutation({
+    mutationFn: updateSnapshot,
+    onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }),
+  });
 }
 
 export function deleteSnapshot({ id }: { id: string }) {
@@ -55,5 +61,8 @@ export function deleteSnapshot({ id }: { id: string }) {
 }
 export function useDeleteSnapshot() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: deleteSnapshot, onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }) });
+  return useMutation({
+    mutationFn: deleteSnapshot,
+    onSuccess: async () => queryClient.invalidateQueries({ queryKey: orbitKeys.snapshots() }),
+  });
 }

@@ -43,7 +43,14 @@ export async function startUpload({
           }),
         );
     };
-    xhr.onerror = () => reject(new ApiError({ status: 0, code: 'network.unreachable', message: 'Could not reach Lightkeel. Check your connection and try again.' }));
+    xhr.onerror = () =>
+      reject(
+        new ApiError({
+          status: 0,
+          code: 'network.unreachable',
+          message: 'Could not reach Lightkeel. Check your connection and try again.',
+        }),
+      );
     signal?.addEventListener('abort', () => xhr.abort());
     xhr.send(form);
   });

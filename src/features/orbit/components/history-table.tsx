@@ -21,8 +21,18 @@ const columns = [
   col.accessor('apogeeAltitudeKm', { id: 'apogeeAltitudeKm', header: 'Apogee (km)', cell: (c) => c.getValue().toFixed(2) }),
   col.accessor('perigeeAltitudeKm', { id: 'perigeeAltitudeKm', header: 'Perigee (km)', cell: (c) => c.getValue().toFixed(2) }),
   col.accessor('bstar', { id: 'bstar', header: 'B* (1/ER)', cell: (c) => c.getValue().toExponential(4) }),
-  col.accessor('fileName', { id: 'fileName', header: 'Source file', enableSorting: false, cell: (c) => <span title={`line ${c.row.original.sourceLine}`}>{c.getValue()}</span> }),
-  col.accessor('outlier', { id: 'outlier', header: 'Outlier', enableSorting: false, cell: (c) => (c.getValue() ? <Badge tone="attention">outlier</Badge> : '') }),
+  col.accessor('fileName', {
+    id: 'fileName',
+    header: 'Source file',
+    enableSorting: false,
+    cell: (c) => <span title={`line ${c.row.original.sourceLine}`}>{c.getValue()}</span>,
+  }),
+  col.accessor('outlier', {
+    id: 'outlier',
+    header: 'Outlier',
+    enableSorting: false,
+    cell: (c) => (c.getValue() ? <Badge tone="attention">outlier</Badge> : ''),
+  }),
 ];
 
 /** The stored history, sorted, filtered and paged on the server. */
@@ -65,18 +75,37 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
         className="flex flex-wrap items-end gap-3"
         onSubmit={(e) => {
           e.preventDefault();
-          const from = fromDateInput(fromInput), to = fromDateInput(toInput, true);
-          setRange({ from: from === null ? undefined : new Date(from).toISOString(), to: to === null ? undefined : new Date(to).toISOString() });
+          const from = fromDateInput(fromInput),
+            to = fromDateInput(toInput, true);
+          setRange({
+            from: from === null ? undefined : new Date(from).toISOString(),
+            to: to === null ? undefined : new Date(to).toISOString(),
+          });
           setPagination((p) => ({ ...p, pageIndex: 0 }));
         }}
       >
         <TextField label="Epoch from" type="date" value={fromInput} onChange={(e) => setFromInput(e.target.value)} />
         <TextField label="to" type="date" value={toInput} onChange={(e) => setToInput(e.target.value)} />
-        <Button type="submit" variant="secondary">Filter</Button>
+        <Button type="submit" variant="secondary">
+          Filter
+        </Button>
         {(range.from || range.to) && (
-          <Button variant="ghost" onClick={() => { setRange({}); setFromInput(''); setToInput(''); }}>Clear</Button>
+          <Button
+            variant="ghost"
+            onClick={() => {
+              setRange({});
+              setFromInput('');
+              setToInput('');
+            }}
+          >
+            Clear
+          </Button>
         )}
-        <a className={buttonClasses({ variant: 'secondary', className: 'ml-auto' })} href={historyPath(spacecraftId, { sort: params.sort, dir: params.dir, ...range }, true)} download>
+        <a
+          className={buttonClasses({ variant: 'secondary', className: 'ml-auto' })}
+          href={historyPath(spacecraftId, { sort: params.sort, dir: params.dir, ...range }, true)}
+          download
+        >
           Export CSV
         </a>
       </form>
@@ -93,9 +122,17 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
                   {hg.headers.map((h) => {
                     const sorted = h.column.getIsSorted();
                     return (
-                      <Th key={h.id} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined} className="whitespace-nowrap px-2.5 py-2.5">
+                      <Th
+                        key={h.id}
+                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                        className="whitespace-nowrap px-2.5 py-2.5"
+                      >
                         {h.column.getCanSort() ? (
-                          <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-foil-50" onClick={h.column.getToggleSortingHandler()}>
+                          <button
+                            type="button"
+                            className="inline-flex items-center gap-1 uppercase hover:text-foil-50"
+                            onClick={h.column.getToggleSortingHandler()}
+                          >
                             {flexRender(h.column.columnDef.header, h.getContext())}
                             <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
                           </button>
@@ -112,7 +149,9 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
               {table.getRowModel().rows.map((r) => (
                 <Tr key={r.id} className={r.original.outlier ? 'bg-red-950/20' : undefined}>
                   {r.getVisibleCells().map((c) => (
-                    <Td key={c.id} className="whitespace-nowrap px-2.5 py-2 tabular-nums">{flexRender(c.column.columnDef.cell, c.getContext())}</Td>
+                    <Td key={c.id} className="whitespace-nowrap px-2.5 py-2 tabular-nums">
+                      {flexRender(c.column.columnDef.cell, c.getContext())}
+                    </Td>
                   ))}
                 </Tr>
               ))}
@@ -126,13 +165,24 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
             <div className="flex items-center gap-2">
               <label className="flex items-center gap-1.5">
                 Rows
-                <select className="rounded-lg border border-foil-700 bg-night-950 px-2 py-1 text-foil-50" value={pagination.pageSize}
-                  onChange={(e) => setPagination({ pageIndex: 0, pageSize: Number(e.target.value) })}>
-                  {[25, 50, 100, 250].map((n) => <option key={n} value={n}>{n}</option>)}
+                <select
+                  className="rounded-lg border border-foil-700 bg-night-950 px-2 py-1 text-foil-50"
+                  value={pagination.pageSize}
+                  onChange={(e) => setPagination({ pageIndex: 0, pageSize: Number(e.target.value) })}
+                >
+                  {[25, 50, 100, 250].map((n) => (
+                    <option key={n} value={n}>
+                      {n}
+                    </option>
+                  ))}
                 </select>
               </label>
-              <Button size="sm" variant="secondary" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>Previous</Button>
-              <Button size="sm" variant="secondary" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>Next</Button>
+              <Button size="sm" variant="secondary" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
+                Previous
+              </Button>
+              <Button size="sm" variant="secondary" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
+                Next
+              </Button>
             </div>
           </div>
         </>

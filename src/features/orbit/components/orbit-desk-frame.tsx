@@ -29,7 +29,12 @@ export function OrbitDeskFrame({
   const { list, all, current, choose } = useCurrentSpacecraft();
   return (
     <>
-      <PageHeader eyebrow={current ? `Orbit desk · ${current.name}` : 'Orbit desk'} title={title} description={description} actions={actions} />
+      <PageHeader
+        eyebrow={current ? `Orbit desk · ${current.name}` : 'Orbit desk'}
+        title={title}
+        description={description}
+        actions={actions}
+      />
       <OrbitDeskNav all={all} current={current} onChoose={choose} />
       {list.isPending ? (
         <Spinner label="Loading spacecraft…" />
@@ -39,7 +44,11 @@ export function OrbitDeskFrame({
         <EmptyState
           title="No spacecraft yet"
           description="Add the craft's record first: its catalog number ties uploaded element sets to it."
-          action={<Link to="/console/orbit/spacecraft" className={buttonClasses()}>Add a spacecraft</Link>}
+          action={
+            <Link to="/console/orbit/spacecraft" className={buttonClasses()}>
+              Add a spacecraft
+            </Link>
+          }
         />
       ) : (
         children(current)

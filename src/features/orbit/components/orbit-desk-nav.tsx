@@ -11,7 +11,15 @@ const tabs = [
   { to: '/console/orbit/spacecraft', label: 'Spacecraft' },
 ];
 
-export function OrbitDeskNav({ all, current, onChoose }: { all: Spacecraft[]; current: Spacecraft | null; onChoose: (id: string) => void }) {
+export function OrbitDeskNav({
+  all,
+  current,
+  onChoose,
+}: {
+  all: Spacecraft[];
+  current: Spacecraft | null;
+  onChoose: (id: string) => void;
+}) {
   return (
     <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
       <nav aria-label="Orbit desk" className="-mx-1 flex flex-wrap gap-1">

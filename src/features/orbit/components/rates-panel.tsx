@@ -1,7 +1,19 @@
 import type { Trend } from '../types';
 import { formatUtcDate, sci, signed } from '../format';
 
-function Rate({ label, value, interval, unit, digits = 3 }: { label: string; value: number; interval?: [number, number]; unit: string; digits?: number }) {
+function Rate({
+  label,
+  value,
+  interval,
+  unit,
+  digits = 3,
+}: {
+  label: string;
+  value: number;
+  interval?: [number, number];
+  unit: string;
+  digits?: number;
+}) {
   return (
     <div className="rounded-xl border border-foil-800 bg-night-950/50 px-3 py-2">
       <dt className="text-xs font-semibold uppercase tracking-wide text-foil-400">{label}</dt>
@@ -19,7 +31,8 @@ function Rate({ label, value, interval, unit, digits = 3 }: { label: string; val
 
 /** The robust (Theil–Sen) rates over the chosen window, with their 95 % intervals. */
 export function RatesPanel({ trend }: { trend: Trend }) {
-  const r = trend.rates, iv = trend.intervals;
+  const r = trend.rates,
+    iv = trend.intervals;
   return (
     <section aria-labelledby="rates-heading">
       <h2 id="rates-heading" className="text-base font-bold text-foil-50">
@@ -36,8 +49,10 @@ export function RatesPanel({ trend }: { trend: Trend }) {
             <Rate label="Orbital energy" value={r.energyJPerKgPerDay} interval={iv?.energyJPerKgPerDay} unit="J/kg/day" digits={0} />
           </dl>
           <p className="mt-2 text-sm text-foil-300">
-            Equivalent along-track acceleration <span className="font-semibold tabular-nums text-foil-50">{sci(r.alongTrackAccelMPerS2)} m/s²</span> ·{' '}
-            {trend.counts.used} sets used, {trend.counts.outliers} outliers left out{trend.counts.duplicatesRemoved ? `, ${trend.counts.duplicatesRemoved} duplicates` : ''}.
+            Equivalent along-track acceleration{' '}
+            <span className="font-semibold tabular-nums text-foil-50">{sci(r.alongTrackAccelMPerS2)} m/s²</span> · {trend.counts.used} sets
+            used, {trend.counts.outliers} outliers left out
+            {trend.counts.duplicatesRemoved ? `, ${trend.counts.duplicatesRemoved} duplicates` : ''}.
           </p>
         </>
       )}

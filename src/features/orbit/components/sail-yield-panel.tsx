@@ -10,19 +10,30 @@ const pct = (v: number) => `${(v * 100).toFixed(0)} %`;
 /** Measured sail yield (raising minus edge-on) against the model at the current altitude. */
 export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
   const q = useSailYield(spacecraftId);
-  if (q.isPending) return <Card><Spinner label="Working out the sail yield…" /></Card>;
+  if (q.isPending)
+    return (
+      <Card>
+        <Spinner label="Working out the sail yield…" />
+      </Card>
+    );
   if (q.isError) return <Alert title="Could not work out the sail yield">{errorMessage(q.error)}</Alert>;
   const { comparison: c, model, lifetime, caution } = q.data;
   const mean = model?.byActivity.find((b) => b.activity === 'mean');
   return (
     <Card data-testid="sail-yield">
-      <CardHeader level={2} title="Sail yield" description="Energy rate while raising minus while edge-on, as an equivalent along-track acceleration." />
+      <CardHeader
+        level={2}
+        title="Sail yield"
+        description="Energy rate while raising minus while edge-on, as an equivalent along-track acceleration."
+      />
       <dl className="space-y-3 text-sm">
         <div>
           <dt className="text-foil-400">Measured from the sailing periods</dt>
           <dd className="text-xl font-bold tabular-nums text-amber-300">
             {c.sailYieldMPerS2 === null ? '—' : `${sci(c.sailYieldMPerS2)} m/s²`}
-            {c.uncertaintyMPerS2 !== null && <span className="ml-1 text-sm font-semibold text-foil-300">± {sci(c.uncertaintyMPerS2, 1)}</span>}
+            {c.uncertaintyMPerS2 !== null && (
+              <span className="ml-1 text-sm font-semibold text-foil-300">± {sci(c.uncertaintyMPerS2, 1)}</span>
+            )}
           </dd>
           <dd className="text-xs text-foil-400">
             {c.raising.periodCount} raising and {c.off.periodCount} edge-on periods{c.notes.length ? ` · ${c.notes.join('; ')}` : ''}
@@ -31,14 +42,20 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
         {model && mean && (
           <>
             <div>
-              <dt className="text-foil-400">Model at {model.altitudeKm.toFixed(0)} km ({formatUtcDate(model.atEpochMs)}, mean activity)</dt>
+              <dt className="text-foil-400">
+                Model at {model.altitudeKm.toFixed(0)} km ({formatUtcDate(model.atEpochMs)}, mean activity)
+              </dt>
               <dd className="tabular-nums text-foil-100">Expected sail acceleration {sci(mean.expectedSailAccelMPerS2)} m/s²</dd>
-              <dd className="tabular-nums text-foil-100">Drag while raising {sci(mean.dragAccelRaisingMPerS2)} m/s² · edge-on {sci(mean.dragAccelEdgeOnMPerS2)} m/s²</dd>
+              <dd className="tabular-nums text-foil-100">
+                Drag while raising {sci(mean.dragAccelRaisingMPerS2)} m/s² · edge-on {sci(mean.dragAccelEdgeOnMPerS2)} m/s²
+              </dd>
             </div>
             <div>
               <dt className="text-foil-400">Crossover altitude (sail gain = drag loss)</dt>
               <dd className="tabular-nums text-foil-100">
-                {model.byActivity.map((b) => `${b.activity} ${b.crossoverAltitudeKm === null ? '—' : `${b.crossoverAltitudeKm.toFixed(0)} km`}`).join(' · ')}
+                {model.byActivity
+                  .map((b) => `${b.activity} ${b.crossoverAltitudeKm === null ? '—' : `${b.crossoverAltitudeKm.toFixed(0)} km`}`)
+                  .join(' · ')}
               </dd>
             </div>
             <div>
@@ -54,7 +71,10 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
             <dt className="text-foil-400">Lifetime ({lifetime.basis})</dt>
             <dd className="tabular-nums text-foil-100">
               {[lifetime.high, lifetime.mean, lifetime.low]
-                .map((l) => `${l.activity}: ${l.exceedsHorizon ? 'beyond 100 years' : l.reentryIso ? formatUtcDate(Date.parse(l.reentryIso)) : '—'}`)
+                .map(
+                  (l) =>
+                    `${l.activity}: ${l.exceedsHorizon ? 'beyond 100 years' : l.reentryIso ? formatUtcDate(Date.parse(l.reentryIso)) : '—'}`,
+                )
                 .join(' · ')}
             </dd>
           </div>

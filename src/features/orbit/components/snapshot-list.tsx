@@ -18,33 +18,82 @@ function SnapshotItem({ s, canChange, onDelete }: { s: SnapshotSummary; canChang
   const link = `${window.location.origin}${s.publicPath}`;
   return (
     <li className="flex flex-col gap-3 rounded-xl border border-foil-800 bg-night-950/40 p-3 sm:flex-row">
-      <img src={`/api/orbit/snapshots/${s.id}/chart.svg`} alt="" className="aspect-[16/9] w-full shrink-0 rounded-lg bg-night-900 object-cover sm:w-56" loading="lazy" />
+      <img
+        src={`/api/orbit/snapshots/${s.id}/chart.svg`}
+        alt=""
+        className="aspect-[16/9] w-full shrink-0 rounded-lg bg-night-900 object-cover sm:w-56"
+        loading="lazy"
+      />
       <div className="min-w-0 flex-1 space-y-1.5">
         {renaming ? (
-          <form className="flex gap-2" onSubmit={(e) => { e.preventDefault(); update.mutate({ id: s.id, patch: { title } }, { onSuccess: () => setRenaming(false) }); }}>
-            <input aria-label="New title" value={title} onChange={(e) => setTitle(e.target.value)} maxLength={120} className="min-w-0 flex-1 rounded-lg border border-foil-700 bg-night-950 px-2 py-1 text-foil-50" />
-            <Button size="sm" type="submit" loading={update.isPending}>Save</Button>
-            <Button size="sm" variant="ghost" onClick={() => setRenaming(false)}>Cancel</Button>
+          <form
+            className="flex gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              update.mutate({ id: s.id, patch: { title } }, { onSuccess: () => setRenaming(false) });
+            }}
+          >
+            <input
+              aria-label="New title"
+              value={title}
+              onChange={(e) => setTitle(e.target.value)}
+              maxLength={120}
+              className="min-w-0 flex-1 rounded-lg border border-foil-700 bg-night-950 px-2 py-1 text-foil-50"
+            />
+            <Button size="sm" type="submit" loading={update.isPending}>
+              Save
+            </Button>
+            <Button size="sm" variant="ghost" onClick={() => setRenaming(false)}>
+              Cancel
+            </Button>
           </form>
         ) : (
-          <Link to={`/console/orbit/snapshots/${s.id}`} className="block truncate font-bold text-foil-50 hover:text-amber-300">{s.title}</Link>
+          <Link to={`/console/orbit/snapshots/${s.id}`} className="block truncate font-bold text-foil-50 hover:text-amber-300">
+            {s.title}
+          </Link>
         )}
         <p className="text-xs text-foil-400">
-          {formatUtcDate(s.window.fromMs)} – {formatUtcDate(s.window.toMs)} · by {s.owner?.displayName ?? 'a former account'} · saved {formatUtcDate(Date.parse(s.createdAt))}
+          {formatUtcDate(s.window.fromMs)} – {formatUtcDate(s.window.toMs)} · by {s.owner?.displayName ?? 'a former account'} · saved{' '}
+          {formatUtcDate(Date.parse(s.createdAt))}
         </p>
         <div className="flex flex-wrap items-center gap-2">
           {s.isPublic ? <Badge tone="good">public</Badge> : <Badge>private</Badge>}
-          {s.isPublic && <a href={s.publicPath} className="truncate text-xs text-amber-300 underline">{link}</a>}
+          {s.isPublic && (
+            <a href={s.publicPath} className="truncate text-xs text-amber-300 underline">
+              {link}
+            </a>
+          )}
         </div>
         {canChange && (
           <div className="flex flex-wrap gap-1 pt-1">
-            <Button size="sm" variant="ghost" onClick={() => setRenaming(true)}>Rename</Button>
-            <Button size="sm" variant="ghost" loading={update.isPending && !renaming} onClick={() => update.mutate({ id: s.id, patch: { isPublic: !s.isPublic } })}>
+            <Button size="sm" variant="ghost" onClick={() => setRenaming(true)}>
+              Rename
+            </Button>
+            <Button
+              size="sm"
+              variant="ghost"
+              loading={update.isPending && !renaming}
+              onClick={() => update.mutate({ id: s.id, patch: { isPublic: !s.isPublic } })}
+            >
               {s.isPublic ? 'Make private' : 'Make public'}
             </Button>
-            <a className="inline-flex min-h-8 items-center px-3 text-sm font-semibold text-foil-200 hover:text-foil-50" href={`/api/orbit/snapshots/${s.id}/chart.png`} download={`${s.slug}.png`}>PNG</a>
-            <a className="inline-flex min-h-8 items-center px-3 text-sm font-semibold text-foil-200 hover:text-foil-50" href={`/api/orbit/snapshots/${s.id}/chart.svg`} download={`${s.slug}.svg`}>SVG</a>
-            <Button size="sm" variant="ghost" onClick={onDelete}>Delete</Button>
+            <a
+              className="inline-flex min-h-8 items-center px-3 text-sm font-semibold text-foil-200 hover:text-foil-50"
+              href={`/api/orbit/snapshots/${s.id}/chart.png`}
+              download={`${s.slug}.png`}
+            >
+              PNG
+            </a>
+            <a
+              className="inline-flex min-h-8 items-center px-3 text-sm font-semibold text-foil-200 hover:text-foil-50"
+              href={`/api/orbit/snapshots/${s.id}/chart.svg`}
+              download={`${s.slug}.svg`}
+            >
+              SVG
+            </a>
+            <Button size="sm" variant="ghost" onClick={onDelete}>
+              Delete
+            </Button>
           </div>
         )}
         {update.isError && <Alert title="Not changed">{errorMessage(update.error)}</Alert>}
@@ -61,15 +110,22 @@ export function SnapshotList({ meId, isAdmin }: { meId: string | undefined; isAd
   return (
     <div className="space-y-4">
       <div className="flex gap-2" role="group" aria-label="Whose snapshots">
-        <Button size="sm" variant={mine ? 'primary' : 'secondary'} aria-pressed={mine} onClick={() => setMine(true)}>Mine</Button>
-        <Button size="sm" variant={!mine ? 'primary' : 'secondary'} aria-pressed={!mine} onClick={() => setMine(false)}>Everyone's</Button>
+        <Button size="sm" variant={mine ? 'primary' : 'secondary'} aria-pressed={mine} onClick={() => setMine(true)}>
+          Mine
+        </Button>
+        <Button size="sm" variant={!mine ? 'primary' : 'secondary'} aria-pressed={!mine} onClick={() => setMine(false)}>
+          Everyone's
+        </Button>
       </div>
       {q.isPending ? (
         <Spinner label="Loading snapshots…" />
       ) : q.isError ? (
         <Alert title="Could not load snapshots">{errorMessage(q.error)}</Alert>
       ) : q.data.snapshots.length === 0 ? (
-        <EmptyState title="No snapshots yet" description="Freeze a chart from the trend view: it keeps its data, window, series and caption." />
+        <EmptyState
+          title="No snapshots yet"
+          description="Freeze a chart from the trend view: it keeps its data, window, series and caption."
+        />
       ) : (
         <ul className="space-y-3" data-testid="snapshot-list">
           {q.data.snapshots.map((s) => (
@@ -77,8 +133,15 @@ export function SnapshotList({ meId, isAdmin }: { meId: string | undefined; isAd
           ))}
         </ul>
       )}
-      <ConfirmDialog open={!!deleting} title={`Delete “${deleting?.title ?? ''}”?`} confirmLabel="Delete" tone="danger" pending={del.isPending}
-        onCancel={() => setDeleting(null)} onConfirm={() => deleting && del.mutate({ id: deleting.id }, { onSuccess: () => setDeleting(null) })}>
+      <ConfirmDialog
+        open={!!deleting}
+        title={`Delete “${deleting?.title ?? ''}”?`}
+        confirmLabel="Delete"
+        tone="danger"
+        pending={del.isPending}
+        onCancel={() => setDeleting(null)}
+        onConfirm={() => deleting && del.mutate({ id: deleting.id }, { onSuccess: () => setDeleting(null) })}
+      >
         Its public link stops working, and dispatches that embed it lose the chart.
       </ConfirmDialog>
     </div>

@@ -12,7 +12,19 @@ import { useState } from 'react';
 
 type In = z.input<typeof spacecraftInputSchema>;
 type Out = z.output<typeof spacecraftInputSchema>;
-const fields = ['name', 'slug', 'catalogNumber', 'internationalDesignator', 'massKg', 'sailAreaM2', 'sailReflectivity', 'dragCoefficient', 'dragAreaEdgeOnM2', 'launchDate', 'sailDeployedAt'] as const;
+const fields = [
+  'name',
+  'slug',
+  'catalogNumber',
+  'internationalDesignator',
+  'massKg',
+  'sailAreaM2',
+  'sailReflectivity',
+  'dragCoefficient',
+  'dragAreaEdgeOnM2',
+  'launchDate',
+  'sailDeployedAt',
+] as const;
 
 export function SpacecraftForm({ craft, onSaved }: { craft: Spacecraft | null; onSaved?: (c: Spacecraft) => void }) {
   const save = useSaveSpacecraft();
@@ -21,7 +33,19 @@ export function SpacecraftForm({ craft, onSaved }: { craft: Spacecraft | null; o
     resolver: zodResolver(spacecraftInputSchema),
     defaultValues: craft
       ? { ...craft, launchDate: craft.launchDate ?? '', sailDeployedAt: craft.sailDeployedAt ? craft.sailDeployedAt.slice(0, 16) : '' }
-      : { name: '', slug: '', catalogNumber: '', internationalDesignator: '', massKg: '', sailAreaM2: '', sailReflectivity: 0.9, dragCoefficient: 2.2, dragAreaEdgeOnM2: '', launchDate: '', sailDeployedAt: '' },
+      : {
+          name: '',
+          slug: '',
+          catalogNumber: '',
+          internationalDesignator: '',
+          massKg: '',
+          sailAreaM2: '',
+          sailReflectivity: 0.9,
+          dragCoefficient: 2.2,
+          dragAreaEdgeOnM2: '',
+          launchDate: '',
+          sailDeployedAt: '',
+        },
   });
   const err = (k: (typeof fields)[number]) => form.formState.errors[k]?.message as string | undefined;
   return (
@@ -30,28 +54,56 @@ export function SpacecraftForm({ craft, onSaved }: { craft: Spacecraft | null; o
       className="grid gap-4 sm:grid-cols-2"
       onSubmit={form.handleSubmit((values) => {
         setFormError(null);
-        const body = { ...values, sailDeployedAt: values.sailDeployedAt && values.sailDeployedAt.length === 16 ? `${values.sailDeployedAt}:00Z` : values.sailDeployedAt };
+        const body = {
+          ...values,
+          sailDeployedAt:
+            values.sailDeployedAt && values.sailDeployedAt.length === 16 ? `${values.sailDeployedAt}:00Z` : values.sailDeployedAt,
+        };
         save.mutate(
           { id: craft?.id, values: body },
-          { onSuccess: ({ spacecraft }) => onSaved?.(spacecraft), onError: (e) => setFormError(applyApiError(e, form.setError, { fields })) },
+          {
+            onSuccess: ({ spacecraft }) => onSaved?.(spacecraft),
+            onError: (e) => setFormError(applyApiError(e, form.setError, { fields })),
+          },
         );
       }, undefined)}
     >
       <TextField label="Name" {...form.register('name')} error={err('name')} />
       <TextField label="Handle (for public links)" hint="e.g. tern-1" {...form.register('slug')} error={err('slug')} />
       <TextField label="Catalog number" {...form.register('catalogNumber')} error={err('catalogNumber')} />
-      <TextField label="International designator" hint="e.g. 25061C" {...form.register('internationalDesignator')} error={err('internationalDesignator')} />
+      <TextField
+        label="International designator"
+        hint="e.g. 25061C"
+        {...form.register('internationalDesignator')}
+        error={err('internationalDesignator')}
+      />
       <TextField label="Mass (kg)" inputMode="decimal" {...form.register('massKg')} error={err('massKg')} />
       <TextField label="Sail area (m²)" inputMode="decimal" {...form.register('sailAreaM2')} error={err('sailAreaM2')} />
-      <TextField label="Sail reflectivity (0–1)" inputMode="decimal" {...form.register('sailReflectivity')} error={err('sailReflectivity')} />
+      <TextField
+        label="Sail reflectivity (0–1)"
+        inputMode="decimal"
+        {...form.register('sailReflectivity')}
+        error={err('sailReflectivity')}
+      />
       <TextField label="Drag coefficient" inputMode="decimal" {...form.register('dragCoefficient')} error={err('dragCoefficient')} />
-      <TextField label="Drag area edge-on (m²)" inputMode="decimal" {...form.register('dragAreaEdgeOnM2')} error={err('dragAreaEdgeOnM2')} />
+      <TextField
+        label="Drag area edge-on (m²)"
+        inputMode="decimal"
+        {...form.register('dragAreaEdgeOnM2')}
+        error={err('dragAreaEdgeOnM2')}
+      />
       <TextField label="Launch date" type="date" {...form.register('launchDate')} error={err('launchDate')} />
       <TextField label="Sail deployed (UTC)" type="datetime-local" {...form.register('sailDeployedAt')} error={err('sailDeployedAt')} />
       <div className="flex items-end sm:col-span-2">
-        <Button type="submit" loading={save.isPending}>{craft ? 'Save record' : 'Add spacecraft'}</Button>
+        <Button type="submit" loading={save.isPending}>
+          {craft ? 'Save record' : 'Add spacecraft'}
+        </Button>
       </div>
-      {formError && <Alert className="sm:col-span-2" title="Not saved">{formError}</Alert>}
+      {formError && (
+        <Alert className="sm:col-span-2" title="Not saved">
+          {formError}
+        </Alert>
+      )}
       {save.isSuccess && !formError && <Alert tone="success" className="sm:col-span-2" title="Saved" />}
     </form>
   );

@@ -1,6 +1,17 @@
 import { useMemo, useState } from 'react';
 import {
-  Brush, CartesianGrid, ComposedChart, Legend, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis,
+  Brush,
+  CartesianGrid,
+  ComposedChart,
+  Legend,
+  Line,
+  ReferenceArea,
+  ReferenceLine,
+  ResponsiveContainer,
+  Scatter,
+  Tooltip,
+  XAxis,
+  YAxis,
 } from 'recharts';
 import { CHART_COLORS, SAIL_MODE_STYLE, SERIES, type SnapshotSeriesKey } from '@shared/charts/snapshot-chart';
 import { Button } from '@/components/ui/button';
@@ -14,11 +25,16 @@ export type Domain = { fromMs: number; toMs: number };
 type Row = Record<string, number | null> & { t: number };
 
 const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['series']> = {
-  apogee: 'apogeeKm', perigee: 'perigeeKm', meanAltitude: 'meanAltitudeKm', semiMajorAxis: 'semiMajorAxisKm', energy: 'energyJPerKg',
+  apogee: 'apogeeKm',
+  perigee: 'perigeeKm',
+  meanAltitude: 'meanAltitudeKm',
+  semiMajorAxis: 'semiMajorAxisKm',
+  energy: 'energyJPerKg',
 };
 
 function lowerBound(xs: number[], v: number) {
-  let lo = 0, hi = xs.length;
+  let lo = 0,
+    hi = xs.length;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
     if (xs[mid]! < v) lo = mid + 1;
@@ -61,11 +77,15 @@ export function TrendChart({
     return out;
   }, [trend]);
   const times = useMemo(() => rows.map((r) => r.t), [rows]);
-  const first = times[0] ?? 0, last = times[times.length - 1] ?? 1;
+  const first = times[0] ?? 0,
+    last = times[times.length - 1] ?? 1;
   const view = domain ?? { fromMs: first, toMs: last };
   const [drag, setDrag] = useState<{ a: number; b: number } | null>(null);
   const startIndex = Math.min(Math.max(0, lowerBound(times, view.fromMs)), Math.max(0, rows.length - 1));
-  const endIndex = Math.min(Math.max(startIndex, lowerBound(times, view.toMs) - (times[lowerBound(times, view.toMs)] === view.toMs ? 0 : 1)), rows.length - 1);
+  const endIndex = Math.min(
+    Math.max(startIndex, lowerBound(times, view.toMs) - (times[lowerBound(times, view.toMs)] === view.toMs ? 0 : 1)),
+    rows.length - 1,
+  );
 
   const labelOf = (v: unknown) => (typeof v === 'number' ? formatUtcDate(v) : String(v));
   const activeLabel = (state: unknown) => {
@@ -99,7 +119,8 @@ export function TrendChart({
               if (drag && x !== null) setDrag({ a: drag.a, b: x });
             }}
             onMouseUp={() => {
-              if (drag && Math.abs(drag.b - drag.a) > 3_600_000) onDomainChange({ fromMs: Math.min(drag.a, drag.b), toMs: Math.max(drag.a, drag.b) });
+              if (drag && Math.abs(drag.b - drag.a) > 3_600_000)
+                onDomainChange({ fromMs: Math.min(drag.a, drag.b), toMs: Math.max(drag.a, drag.b) });
               setDrag(null);
             }}
           >
@@ -115,12 +136,26 @@ export function TrendChart({
               fontSize={12}
               minTickGap={40}
             />
-            <YAxis yAxisId="left" domain={['auto', 'auto']} stroke={CHART_COLORS.axis} fontSize={12} width={56} tickFormatter={(v: number) => v.toFixed(0)}
-              label={{ value: 'km', angle: -90, position: 'insideLeft', fill: CHART_COLORS.muted, fontSize: 12 }} />
+            <YAxis
+              yAxisId="left"
+              domain={['auto', 'auto']}
+              stroke={CHART_COLORS.axis}
+              fontSize={12}
+              width={56}
+              tickFormatter={(v: number) => v.toFixed(0)}
+              label={{ value: 'km', angle: -90, position: 'insideLeft', fill: CHART_COLORS.muted, fontSize: 12 }}
+            />
             {selection.right !== 'none' && (
-              <YAxis yAxisId="right" orientation="right" domain={['auto', 'auto']} stroke={SERIES[selection.right].color} fontSize={12} width={64}
+              <YAxis
+                yAxisId="right"
+                orientation="right"
+                domain={['auto', 'auto']}
+                stroke={SERIES[selection.right].color}
+                fontSize={12}
+                width={64}
                 tickFormatter={(v: number) => (selection.right === 'energy' ? v.toFixed(3) : v.toFixed(0))}
-                label={{ value: SERIES[selection.right].unit, angle: 90, position: 'insideRight', fill: CHART_COLORS.muted, fontSize: 12 }} />
+                label={{ value: SERIES[selection.right].unit, angle: 90, position: 'insideRight', fill: CHART_COLORS.muted, fontSize: 12 }}
+              />
             )}
             {trend.sailingPeriods.map((p) => (
               <ReferenceArea
@@ -133,28 +168,68 @@ export function TrendChart({
                 ifOverflow="hidden"
               />
             ))}
-            <ReferenceArea yAxisId="left" x1={trend.window.fromMs} x2={trend.window.toMs} fill="none" stroke={CHART_COLORS.axis} strokeDasharray="2 4" ifOverflow="hidden" />
+            <ReferenceArea
+              yAxisId="left"
+              x1={trend.window.fromMs}
+              x2={trend.window.toMs}
+              fill="none"
+              stroke={CHART_COLORS.axis}
+              strokeDasharray="2 4"
+              ifOverflow="hidden"
+            />
             {keys.map((k) => (
-              <Line key={k} yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'} dataKey={k} name={SERIES[k].label} stroke={SERIES[k].color}
-                dot={false} strokeWidth={1.6} isAnimationActive={false} connectNulls />
+              <Line
+                key={k}
+                yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
+                dataKey={k}
+                name={SERIES[k].label}
+                stroke={SERIES[k].color}
+                dot={false}
+                strokeWidth={1.6}
+                isAnimationActive={false}
+                connectNulls
+              />
             ))}
             {keys.map((k) => (
-              <Scatter key={`${k}-o`} yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'} dataKey={`${k}Outlier`} name={`${SERIES[k].label} outlier`}
-                fill="none" stroke={CHART_COLORS.outlier} strokeWidth={1.6} isAnimationActive={false} legendType="none" />
+              <Scatter
+                key={`${k}-o`}
+                yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
+                dataKey={`${k}Outlier`}
+                name={`${SERIES[k].label} outlier`}
+                fill="none"
+                stroke={CHART_COLORS.outlier}
+                strokeWidth={1.6}
+                isAnimationActive={false}
+                legendType="none"
+              />
             ))}
             {rateLines &&
               keys.map((k) => {
                 const rl = rateLines[k];
                 if (!rl) return null;
                 return (
-                  <ReferenceLine key={`${k}-rate`} yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'} ifOverflow="hidden"
-                    segment={[{ x: rl.fromMs, y: rl.fromValue * SERIES[k].scale }, { x: rl.toMs, y: rl.toValue * SERIES[k].scale }]}
-                    stroke={SERIES[k].color} strokeWidth={2.5} strokeDasharray="6 4" />
+                  <ReferenceLine
+                    key={`${k}-rate`}
+                    yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
+                    ifOverflow="hidden"
+                    segment={[
+                      { x: rl.fromMs, y: rl.fromValue * SERIES[k].scale },
+                      { x: rl.toMs, y: rl.toValue * SERIES[k].scale },
+                    ]}
+                    stroke={SERIES[k].color}
+                    strokeWidth={2.5}
+                    strokeDasharray="6 4"
+                  />
                 );
               })}
             {drag && <ReferenceArea yAxisId="left" x1={drag.a} x2={drag.b} fill={CHART_COLORS.text} fillOpacity={0.1} />}
             <Tooltip
-              contentStyle={{ background: CHART_COLORS.background, border: `1px solid ${CHART_COLORS.grid}`, borderRadius: 8, color: CHART_COLORS.text }}
+              contentStyle={{
+                background: CHART_COLORS.background,
+                border: `1px solid ${CHART_COLORS.grid}`,
+                borderRadius: 8,
+                color: CHART_COLORS.text,
+              }}
               labelFormatter={(v) => (typeof v === 'number' ? formatUtcDateTime(v) : String(v))}
               formatter={(value, name) => [typeof value === 'number' ? value.toFixed(3) : String(value), name]}
             />
@@ -181,7 +256,11 @@ export function TrendChart({
       <ul className="mt-3 flex flex-wrap gap-x-4 gap-y-1 text-xs text-foil-300" aria-label="Shading">
         {(Object.keys(SAIL_MODE_STYLE) as (keyof typeof SAIL_MODE_STYLE)[]).map((m) => (
           <li key={m} className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block size-3 rounded-sm" style={{ background: SAIL_MODE_STYLE[m].color, opacity: 0.6 }} />
+            <span
+              aria-hidden="true"
+              className="inline-block size-3 rounded-sm"
+              style={{ background: SAIL_MODE_STYLE[m].color, opacity: 0.6 }}
+            />
             {SAIL_MODE_STYLE[m].label} period
           </li>
         ))}

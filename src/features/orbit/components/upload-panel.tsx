@@ -55,7 +55,11 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
   return (
     <div className="space-y-6">
       <Card>
-        <CardHeader level={2} title="Add element sets" description={`Two-/three-line sets or CCSDS OMM (KVN, XML, JSON, CSV) for ${craft.name} (catalog ${craft.catalogNumber}). Nothing is stored until you import.`} />
+        <CardHeader
+          level={2}
+          title="Add element sets"
+          description={`Two-/three-line sets or CCSDS OMM (KVN, XML, JSON, CSV) for ${craft.name} (catalog ${craft.catalogNumber}). Nothing is stored until you import.`}
+        />
         <div
           data-testid="drop-zone"
           onDragOver={(e) => {
@@ -109,7 +113,9 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
             onChange={(e) => setPasted(e.target.value)}
             spellCheck={false}
             className="block w-full rounded-lg border border-foil-700 bg-night-950/60 px-3 py-2 font-mono text-xs text-foil-50 focus:border-amber-400"
-            placeholder={'1 99871U 25061C   26100.50000000  .00000251  00000-0  21652-2 0  9991\n2 99871  98.5185 140.2960 0002078  89.0691 271.5623 14.32664354 12044'}
+            placeholder={
+              '1 99871U 25061C   26100.50000000  .00000251  00000-0  21652-2 0  9991\n2 99871  98.5185 140.2960 0002078  89.0691 271.5623 14.32664354 12044'
+            }
           />
           <Button type="submit" variant="secondary" disabled={!pasted.trim() || !!sending}>
             Preview pasted lines
@@ -117,28 +123,49 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
         </form>
         {sending && (
           <div className="mt-5 space-y-1.5">
-            <p className="text-sm text-foil-200">Uploading {sending.name} — {kb(sending.sent)} of {kb(sending.total)}</p>
-            <ProgressBar label="Upload" value={sending.sent} max={sending.total || 1} valueText={`${kb(sending.sent)} of ${kb(sending.total)}`} />
+            <p className="text-sm text-foil-200">
+              Uploading {sending.name} — {kb(sending.sent)} of {kb(sending.total)}
+            </p>
+            <ProgressBar
+              label="Upload"
+              value={sending.sent}
+              max={sending.total || 1}
+              valueText={`${kb(sending.sent)} of ${kb(sending.total)}`}
+            />
           </div>
         )}
-        {sendError && <Alert className="mt-5" title="The file was not accepted">{sendError}</Alert>}
+        {sendError && (
+          <Alert className="mt-5" title="The file was not accepted">
+            {sendError}
+          </Alert>
+        )}
       </Card>
 
       {upload && (
         <Card data-testid="upload-preview">
           <CardHeader
             level={2}
-            title={upload.status === 'imported' ? 'Imported' : upload.status === 'cancelled' ? 'Cancelled' : `Preview of ${upload.filename}`}
+            title={
+              upload.status === 'imported' ? 'Imported' : upload.status === 'cancelled' ? 'Cancelled' : `Preview of ${upload.filename}`
+            }
             description={`${kb(upload.byteSize)} · ${upload.format ?? 'unknown format'}`}
-            actions={<Badge tone={upload.status === 'imported' ? 'good' : upload.status === 'failed' ? 'attention' : 'neutral'}>{upload.status}</Badge>}
+            actions={
+              <Badge tone={upload.status === 'imported' ? 'good' : upload.status === 'failed' ? 'attention' : 'neutral'}>
+                {upload.status}
+              </Badge>
+            }
           />
           {(upload.status === 'parsing' || upload.status === 'importing') && (
             <div className="space-y-1.5">
               <p className="text-sm text-foil-200">
-                {upload.status === 'parsing' ? 'Reading and checking the sets' : 'Importing'} — {upload.progress.processed.toLocaleString('en-GB')} of{' '}
-                {upload.progress.total.toLocaleString('en-GB')}
+                {upload.status === 'parsing' ? 'Reading and checking the sets' : 'Importing'} —{' '}
+                {upload.progress.processed.toLocaleString('en-GB')} of {upload.progress.total.toLocaleString('en-GB')}
               </p>
-              <ProgressBar label={upload.status === 'parsing' ? 'Checking' : 'Import'} value={upload.progress.processed} max={upload.progress.total || 1} />
+              <ProgressBar
+                label={upload.status === 'parsing' ? 'Checking' : 'Import'}
+                value={upload.progress.processed}
+                max={upload.progress.total || 1}
+              />
             </div>
           )}
           {upload.status !== 'parsing' && (
@@ -157,10 +184,15 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
                   <dd className="text-2xl font-bold tabular-nums text-red-200">{upload.counts.invalid.toLocaleString('en-GB')}</dd>
                 </div>
               </dl>
-              {upload.message && <p className="mt-3 text-sm text-foil-200" data-testid="upload-message">{upload.message}</p>}
+              {upload.message && (
+                <p className="mt-3 text-sm text-foil-200" data-testid="upload-message">
+                  {upload.message}
+                </p>
+              )}
               {upload.existingFile && (
                 <p className="mt-1 text-sm text-amber-200">
-                  This exact file was already uploaded as “{upload.existingFile.filename}” on {formatUtcDateTime(Date.parse(upload.existingFile.uploadedAt))}.
+                  This exact file was already uploaded as “{upload.existingFile.filename}” on{' '}
+                  {formatUtcDateTime(Date.parse(upload.existingFile.uploadedAt))}.
                 </p>
               )}
               {upload.errors.length > 0 && (
@@ -175,20 +207,32 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
                   <TBody>
                     {upload.errors.slice(0, 12).map((e, i) => (
                       <Tr key={i}>
-                        <Td className="tabular-nums">{e.line}{e.columns ? `:${e.columns[0]}–${e.columns[1]}` : ''}</Td>
+                        <Td className="tabular-nums">
+                          {e.line}
+                          {e.columns ? `:${e.columns[0]}–${e.columns[1]}` : ''}
+                        </Td>
                         <Td>{e.field ?? '—'}</Td>
-                        <Td>{e.message}{e.expected ? <span className="text-foil-400"> (expected {e.expected})</span> : null}</Td>
+                        <Td>
+                          {e.message}
+                          {e.expected ? <span className="text-foil-400"> (expected {e.expected})</span> : null}
+                        </Td>
                       </Tr>
                     ))}
                   </TBody>
                 </Table>
               )}
-              {upload.errors.length > 12 && <p className="mt-2 text-xs text-foil-400">…and more; {upload.counts.invalid} invalid records in all.</p>}
+              {upload.errors.length > 12 && (
+                <p className="mt-2 text-xs text-foil-400">…and more; {upload.counts.invalid} invalid records in all.</p>
+              )}
             </>
           )}
           {upload.status === 'previewed' && (
             <div className="mt-5 flex flex-wrap gap-3">
-              <Button onClick={() => finish.mutate({ jobId: upload.id, action: 'import' })} loading={finish.isPending} disabled={upload.counts.new === 0 && upload.counts.duplicate === 0}>
+              <Button
+                onClick={() => finish.mutate({ jobId: upload.id, action: 'import' })}
+                loading={finish.isPending}
+                disabled={upload.counts.new === 0 && upload.counts.duplicate === 0}
+              >
                 {upload.counts.new > 0 ? `Import ${upload.counts.new.toLocaleString('en-GB')} new sets` : 'Import'}
               </Button>
               <Button variant="ghost" onClick={() => finish.mutate({ jobId: upload.id, action: 'cancel' })} disabled={finish.isPending}>
@@ -196,12 +240,20 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
               </Button>
             </div>
           )}
-          {finish.isError && <Alert className="mt-4" title="That did not work">{errorMessage(finish.error)}</Alert>}
+          {finish.isError && (
+            <Alert className="mt-4" title="That did not work">
+              {errorMessage(finish.error)}
+            </Alert>
+          )}
           {done && (
             <p className="mt-4 text-sm">
-              <Link to="/console/orbit" className="font-semibold text-amber-300 underline">See the trend</Link>
+              <Link to="/console/orbit" className="font-semibold text-amber-300 underline">
+                See the trend
+              </Link>
               {' · '}
-              <Link to="/console/orbit/history" className="font-semibold text-amber-300 underline">Open the history</Link>
+              <Link to="/console/orbit/history" className="font-semibold text-amber-300 underline">
+                Open the history
+              </Link>
             </p>
           )}
         </Card>

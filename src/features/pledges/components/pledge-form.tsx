@@ -15,7 +15,17 @@ type Errors = Partial<Record<'amount' | 'publicName' | 'message' | 'form', strin
  * Tier or custom amount, name or anonymous, a message. On submit the server opens a checkout at the
  * processor and we go there; the card is typed on the processor's page, never here.
  */
-export function PledgeForm({ campaign, account, initialTierId, onCheckout }: { campaign: CampaignView; account: AccountView; initialTierId: string | null; onCheckout: (url: string) => void }) {
+export function PledgeForm({
+  campaign,
+  account,
+  initialTierId,
+  onCheckout,
+}: {
+  campaign: CampaignView;
+  account: AccountView;
+  initialTierId: string | null;
+  onCheckout: (url: string) => void;
+}) {
   const available = campaign.tiers.filter((t) => !t.soldOut);
   const initial = available.find((t) => t.id === initialTierId) ?? null;
   const [tierId, setTierId] = useState<string | null>(initial?.id ?? null);
@@ -43,8 +53,10 @@ export function PledgeForm({ campaign, account, initialTierId, onCheckout }: { c
     const next: Errors = {};
     const parsed = parseAmountToMinor(amount, campaign.currency);
     if ('error' in parsed) next.amount = parsed.error;
-    else if (parsed.minor < minMinor) next.amount = `The smallest amount${tier ? ` for ${tier.title}` : ''} is ${money(minMinor, campaign.currency)}`;
-    else if (parsed.minor > PLEDGE_MAX_MINOR) next.amount = `The largest pledge we take here is ${money(PLEDGE_MAX_MINOR, campaign.currency)}`;
+    else if (parsed.minor < minMinor)
+      next.amount = `The smallest amount${tier ? ` for ${tier.title}` : ''} is ${money(minMinor, campaign.currency)}`;
+    else if (parsed.minor > PLEDGE_MAX_MINOR)
+      next.amount = `The largest pledge we take here is ${money(PLEDGE_MAX_MINOR, campaign.currency)}`;
     if (!anonymous && publicName.trim().length > 60) next.publicName = 'Keep the public name to 60 characters';
     if (message.trim().length > 500) next.message = 'Keep the message to 500 characters';
     setErrors(next);
@@ -71,7 +83,10 @@ export function PledgeForm({ campaign, account, initialTierId, onCheckout }: { c
         }
         if (error.code === 'pledges.tier_sold_out') fieldErrors.form = `${error.message} Choose another tier.`;
       }
-      setErrors({ ...fieldErrors, form: fieldErrors.form ?? (isApiError(error) ? error.message : 'Something went wrong. Please try again.') });
+      setErrors({
+        ...fieldErrors,
+        form: fieldErrors.form ?? (isApiError(error) ? error.message : 'Something went wrong. Please try again.'),
+      });
     }
   };
 
@@ -80,12 +95,26 @@ export function PledgeForm({ campaign, account, initialTierId, onCheckout }: { c
       {errors.form && <Alert title="The pledge did not start">{errors.form}</Alert>}
       <fieldset className="space-y-2">
         <legend className="mb-2 text-sm font-semibold text-foil-100">What would you like to back?</legend>
-        {[...available.map((t) => ({ id: t.id as string | null, title: t.title, note: t.kind === 'monthly' ? `${money(t.minAmountMinor, campaign.currency)} a month` : `from ${money(t.minAmountMinor, campaign.currency)}`, detail: t.remaining !== null ? `${t.remaining} left` : null })), { id: null, title: 'No reward — just support the mission', note: 'any amount', detail: null }].map((option) => {
+        {[
+          ...available.map((t) => ({
+            id: t.id as string | null,
+            title: t.title,
+            note:
+              t.kind === 'monthly'
+                ? `${money(t.minAmountMinor, campaign.currency)} a month`
+                : `from ${money(t.minAmountMinor, campaign.currency)}`,
+            detail: t.remaining !== null ? `${t.remaining} left` : null,
+          })),
+          { id: null, title: 'No reward — just support the mission', note: 'any amount', detail: null },
+        ].map((option) => {
           const checked = option.id === tierId;
           return (
             <label
               key={option.id ?? 'custom'}
-              className={cn('flex cursor-pointer items-start gap-3 rounded-xl border px-4 py-3', checked ? 'border-amber-400 bg-night-800' : 'border-foil-700 hover:border-foil-500')}
+              className={cn(
+                'flex cursor-pointer items-start gap-3 rounded-xl border px-4 py-3',
+                checked ? 'border-amber-400 bg-night-800' : 'border-foil-700 hover:border-foil-500',
+              )}
             >
               <input type="radio" name="tier" className="mt-1 accent-amber-400" checked={checked} onChange={() => choose(option.id)} />
               <span className="min-w-0 flex-1">
@@ -123,14 +152,32 @@ export function PledgeForm({ campaign, account, initialTierId, onCheckout }: { c
             Stay anonymous
           </label>
         </div>
-        {!anonymous && <TextField label="Public name" name="publicName" maxLength={60} value={publicName} onChange={(e) => setPublicName(e.target.value)} error={errors.publicName} />}
+        {!anonymous && (
+          <TextField
+            label="Public name"
+            name="publicName"
+            maxLength={60}
+            value={publicName}
+            onChange={(e) => setPublicName(e.target.value)}
+            error={errors.publicName}
+          />
+        )}
       </fieldset>
 
       <div className="space-y-1.5">
         <label htmlFor={messageId} className="block text-sm font-semibold text-foil-100">
           A message for the team <span className="font-normal text-foil-400">(optional, shown with your name)</span>
         </label>
-        <textarea id={messageId} name="message" rows={3} maxLength={500} className={inputClasses} value={message} onChange={(e) => setMessage(e.target.value)} aria-invalid={errors.message ? true : undefined} />
+        <textarea
+          id={messageId}
+          name="message"
+          rows={3}
+          maxLength={500}
+          className={inputClasses}
+          value={message}
+          onChange={(e) => setMessage(e.target.value)}
+          aria-invalid={errors.message ? true : undefined}
+        />
         {errors.message && <p className="text-sm font-semibold text-red-300">{errors.message}</p>}
       </div>
 

@@ -4,8 +4,17 @@ import { OrbitDeskFrame } from '@/features/orbit/components/orbit-desk-frame';
 
 export function Component() {
   return (
-    <OrbitDeskFrame title="Element-set history" description="Every stored set with its derived orbit, the file it came from, and whether the trend treats it as an outlier.">
-      {(craft) => (craft ? <Card><HistoryTable spacecraftId={craft.id} /></Card> : null)}
+    <OrbitDeskFrame
+      title="Element-set history"
+      description="Every stored set with its derived orbit, the file it came from, and whether the trend treats it as an outlier."
+    >
+      {(craft) =>
+        craft ? (
+          <Card>
+            <HistoryTable spacecraftId={craft.id} />
+          </Card>
+        ) : null
+      }
     </OrbitDeskFrame>
   );
 }

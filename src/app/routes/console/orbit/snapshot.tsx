@@ -22,9 +22,22 @@ export function Component() {
             <SnapshotChartView data={q.data.snapshot.data} title={q.data.snapshot.title} caption={q.data.snapshot.caption} />
             <p className="mt-3 text-sm text-foil-300">
               Downloads:{' '}
-              <a className="text-amber-300 underline" href={`/api/orbit/snapshots/${q.data.snapshot.id}/chart.png`} download>PNG</a> ·{' '}
-              <a className="text-amber-300 underline" href={`/api/orbit/snapshots/${q.data.snapshot.id}/chart.svg`} download>SVG</a>
-              {q.data.snapshot.isPublic && <> · public link <a className="text-amber-300 underline" href={q.data.snapshot.publicPath}>{q.data.snapshot.publicPath}</a></>}
+              <a className="text-amber-300 underline" href={`/api/orbit/snapshots/${q.data.snapshot.id}/chart.png`} download>
+                PNG
+              </a>{' '}
+              ·{' '}
+              <a className="text-amber-300 underline" href={`/api/orbit/snapshots/${q.data.snapshot.id}/chart.svg`} download>
+                SVG
+              </a>
+              {q.data.snapshot.isPublic && (
+                <>
+                  {' '}
+                  · public link{' '}
+                  <a className="text-amber-300 underline" href={q.data.snapshot.publicPath}>
+                    {q.data.snapshot.publicPath}
+                  </a>
+                </>
+              )}
             </p>
           </Card>
         )

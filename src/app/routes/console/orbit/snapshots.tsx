@@ -6,8 +6,16 @@ import { SnapshotList } from '@/features/orbit/components/snapshot-list';
 export function Component() {
   const me = useMe();
   return (
-    <OrbitDeskFrame title="Snapshots" description="Frozen charts for dispatches, e-mail and download. A public snapshot keeps one stable link." requireCraft={false}>
-      {() => <Card><SnapshotList meId={me.data?.id} isAdmin={!!me.data?.roles.includes('admin')} /></Card>}
+    <OrbitDeskFrame
+      title="Snapshots"
+      description="Frozen charts for dispatches, e-mail and download. A public snapshot keeps one stable link."
+      requireCraft={false}
+    >
+      {() => (
+        <Card>
+          <SnapshotList meId={me.data?.id} isAdmin={!!me.data?.roles.includes('admin')} />
+        </Card>
+      )}
     </OrbitDeskFrame>
   );
 }

@@ -7,8 +7,16 @@ import { SpacecraftForm } from '@/features/orbit/components/spacecraft-form';
 export function Component() {
   const [adding, setAdding] = useState(false);
   return (
-    <OrbitDeskFrame title="Spacecraft record" description="What the drag and sail models need, and the catalog number that ties element sets to the craft." requireCraft={false}
-      actions={<Button variant="secondary" onClick={() => setAdding((a) => !a)}>{adding ? 'Edit the current craft' : 'Add another craft'}</Button>}>
+    <OrbitDeskFrame
+      title="Spacecraft record"
+      description="What the drag and sail models need, and the catalog number that ties element sets to the craft."
+      requireCraft={false}
+      actions={
+        <Button variant="secondary" onClick={() => setAdding((a) => !a)}>
+          {adding ? 'Edit the current craft' : 'Add another craft'}
+        </Button>
+      }
+    >
       {(craft) => (
         <Card>
           <CardHeader level={2} title={adding || !craft ? 'New spacecraft' : craft.name} />

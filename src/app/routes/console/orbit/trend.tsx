@@ -32,7 +32,8 @@ function TrendView({ craft }: { craft: Spacecraft }) {
   if (t.series.epochMs.length === 0) {
     return <EmptyState title="No element sets yet" description="Upload a file of element sets to see the orbit's trend." />;
   }
-  const first = t.series.epochMs[0]!, last = t.series.epochMs[t.series.epochMs.length - 1]!;
+  const first = t.series.epochMs[0]!,
+    last = t.series.epochMs[t.series.epochMs.length - 1]!;
   const view = domain ?? { fromMs: first, toMs: last };
   const series: SnapshotSeriesKey[] = [...selection.left, ...(selection.right === 'none' ? [] : [selection.right])];
   const applyWindow = (from: number, to: number) => {
@@ -55,7 +56,10 @@ function TrendView({ craft }: { craft: Spacecraft }) {
                     className="size-4 accent-amber-400"
                     checked={selection.left.includes(k)}
                     onChange={(e) =>
-                      setSelection((s) => ({ ...s, left: e.target.checked ? LEFT.filter((x) => x === k || s.left.includes(x)) : s.left.filter((x) => x !== k) }))
+                      setSelection((s) => ({
+                        ...s,
+                        left: e.target.checked ? LEFT.filter((x) => x === k || s.left.includes(x)) : s.left.filter((x) => x !== k),
+                      }))
                     }
                   />
                   <span aria-hidden="true" className="inline-block h-0.5 w-4" style={{ background: SERIES[k].color }} />
@@ -85,14 +89,24 @@ function TrendView({ craft }: { craft: Spacecraft }) {
           className="mb-4 flex flex-wrap items-end gap-3"
           onSubmit={(e) => {
             e.preventDefault();
-            const from = fromDateInput(fromInput), to = fromDateInput(toInput, true);
+            const from = fromDateInput(fromInput),
+              to = fromDateInput(toInput, true);
             if (from !== null && to !== null && to > from) applyWindow(from, to);
           }}
         >
-          <TextField label="Rate window from" type="date" value={fromInput || toDateInput(t.window.fromMs)} onChange={(e) => setFromInput(e.target.value)} />
+          <TextField
+            label="Rate window from"
+            type="date"
+            value={fromInput || toDateInput(t.window.fromMs)}
+            onChange={(e) => setFromInput(e.target.value)}
+          />
           <TextField label="to" type="date" value={toInput || toDateInput(t.window.toMs)} onChange={(e) => setToInput(e.target.value)} />
-          <Button type="submit" variant="secondary">Apply</Button>
-          <Button variant="ghost" onClick={() => applyWindow(view.fromMs, view.toMs)}>Use the zoomed range</Button>
+          <Button type="submit" variant="secondary">
+            Apply
+          </Button>
+          <Button variant="ghost" onClick={() => applyWindow(view.fromMs, view.toMs)}>
+            Use the zoomed range
+          </Button>
           {trend.isFetching && <Spinner size="sm" label="Updating rates…" />}
         </form>
         <RatesPanel trend={t} />
@@ -101,8 +115,17 @@ function TrendView({ craft }: { craft: Spacecraft }) {
       <div className="grid gap-6 xl:grid-cols-2">
         <SailYieldPanel spacecraftId={craft.id} />
         <Card>
-          <CardHeader level={2} title="Save as snapshot" description="Freezes the zoomed range, the series shown, the rate window and your note, for dispatches." />
-          <SaveSnapshotForm spacecraftId={craft.id} view={view} rateWindow={{ fromMs: t.window.fromMs, toMs: t.window.toMs }} series={series} />
+          <CardHeader
+            level={2}
+            title="Save as snapshot"
+            description="Freezes the zoomed range, the series shown, the rate window and your note, for dispatches."
+          />
+          <SaveSnapshotForm
+            spacecraftId={craft.id}
+            view={view}
+            rateWindow={{ fromMs: t.window.fromMs, toMs: t.window.toMs }}
+            series={series}
+          />
         </Card>
       </div>
     </div>
@@ -111,7 +134,10 @@ function TrendView({ craft }: { craft: Spacecraft }) {
 
 export function Component() {
   return (
-    <OrbitDeskFrame title="Orbit trend" description="Apogee, perigee and mean altitude from every stored element set, with the sailing periods and robust rates.">
+    <OrbitDeskFrame
+      title="Orbit trend"
+      description="Apogee, perigee and mean altitude from every stored element set, with the sailing periods and robust rates."
+    >
       {(craft) => (craft ? <TrendView craft={craft} /> : null)}
     </OrbitDeskFrame>
   );
