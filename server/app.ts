@@ -22,6 +22,7 @@ import { createAccountRouter, createAdminRouter } from './modules/accounts/accou
 import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
 import { createFunding } from './modules/pledges/funding';
+import { createOpenDataRouter } from './modules/open-data/open-data.routes';
 
 export type AppDeps = {
   db: Db;
@@ -120,6 +121,7 @@ export function createApp(deps: AppDeps): Express {
 
   const orbitDesk = createOrbitModule({ db, logger });
   mount(app, '/api/orbit', createOrbitRouter({ db, config, module: orbitDesk }));
+  mount(app, '/api/public/orbit', createOpenDataRouter({ pool }));
   mount(app, '/api/public/orbit', createPublicOrbitRouter({ module: orbitDesk }));
   mount(app, '/api/public/snapshots', createPublicSnapshotsRouter({ module: orbitDesk }));
 
