@@ -15,6 +15,8 @@ export default defineConfig({
     },
   },
   build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1500 },
+  // satellite.js also ships an optional WebAssembly build with a threaded worker (top-level await): ES workers build it.
+  worker: { format: 'es' },
   server: {
     host: '127.0.0.1',
     port: Number(process.env.VITE_PORT ?? 5173),

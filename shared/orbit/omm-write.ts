@@ -93,5 +93,5 @@ export function formatOmmXml(sets: readonly OmmWriteInput[], opts: { creationMs:
       body: { segment: { metadata: k.metadata, data: { meanElements: k.meanElements, tleParameters: k.tleParameters } } },
     };
   });
-  return `<?xml version="1.0" encoding="UTF-8"?>\n${builder.build({ ndm: { omm } }) as string}`;
+  return `<?xml version="1.0" encoding="UTF-8"?>\n${builder.build({ ndm: { omm } })}`;
 }

@@ -1,6 +1,8 @@
 import { Link } from 'react-router-dom';
 import { buttonClasses } from '@/components/ui/button';
 import { useDocumentTitle } from '@/lib/document-title';
+import { MISSION_CRAFT_SLUG } from '@/features/live-orbit/api/get-latest-set';
+import { openDataLinks } from '@/features/live-orbit/open-data';
 
 export const orbitCaution =
   'Orbit and lifetime estimates shown here are not for collision or re-entry safety decisions; rely on official space-surveillance providers';
@@ -166,6 +168,36 @@ export function Component() {
           <Link to="/campaign" className={buttonClasses({ size: 'lg' })}>
             Back the mission
           </Link>
+        </div>
+      </section>
+
+      <section aria-labelledby="follow-title" className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
+        <h2 id="follow-title" className="text-2xl font-bold text-foil-50">
+          Follow the sail yourself
+        </h2>
+        <div className="mt-4 grid gap-4 md:grid-cols-3">
+          <Link to="/where-it-is-now" className="rounded-2xl border border-foil-700/60 bg-night-900/80 p-5 hover:border-amber-400/60">
+            <span className="block font-bold text-foil-50">Where it is now</span>
+            <span className="mt-1 block text-sm text-foil-300">The craft on a world map, its path and the night side, live.</span>
+          </Link>
+          <Link to="/sky-watch" className="rounded-2xl border border-foil-700/60 bg-night-900/80 p-5 hover:border-amber-400/60">
+            <span className="block font-bold text-foil-50">Sky watch</span>
+            <span className="mt-1 block text-sm text-foil-300">When it crosses your evening or morning sky, with calendar files.</span>
+          </Link>
+          <div className="rounded-2xl border border-foil-700/60 bg-night-900/80 p-5">
+            <p className="font-bold text-foil-50">Open data</p>
+            <p className="mt-1 text-sm text-foil-300">Every element set we use, so you can check our numbers:</p>
+            <ul className="mt-2 space-y-1 text-sm">
+              {openDataLinks(MISSION_CRAFT_SLUG).map((l) => (
+                <li key={l.href}>
+                  <a href={l.href} download className="font-semibold text-amber-300 underline">
+                    {l.label}
+                  </a>{' '}
+                  <span className="text-foil-400">— {l.description}</span>
+                </li>
+              ))}
+            </ul>
+          </div>
         </div>
       </section>
 

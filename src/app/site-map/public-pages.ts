@@ -14,4 +14,6 @@ export const publicPages: PublicPage[] = [
   { path: 'pledges/:id/thanks', lazy: () => import('@/app/routes/pledge-thanks') },
   { path: 'pledges/:id/cancelled', lazy: () => import('@/app/routes/pledge-cancelled') },
   { path: 'snapshots/:slug', lazy: () => import('@/app/routes/public-snapshot') },
+  { path: 'where-it-is-now', lazy: () => import('@/app/routes/where-it-is-now'), nav: { label: 'Where it is now', order: 30 } },
+  { path: 'sky-watch', lazy: () => import('@/app/routes/sky-watch'), nav: { label: 'Sky watch', order: 40 } },
 ];
