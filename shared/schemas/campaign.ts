@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { FilledBudgetLine } from '../flight-budget';
 
 // Inputs and views of campaigns, tiers, stretch targets and pledges, shared by forms and the server.
 // Money is always integer minor units with an ISO 4217 currency.
@@ -137,6 +138,8 @@ export type CampaignView = {
   endsAt: string;
   tiers: TierView[];
   stretchTargets: StretchTargetView[];
+  /** The flight budget filled in order by the money raised; empty when outreach has set no lines. */
+  budgetLines: FilledBudgetLine[];
   progress: CampaignProgress;
 };
 

@@ -76,6 +76,13 @@ export const rbacTable: Row[] = [
     outreach: 400,
     admin: 400,
   },
+  {
+    route: 'PUT /api/campaigns/:slug/budget-lines',
+    sample: '/api/campaigns/tern-1/budget-lines',
+    ...outreachWrite,
+    outreach: 400,
+    admin: 400,
+  },
   { route: 'POST /api/pledges', ...signedIn, backer: 400, admin: 400 },
   { route: 'GET /api/pledges/:id', sample: `/api/pledges/${someId}`, ...signedIn, backer: 404, admin: 404 },
   { route: 'POST /api/pledges/:id/cancel', sample: `/api/pledges/${someId}/cancel`, ...signedIn, backer: 404, admin: 404 },

@@ -1,6 +1,7 @@
 import type { CampaignView, StretchTargetView, TierView } from '../../../shared/schemas/campaign';
+import type { BudgetLine } from '../../../shared/flight-budget';
 
-// The one query behind the public campaign endpoint: the campaign, its tiers and stretch targets, and the
+// The one query behind the public campaign endpoint: the campaign, its tiers, stretch targets and budget lines, and the
 // progress derived from the ledger (net of refunds and disputes), as a single JSON row. The benchmark runs
 // this same text in a bare handler, so keep it here and nowhere else.
 export const campaignReadSql = `
@@ -17,6 +18,9 @@ SELECT json_build_object(
   'stretchTargets', COALESCE((
     SELECT json_agg(json_build_object('id', s.id, 'amountMinor', s.amount_minor, 'title', s.title, 'description', s.description) ORDER BY s.amount_minor)
     FROM stretch_targets s WHERE s.campaign_id = c.id), '[]'::json),
+  'budgetLines', COALESCE((
+    SELECT json_agg(json_build_object('id', b.id, 'name', b.name, 'amountMinor', b.amount_minor, 'reason', b.reason) ORDER BY b.position)
+    FROM budget_lines b WHERE b.campaign_id = c.id), '[]'::json),
   'raisedMinor', COALESCE((
     SELECT sum(l.amount_minor) FROM ledger_entries l
     WHERE l.campaign_id = c.id AND l.kind IN ('charge', 'refund', 'dispute')), 0),
@@ -31,9 +35,10 @@ FROM campaigns c
 WHERE c.slug = $1`;
 
 /** The row's JSON: the view's own fields, plus the raw counts the view's derived fields come from. */
-export type CampaignReadRow = Omit<CampaignView, 'tiers' | 'stretchTargets' | 'progress'> & {
+export type CampaignReadRow = Omit<CampaignView, 'tiers' | 'stretchTargets' | 'budgetLines' | 'progress'> & {
   tiers: (Omit<TierView, 'remaining' | 'soldOut'> & { soldCount: number })[];
   stretchTargets: Omit<StretchTargetView, 'reached'>[];
+  budgetLines: BudgetLine[];
   raisedMinor: number;
   backers: number;
 };

@@ -4,6 +4,7 @@ import { validated } from '../../middleware/validate';
 import { requireRole } from '../../middleware/auth';
 import type { CampaignsService } from './campaigns.service';
 import { stretchTargetsSchema, tierInputSchema, updateCampaignSchema } from '../../../shared/schemas/campaign';
+import { budgetLinesSchema } from '../../../shared/schemas/budget-lines';
 
 const slugParams = z.object({ slug: z.string().regex(/^[a-z0-9-]{1,80}$/, 'must be a campaign slug') });
 const tierParams = slugParams.extend({ tierId: z.uuid({ message: 'must be a tier id' }) });
@@ -72,6 +73,14 @@ export function createCampaignsRouter({ campaigns }: { campaigns: CampaignsServi
     staff,
     validated({ params: slugParams, body: stretchTargetsSchema }, async (req, res, { params, body }) => {
       res.json({ campaign: await campaigns.replaceStretchTargets({ actorId: req.user!.id, slug: params.slug, input: body }) });
+    }),
+  );
+
+  router.put(
+    '/:slug/budget-lines',
+    staff,
+    validated({ params: slugParams, body: budgetLinesSchema }, async (req, res, { params, body }) => {
+      res.json({ campaign: await campaigns.replaceBudgetLines({ actorId: req.user!.id, slug: params.slug, input: body }) });
     }),
   );
 

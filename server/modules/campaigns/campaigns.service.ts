@@ -1,7 +1,9 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
-import { campaigns, stretchTargets, tiers } from './campaigns.tables';
+import { budgetLines, campaigns, stretchTargets, tiers } from './campaigns.tables';
+import { budgetTotalMinor, fillBudget } from '../../../shared/flight-budget';
+import type { BudgetLinesInput } from '../../../shared/schemas/budget-lines';
 import { pledges } from '../pledges/pledges.tables';
 import { campaignReadSql, type CampaignReadRow } from './campaign-read.sql';
 import { recordAudit } from '../audit/audit.repository';
@@ -50,6 +52,10 @@ export function campaignViewOf(row: CampaignReadRow, now: Date, opts: { includeI
       amountMinor: Number(s.amountMinor),
       reached: raisedMinor >= Number(s.amountMinor),
     })),
+    budgetLines: fillBudget(
+      row.budgetLines.map((b) => ({ ...b, amountMinor: Number(b.amountMinor) })),
+      raisedMinor,
+    ),
     progress: {
       raisedMinor,
       goalMinor,
@@ -249,6 +255,45 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           subjectId: campaign.id,
           before: before.map((b) => ({ amountMinor: b.amountMinor, title: b.title })),
           after: input.targets.map((b) => ({ amountMinor: b.amountMinor, title: b.title })),
+        });
+      });
+      cache.clear();
+      return this.view(slug, { fresh: true, includeInactive: true });
+    },
+
+    /** Replaces the flight budget; with lines, the goal becomes their sum in the same transaction. */
+    async replaceBudgetLines({ actorId, slug, input }: { actorId: string; slug: string; input: BudgetLinesInput }) {
+      await db.transaction(async (tx) => {
+        const campaign = await requireCampaign(slug, tx as unknown as Db);
+        const before = await tx
+          .select()
+          .from(budgetLines)
+          .where(eq(budgetLines.campaignId, campaign.id))
+          .orderBy(asc(budgetLines.position));
+        const same =
+          before.length === input.lines.length &&
+          before.every(
+            (b, i) =>
+              b.name === input.lines[i]!.name && b.amountMinor === input.lines[i]!.amountMinor && b.reason === input.lines[i]!.reason,
+          );
+        if (same) return;
+        await tx.delete(budgetLines).where(eq(budgetLines.campaignId, campaign.id));
+        if (input.lines.length > 0) {
+          await tx.insert(budgetLines).values(input.lines.map((l, position) => ({ ...l, position, campaignId: campaign.id })));
+          const goalMinor = budgetTotalMinor(input.lines);
+          if (goalMinor !== campaign.goalMinor)
+            await tx.update(campaigns).set({ goalMinor, updatedAt: new Date() }).where(eq(campaigns.id, campaign.id));
+        }
+        await recordAudit(tx, {
+          actorId,
+          action: 'campaign.budget_lines_replaced',
+          subjectType: 'campaign',
+          subjectId: campaign.id,
+          before: { lines: before.map((b) => ({ name: b.name, amountMinor: b.amountMinor })), goalMinor: campaign.goalMinor },
+          after: {
+            lines: input.lines.map((b) => ({ name: b.name, amountMinor: b.amountMinor })),
+            goalMinor: input.lines.length ? budgetTotalMinor(input.lines) : campaign.goalMinor,
+          },
         });
       });
       cache.clear();

@@ -77,3 +77,23 @@ export const stretchTargets = pgTable(
     check('stretch_targets_amount_positive', sql`${t.amountMinor} > 0`),
   ],
 );
+
+/** The flight budget: what the goal pays for, line by line, filled in `position` order by the money raised. */
+export const budgetLines = pgTable(
+  'budget_lines',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    campaignId: uuid('campaign_id')
+      .notNull()
+      .references(() => campaigns.id, { onDelete: 'cascade' }),
+    position: integer('position').notNull(),
+    name: text('name').notNull(),
+    amountMinor: bigint('amount_minor', { mode: 'number' }).notNull(),
+    reason: text('reason').notNull().default(''),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('budget_lines_campaign_position_key').on(t.campaignId, t.position),
+    check('budget_lines_amount_positive', sql`${t.amountMinor} > 0`),
+  ],
+);
