@@ -197,3 +197,8 @@ export type ReceiptView = {
   pledgeId: string;
   pledgeKind: TierKind;
 };
+
+/** The one name, on every screen and in every e-mail, for a pledge that picks no thank-you gift. */
+export const NO_GIFT_LABEL = 'Support without a gift';
+/** The one name of the public list of backers' names that some gifts promise. */
+export const SAIL_ROLL_LABEL = 'Sail roll';

@@ -35,7 +35,11 @@ describe('pledging in the browser', () => {
     await page.getByRole('heading', { name: 'Mission patch' }).waitFor();
     await shot(page, 'pledge-01-campaign-desktop');
 
-    await page.getByRole('article', { name: 'Mission patch' }).getByRole('link', { name: 'Pledge' }).click();
+    await page
+      .getByRole('listitem')
+      .filter({ has: page.getByRole('heading', { name: 'Mission patch' }) })
+      .getByRole('link', { name: /^Pledge .* or more$/ })
+      .click();
     await page.getByRole('heading', { name: 'Make a pledge' }).waitFor();
     await page.getByLabel(/^Amount/).fill('50');
     await page.getByLabel('Public name').fill('Wren from the e2e test');
@@ -71,7 +75,7 @@ describe('pledging in the browser', () => {
     await page.goto(`${baseUrl}/campaign`);
     await page.getByRole('heading', { name: 'Mission patch' }).waitFor();
     await shot(page, 'pledge-06-campaign-phone');
-    await page.getByRole('link', { name: 'Pledge any amount' }).first().click();
+    await page.getByRole('link', { name: 'Support without a gift' }).first().click();
     await page.getByRole('heading', { name: 'Make a pledge' }).waitFor();
     await page.getByLabel('Stay anonymous').check();
     await page.getByLabel(/^Amount/).fill('20');
@@ -107,7 +111,11 @@ describe('pledging in the browser', () => {
     const { page, context, problems } = await newPage(browser);
     await signInAs(page, baseUrl, 'backer@saltmarsh.example', DEMO_PASSWORD);
     await page.goto(`${baseUrl}/campaign`);
-    await page.getByRole('article', { name: 'Crew membership' }).getByRole('link', { name: 'Join the crew' }).click();
+    await page
+      .getByRole('listitem')
+      .filter({ has: page.getByRole('heading', { name: 'Crew membership', exact: true }) })
+      .getByRole('link', { name: /^Join the crew/ })
+      .click();
     await page.getByRole('heading', { name: 'Make a pledge' }).waitFor();
     await page.getByRole('button', { name: 'Continue to payment' }).click();
     await payOnHostedPage(page, '4242 4242 4242 4242');
@@ -149,7 +157,7 @@ describe('the campaign desk', () => {
         async () => {
           await page.goto(`${baseUrl}/campaign`);
           // count() does not wait: let the campaign render before counting its tier headings.
-          await page.getByRole('heading', { name: 'Reward tiers' }).waitFor();
+          await page.getByRole('heading', { name: 'Thank-you gifts' }).waitFor();
           return page.getByRole('heading', { name: 'Sail log postcard, signed' }).count();
         },
         { timeout: 15_000, interval: 1000 },

@@ -29,7 +29,7 @@ const chapters = [
   },
   {
     title: 'Report',
-    text: 'Our engineers read the published element sets and tell you, in plain words, whether the sail is winning. Backers get every dispatch from orbit first.',
+    text: 'Our engineers read the published element sets and tell you, in plain words, whether the sail is winning. Backers get every dispatch from orbit; crew members read each one a day early.',
   },
 ];
 

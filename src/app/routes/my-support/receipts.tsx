@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { NO_GIFT_LABEL } from '@shared/schemas/campaign';
 import { Alert } from '@/components/ui/alert';
 import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -34,7 +35,7 @@ export function Component() {
                   className="flex flex-wrap items-center justify-between gap-2 px-5 py-3 hover:bg-night-800/60"
                 >
                   <span className="text-foil-100">
-                    {pay.kind === 'refund' ? 'Refund' : 'Payment'} · {pay.pledge.tier?.title ?? 'No reward'}
+                    {pay.kind === 'refund' ? 'Refund' : 'Payment'} · {pay.pledge.tier?.title ?? NO_GIFT_LABEL}
                     <span className="block text-sm text-foil-400">{dateFormat.format(new Date(pay.occurredAt))}</span>
                   </span>
                   <span className="font-semibold tabular-nums text-foil-50">{money(pay.amountMinor, pay.currency)}</span>

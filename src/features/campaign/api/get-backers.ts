@@ -13,7 +13,7 @@ export type BackerView = {
 
 export function getBackers(slug: string, { signal }: { signal?: AbortSignal } = {}) {
   return api
-    .get<{ backers: BackerView[] }>(`/api/campaigns/${encodeURIComponent(slug)}/backers?limit=12`, { signal })
+    .get<{ backers: BackerView[] }>(`/api/campaigns/${encodeURIComponent(slug)}/backers?limit=100`, { signal })
     .then((r) => r.backers);
 }
 

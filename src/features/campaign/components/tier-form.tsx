@@ -95,7 +95,7 @@ export function TierForm({ slug, currency, tier, onDone }: { slug: string; curre
           error={errors.quantityLimit}
         />
         <TextField
-          label="Estimated delivery"
+          label="Gift ships around"
           type="date"
           value={v.delivery}
           onChange={(e) => setV({ ...v, delivery: e.target.value })}

@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { NO_GIFT_LABEL } from '@shared/schemas/campaign';
 import { Badge } from '@/components/ui/badge';
 import { pledgeStateLabels } from '@/lib/pledge-state';
 import type { MyPledge } from '../api/get-my-pledges';
@@ -14,7 +15,7 @@ export function PledgeList({ pledges }: { pledges: MyPledge[] }) {
           <div className="flex flex-wrap items-start justify-between gap-3">
             <div className="min-w-0">
               <p className="font-bold text-foil-50">
-                {p.tier?.title ?? 'Support without a reward'} · {money(p.amountMinor, p.currency)}
+                {p.tier?.title ?? NO_GIFT_LABEL} · {money(p.amountMinor, p.currency)}
                 {p.kind === 'monthly' && ' a month'}
               </p>
               <p className="text-sm text-foil-400">

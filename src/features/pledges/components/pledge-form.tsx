@@ -1,4 +1,5 @@
 import { useId, useState, type FormEvent } from 'react';
+import { NO_GIFT_LABEL } from '@shared/schemas/campaign';
 import type { AccountView } from '@shared/schemas/auth';
 import { PLEDGE_MAX_MINOR, PLEDGE_MIN_MINOR, type CampaignView } from '@shared/schemas/campaign';
 import { Alert } from '@/components/ui/alert';
@@ -105,7 +106,7 @@ export function PledgeForm({
                 : `from ${money(t.minAmountMinor, campaign.currency)}`,
             detail: t.remaining !== null ? `${t.remaining} left` : null,
           })),
-          { id: null, title: 'No reward — just support the mission', note: 'any amount', detail: null },
+          { id: null, title: NO_GIFT_LABEL, note: `any amount from ${money(PLEDGE_MIN_MINOR, campaign.currency)}`, detail: null },
         ].map((option) => {
           const checked = option.id === tierId;
           return (

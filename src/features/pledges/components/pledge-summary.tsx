@@ -1,4 +1,5 @@
 import type { PledgeView } from '@shared/schemas/campaign';
+import { NO_GIFT_LABEL } from '@shared/schemas/campaign';
 import { pledgeStateLabels } from '@/lib/pledge-state';
 import { money } from '../amount';
 
@@ -8,7 +9,7 @@ export function PledgeSummary({ pledge }: { pledge: PledgeView }) {
       <dt className="text-foil-400">Campaign</dt>
       <dd className="text-foil-100">{pledge.campaign.title}</dd>
       <dt className="text-foil-400">Tier</dt>
-      <dd className="text-foil-100">{pledge.tier?.title ?? 'No reward'}</dd>
+      <dd className="text-foil-100">{pledge.tier?.title ?? NO_GIFT_LABEL}</dd>
       <dt className="text-foil-400">Amount</dt>
       <dd className="font-semibold text-foil-50">
         {money(pledge.amountMinor, pledge.currency)}
