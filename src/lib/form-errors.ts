@@ -29,7 +29,7 @@ export function applyApiError<T extends FieldValues>(
     }
   }
   if (error.details.length > 0 && leftOver.length === 0) return null;
-  if (error.status === 429 && error.retryAfterSeconds !== undefined) {
+  if ((error.status === 429 || error.status === 503) && error.retryAfterSeconds !== undefined) {
     return `${error.message} Try again in ${formatWait(error.retryAfterSeconds)}.`;
   }
   return [error.message, ...leftOver].join(' ');
