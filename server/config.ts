@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { DEFAULT_CONNECT_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from './db/client';
 
 // The environment, parsed once. Defaults are the local loopback set-up that `npm start` brings up.
 const configSchema = z.object({
@@ -11,6 +12,10 @@ const configSchema = z.object({
     .regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL')
     .default('postgres://postgres@127.0.0.1:54329/lightkeel'),
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(20),
+  // How long to wait for a database connection, and the longest a statement may run (lock waits included),
+  // so an outage or a locked table answers 503 instead of holding every connection.
+  DATABASE_CONNECT_TIMEOUT_MS: z.coerce.number().int().min(100).max(600_000).default(DEFAULT_CONNECT_TIMEOUT_MS),
+  DATABASE_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).max(3_600_000).default(DEFAULT_STATEMENT_TIMEOUT_MS),
   SESSION_SECRET: z.string().min(16, 'must be at least 16 characters').default('lightkeel-local-session-secret-change-me'),
   TRUST_PROXY: z
     .enum(['true', 'false'])

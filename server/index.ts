@@ -16,7 +16,11 @@ try {
 }
 
 const logger = pino({ level: config.LOG_LEVEL });
-const { db, pool } = createDb(config.DATABASE_URL, { max: config.DATABASE_POOL_MAX });
+const { db, pool } = createDb(config.DATABASE_URL, {
+  max: config.DATABASE_POOL_MAX,
+  connectTimeoutMs: config.DATABASE_CONNECT_TIMEOUT_MS,
+  statementTimeoutMs: config.DATABASE_STATEMENT_TIMEOUT_MS,
+});
 const app = createApp({
   db,
   pool,

@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { randomUUID } from 'node:crypto';
 import { ZodError } from 'zod';
 import { AppError } from '../errors';
+import { classifyDatabaseError, DATABASE_RETRY_AFTER_SECONDS } from '../db/errors';
 
 export const notFoundApi: RequestHandler = (req, res) => {
   res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.path}` } });
@@ -22,7 +23,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err instanceof AppError) {
     if (err.headers) res.set(err.headers);
-    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) } });
+    // A failure on our side (5xx) gets an id the user can quote and that the log holds.
+    const errorId = err.status >= 500 ? randomUUID() : undefined;
+    if (errorId) req.log?.error({ err, errorId }, err.code);
+    res.status(err.status).json({
+      error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}), ...(errorId ? { errorId } : {}) },
+    });
     return;
   }
   // body-parser, multer and csrf-sync errors carry a status or a code of their own.
@@ -44,6 +50,35 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   const errorId = randomUUID();
+  const kind = classifyDatabaseError(err);
+  if (kind === 'unavailable') {
+    // The database is down, refusing connections, or a statement ran out of time (a lock held too long):
+    // the request may succeed later, so say when to try again.
+    req.log?.error({ err, errorId }, 'database unavailable');
+    res
+      .status(503)
+      .set('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS))
+      .json({
+        error: {
+          code: 'service_unavailable',
+          message: 'Lightkeel cannot reach its records right now. Nothing was changed; try again in a moment.',
+          errorId,
+        },
+      });
+    return;
+  }
+  if (kind === 'bad_value') {
+    // A value the database refuses (SQLSTATE class 22) that the input schemas let through: the request is at fault.
+    req.log?.warn({ err, errorId }, 'database refused a value');
+    res.status(400).json({
+      error: {
+        code: 'request.bad_value',
+        message: 'A value in the request could not be stored (it holds characters or a number the database refuses). Nothing was changed.',
+        errorId,
+      },
+    });
+    return;
+  }
   req.log?.error({ err, errorId }, 'unhandled error');
   res
     .status(500)

@@ -1,31 +1,38 @@
 import { z } from 'zod';
+import { safeText } from './text';
 
 export const roles = ['backer', 'outreach', 'engineer', 'finance', 'admin'] as const;
 export const roleSchema = z.enum(roles);
 export type Role = z.infer<typeof roleSchema>;
 
-const email = z
-  .email({ message: 'Enter a valid e-mail address' })
+const email = safeText()
   .max(254)
+  .pipe(z.email({ message: 'Enter a valid e-mail address' }))
   .transform((v) => v.trim());
-const password = z.string().min(10, { message: 'Use at least 10 characters' }).max(200, { message: 'Use at most 200 characters' });
+// Passwords are hashed, never stored, but must still be text a keyboard can type again.
+const password = safeText({ multiline: true })
+  .min(10, { message: 'Use at least 10 characters' })
+  .max(200, { message: 'Use at most 200 characters' });
 
 export const signUpSchema = z.object({
   email,
   password,
-  displayName: z.string().trim().min(1, { message: 'Tell us what to call you' }).max(80),
+  displayName: safeText().trim().min(1, { message: 'Tell us what to call you' }).max(80),
 });
 export type SignUpInput = z.infer<typeof signUpSchema>;
 
 export const signInSchema = z.object({
   email,
-  password: z.string().min(1, { message: 'Enter your password' }).max(200),
+  password: safeText({ multiline: true }).min(1, { message: 'Enter your password' }).max(200),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
 export const requestPasswordResetSchema = z.object({ email });
-export const resetPasswordSchema = z.object({ token: z.string().min(16).max(200), password });
-export const verifyEmailSchema = z.object({ token: z.string().min(16).max(200) });
+export const resetPasswordSchema = z.object({ token: safeText().min(16).max(200), password });
+export const verifyEmailSchema = z.object({ token: safeText().min(16).max(200) });
+
+/** The people list's search box (a query string). */
+export const accountSearchQuerySchema = z.object({ q: safeText().trim().max(200).optional() });
 
 export const grantRoleSchema = z.object({ role: roleSchema });
 
@@ -45,6 +52,6 @@ export type ApiErrorBody = {
 };
 
 export const updateAccountSchema = z.object({
-  displayName: z.string().trim().min(1, { message: 'Tell us what to call you' }).max(80),
+  displayName: safeText().trim().min(1, { message: 'Tell us what to call you' }).max(80),
 });
 export type UpdateAccountInput = z.infer<typeof updateAccountSchema>;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { FilledBudgetLine } from '../flight-budget';
+import { safeText } from './text';
 
 // Inputs and views of campaigns, tiers, stretch targets and pledges, shared by forms and the server.
 // Money is always integer minor units with an ISO 4217 currency.
@@ -10,8 +11,7 @@ const minor = (label: string) =>
     .int({ message: `${label} must be a whole number of minor units (cents)` })
     .refine(Number.isSafeInteger, `${label} is too large`);
 
-export const currencySchema = z
-  .string()
+export const currencySchema = safeText()
   .trim()
   .regex(/^[A-Za-z]{3}$/, 'must be a three-letter ISO 4217 code')
   .transform((c) => c.toUpperCase());
@@ -31,9 +31,9 @@ const isoDateTime = z.iso.datetime({ offset: true, message: 'must be an ISO date
 
 export const updateCampaignSchema = z
   .object({
-    title: z.string().trim().min(3, 'Give the campaign a title of at least 3 characters').max(120),
-    summary: z.string().trim().max(300).default(''),
-    story: z.string().trim().max(20_000).default(''),
+    title: safeText().trim().min(3, 'Give the campaign a title of at least 3 characters').max(120),
+    summary: safeText({ multiline: true }).trim().max(300).default(''),
+    story: safeText({ multiline: true }).trim().max(20_000).default(''),
     goalMinor: minor('The goal').min(100, 'The goal must be at least 100 minor units').max(10_000_000_000),
     currency: currencySchema,
     startsAt: isoDateTime,
@@ -43,8 +43,8 @@ export const updateCampaignSchema = z
 export type UpdateCampaignInput = z.infer<typeof updateCampaignSchema>;
 
 export const tierInputSchema = z.object({
-  title: z.string().trim().min(2, 'Give the tier a title').max(80),
-  description: z.string().trim().max(2000).default(''),
+  title: safeText().trim().min(2, 'Give the tier a title').max(80),
+  description: safeText({ multiline: true }).trim().max(2000).default(''),
   minAmountMinor: minor('The minimum amount')
     .min(PLEDGE_MIN_MINOR, `The minimum amount must be at least ${PLEDGE_MIN_MINOR} minor units`)
     .max(PLEDGE_MAX_MINOR),
@@ -61,8 +61,8 @@ export const stretchTargetsSchema = z.object({
     .array(
       z.object({
         amountMinor: minor('The target amount').min(1),
-        title: z.string().trim().min(2).max(120),
-        description: z.string().trim().max(1000).default(''),
+        title: safeText().trim().min(2).max(120),
+        description: safeText({ multiline: true }).trim().max(1000).default(''),
       }),
     )
     .max(20),
@@ -70,19 +70,14 @@ export const stretchTargetsSchema = z.object({
 export type StretchTargetsInput = z.infer<typeof stretchTargetsSchema>;
 
 export const createPledgeSchema = z.object({
-  campaignSlug: z.string().trim().min(1).max(80),
+  campaignSlug: safeText().trim().min(1).max(80),
   tierId: z.uuid({ message: 'must be a tier id' }).nullable().default(null),
   amountMinor: minor('The amount')
     .min(PLEDGE_MIN_MINOR, `The smallest pledge is ${PLEDGE_MIN_MINOR} minor units`)
     .max(PLEDGE_MAX_MINOR, `The largest pledge is ${PLEDGE_MAX_MINOR} minor units`),
   anonymous: z.boolean().default(false),
-  publicName: z
-    .string()
-    .trim()
-    .max(60, 'Keep the public name to 60 characters')
-    .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
-    .optional(),
-  message: z.string().trim().max(500, 'Keep the message to 500 characters').optional(),
+  publicName: safeText().trim().max(60, 'Keep the public name to 60 characters').optional(),
+  message: safeText({ multiline: true }).trim().max(500, 'Keep the message to 500 characters').optional(),
   /** One key per attempt, made by the client: a repeated submit of the same attempt returns the same pledge. */
   attemptKey: z.uuid({ message: 'must be a UUID made for this attempt' }),
 });
@@ -94,6 +89,11 @@ export const emailPreferencesSchema = z.object({
   membership: z.boolean(),
 });
 export type EmailPreferences = z.infer<typeof emailPreferencesSchema>;
+
+export const deleteAccountSchema = z.object({
+  confirmEmail: safeText().trim().min(1, 'Type your e-mail address to confirm').max(254),
+});
+export type DeleteAccountInput = z.infer<typeof deleteAccountSchema>;
 
 // ---- views (what the API answers) ----
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from './text';
 
 // Payloads of the orbit desk, used by the Express validators and by the client's forms.
 
@@ -16,19 +17,16 @@ const optionalDateTime = z
   .transform((v) => (v ? v : null));
 
 export const spacecraftInputSchema = z.object({
-  name: z.string().trim().min(1, { message: 'Give the craft a name' }).max(80),
-  slug: z
-    .string()
+  name: safeText().trim().min(1, { message: 'Give the craft a name' }).max(80),
+  slug: safeText()
     .trim()
     .toLowerCase()
     .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, { message: 'use lower-case letters, digits and single hyphens' })
     .max(40),
-  catalogNumber: z
-    .string()
+  catalogNumber: safeText()
     .trim()
     .regex(/^(\d{1,5}|[A-HJ-NP-Z]\d{4})$/, { message: 'must be up to five digits, or a letter and four digits' }),
-  internationalDesignator: z
-    .string()
+  internationalDesignator: safeText()
     .trim()
     .toUpperCase()
     .regex(/^(\d{5}[A-Z]{1,3})?$/, { message: 'must look like 25012A (year, launch number, piece) or be empty' })
@@ -43,12 +41,20 @@ export const spacecraftInputSchema = z.object({
 });
 export type SpacecraftInput = z.output<typeof spacecraftInputSchema>;
 
+/** The text fields of an upload (multipart): pasted sets instead of a file, and a name for them. */
+export const uploadFieldsSchema = z.object({
+  text: safeText({ multiline: true }).optional(),
+  filename: safeText().trim().max(255, { message: 'Keep the file name to 255 characters' }).optional(),
+});
+/** The uploaded file's own name, as the browser sent it. */
+export const uploadFileSchema = z.object({ name: safeText().max(255, { message: 'Keep the file name to 255 characters' }) }).optional();
+
 export const sailingPeriodInputSchema = z
   .object({
     startAt: isoDateTime,
     endAt: isoDateTime,
     mode: sailModeSchema,
-    note: z.string().trim().max(2000).default(''),
+    note: safeText({ multiline: true }).trim().max(2000).default(''),
   })
   .refine((p) => Date.parse(p.endAt) > Date.parse(p.startAt), { message: 'must be after the start', path: ['endAt'] });
 export type SailingPeriodInput = z.output<typeof sailingPeriodInputSchema>;
@@ -86,14 +92,14 @@ export type SnapshotSeries = z.infer<typeof snapshotSeriesSchema>;
 
 export const snapshotAnnotationSchema = z.object({
   atMs: z.number().finite(),
-  text: z.string().trim().min(1).max(200),
+  text: safeText().trim().min(1).max(200),
 });
 
 export const createSnapshotSchema = z
   .object({
     spacecraftId: z.uuid(),
-    title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
-    caption: z.string().trim().max(1000).default(''),
+    title: safeText().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
+    caption: safeText({ multiline: true }).trim().max(1000).default(''),
     fromMs: z.number().finite(),
     toMs: z.number().finite(),
     series: z.array(snapshotSeriesSchema).min(1, { message: 'pick at least one series' }).max(5),
@@ -111,7 +117,7 @@ export const createSnapshotSchema = z
 export type CreateSnapshotInput = z.output<typeof createSnapshotSchema>;
 
 export const updateSnapshotSchema = z.object({
-  title: z.string().trim().min(1, { message: 'Give the snapshot a title' }).max(120).optional(),
-  caption: z.string().trim().max(1000).optional(),
+  title: safeText().trim().min(1, { message: 'Give the snapshot a title' }).max(120).optional(),
+  caption: safeText({ multiline: true }).trim().max(1000).optional(),
   isPublic: z.boolean().optional(),
 });

@@ -32,6 +32,18 @@ export function isApiError(error: unknown): error is ApiError {
   return error instanceof ApiError;
 }
 
+/**
+ * The thing an address names does not exist: a 404, or a 400 about the address alone (`params.*`, a
+ * mistyped id). Pages show their "not found" for it rather than the server's words.
+ */
+export function isNotFoundError(error: unknown): boolean {
+  if (!isApiError(error)) return false;
+  if (error.status === 404) return true;
+  return (
+    error.status === 400 && error.details.length > 0 && error.details.every((d) => d.path === 'params' || d.path.startsWith('params.'))
+  );
+}
+
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
 export type RequestOptions = {

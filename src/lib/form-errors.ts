@@ -20,18 +20,39 @@ export function applyApiError<T extends FieldValues>(
   const leftOver: string[] = [];
   let focused = false;
   for (const detail of error.details) {
-    if (known.has(detail.path)) {
-      setError(detail.path as Path<T>, { type: 'server', message: detail.message }, { shouldFocus: !focused });
+    const field = fieldOf(detail.path);
+    if (known.has(field)) {
+      setError(field as Path<T>, { type: 'server', message: detail.message }, { shouldFocus: !focused });
       focused = true;
     } else {
-      leftOver.push(detail.path ? `${detail.path}: ${detail.message}` : detail.message);
+      leftOver.push(detailInWords(detail));
     }
   }
   if (error.details.length > 0 && leftOver.length === 0) return null;
-  if (error.status === 429 && error.retryAfterSeconds !== undefined) {
+  if ((error.status === 429 || error.status === 503) && error.retryAfterSeconds !== undefined) {
     return `${error.message} Try again in ${formatWait(error.retryAfterSeconds)}.`;
   }
   return [error.message, ...leftOver].join(' ');
+}
+
+/** A detail's path without the request part it came from: "body.title" → "title". */
+export function fieldOf(path: string): string {
+  return path.replace(/^(body|query|params|file)(\.|$)/, '');
+}
+
+/** "body.stretchTargets.0.title" → "Stretch targets 1, title": a field name a reader can follow. */
+export function fieldInWords(path: string): string {
+  const words = fieldOf(path)
+    .split('.')
+    .filter(Boolean)
+    .map((part) => (/^\d+$/.test(part) ? String(Number(part) + 1) : part.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase()));
+  const text = words.join(', ');
+  return text ? text[0]!.toUpperCase() + text.slice(1) : '';
+}
+
+function detailInWords(detail: { path: string; message: string }): string {
+  const where = fieldInWords(detail.path);
+  return where ? `${where}: ${detail.message}.` : `${detail.message}.`;
 }
 
 function formatWait(seconds: number): string {
@@ -41,6 +62,8 @@ function formatWait(seconds: number): string {
 }
 
 export function errorMessage(error: unknown): string {
-  if (isApiError(error)) return error.errorId ? `${error.message} (error id ${error.errorId})` : error.message;
-  return 'Something went wrong. Please try again.';
+  if (!isApiError(error)) return 'Something went wrong. Please try again.';
+  // A validation answer's message lists raw paths; say each problem with its field in words instead.
+  const message = error.code === 'validation_failed' && error.details.length ? error.details.map(detailInWords).join(' ') : error.message;
+  return error.errorId ? `${message} (error id ${error.errorId})` : message;
 }

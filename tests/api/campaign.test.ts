@@ -47,42 +47,36 @@ async function paidPledgeRow(amountMinor: number, opts: { backer?: string | null
     })
     .returning();
   const ch = `ch_test_${crypto.randomUUID().slice(0, 8)}`;
-  await db
-    .insert(ledgerEntries)
-    .values({
-      kind: 'charge',
-      amountMinor,
+  await db.insert(ledgerEntries).values({
+    kind: 'charge',
+    amountMinor,
+    currency: 'USD',
+    campaignId: world.campaign.id,
+    pledgeId: p!.id,
+    processorObjectId: ch,
+    processorChargeId: ch,
+    occurredAt: new Date(),
+  });
+  await db.insert(ledgerEntries).values({
+    kind: 'fee',
+    amountMinor: -30,
+    currency: 'USD',
+    campaignId: world.campaign.id,
+    pledgeId: p!.id,
+    processorObjectId: `txn_${ch}`,
+    occurredAt: new Date(),
+  });
+  if (opts.refundMinor) {
+    await db.insert(ledgerEntries).values({
+      kind: 'refund',
+      amountMinor: -opts.refundMinor,
       currency: 'USD',
       campaignId: world.campaign.id,
       pledgeId: p!.id,
-      processorObjectId: ch,
+      processorObjectId: `re_${ch}`,
       processorChargeId: ch,
       occurredAt: new Date(),
     });
-  await db
-    .insert(ledgerEntries)
-    .values({
-      kind: 'fee',
-      amountMinor: -30,
-      currency: 'USD',
-      campaignId: world.campaign.id,
-      pledgeId: p!.id,
-      processorObjectId: `txn_${ch}`,
-      occurredAt: new Date(),
-    });
-  if (opts.refundMinor) {
-    await db
-      .insert(ledgerEntries)
-      .values({
-        kind: 'refund',
-        amountMinor: -opts.refundMinor,
-        currency: 'USD',
-        campaignId: world.campaign.id,
-        pledgeId: p!.id,
-        processorObjectId: `re_${ch}`,
-        processorChargeId: ch,
-        occurredAt: new Date(),
-      });
   }
   return p!;
 }
@@ -161,13 +155,13 @@ describe('staff edit the campaign', () => {
       .set('x-csrf-token', outreach.csrf)
       .send({ ...base, goalMinor: 48_000.5 })
       .expect(400);
-    expect(fraction.body.error.details.map((d: { path: string }) => d.path)).toEqual(['goalMinor']);
+    expect(fraction.body.error.details.map((d: { path: string }) => d.path)).toEqual(['body.goalMinor']);
     const backwards = await outreach
       .patch('/api/campaigns/tern-1')
       .set('x-csrf-token', outreach.csrf)
       .send({ ...base, endsAt: '2026-12-01T00:00:00Z' })
       .expect(400);
-    expect(backwards.body.error.details.map((d: { path: string }) => d.path)).toEqual(['endsAt']);
+    expect(backwards.body.error.details.map((d: { path: string }) => d.path)).toEqual(['body.endsAt']);
     const currency = await outreach
       .patch('/api/campaigns/tern-1')
       .set('x-csrf-token', outreach.csrf)
@@ -237,11 +231,11 @@ describe('pledge input', () => {
     const below = await pledge({ tierId: world.tier.patch.id, amountMinor: 2000 }).expect(400);
     expect(below.body.error).toMatchObject({ code: 'pledges.amount_below_tier', details: [{ path: 'amountMinor' }] });
     const tiny = await pledge({ amountMinor: 50 }).expect(400);
-    expect(tiny.body.error.details[0].path).toBe('amountMinor');
+    expect(tiny.body.error.details[0].path).toBe('body.amountMinor');
     const huge = await pledge({ amountMinor: 2_500_001 }).expect(400);
-    expect(huge.body.error.details[0].path).toBe('amountMinor');
+    expect(huge.body.error.details[0].path).toBe('body.amountMinor');
     const fraction = await pledge({ amountMinor: 12.5 }).expect(400);
-    expect(fraction.body.error.details[0].path).toBe('amountMinor');
+    expect(fraction.body.error.details[0].path).toBe('body.amountMinor');
     const foreignTier = await pledge({ tierId: '00000000-0000-4000-8000-000000000000', amountMinor: 5000 }).expect(400);
     expect(foreignTier.body.error.code).toBe('pledges.tier_unknown');
     const noKey = await backer
@@ -249,7 +243,7 @@ describe('pledge input', () => {
       .set('x-csrf-token', backer.csrf)
       .send({ campaignSlug: 'tern-1', amountMinor: 5000 })
       .expect(400);
-    expect(noKey.body.error.details[0].path).toBe('attemptKey');
+    expect(noKey.body.error.details[0].path).toBe('body.attemptKey');
     expect(await t.database.db.$count(pledges)).toBe(pledgesBefore);
   });
 

@@ -62,7 +62,7 @@ describe('HTTP basics', () => {
     const res = await agent.post('/api/auth/sign-up').set('x-csrf-token', agent.csrf).send({ email: 'not-an-email', password: 'short' });
     expect(res.status).toBe(400);
     const paths = res.body.error.details.map((d: { path: string }) => d.path).sort();
-    expect(paths).toEqual(['displayName', 'email', 'password']);
+    expect(paths).toEqual(['body.displayName', 'body.email', 'body.password']);
   });
 
   it('stops start-up with a message naming an invalid variable', () => {

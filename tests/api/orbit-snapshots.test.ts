@@ -144,7 +144,7 @@ describe('chart snapshots', () => {
       .set('x-csrf-token', engineer.csrf)
       .send({ spacecraftId: craftId, title: 'x', fromMs, toMs, series: ['apogee', 'semiMajorAxis', 'energy'] });
     expect(three.status).toBe(400);
-    expect(three.body.error.details[0].path).toBe('series');
+    expect(three.body.error.details[0].path).toBe('body.series');
     const empty = await engineer
       .post('/api/orbit/snapshots')
       .set('x-csrf-token', engineer.csrf)
@@ -167,7 +167,7 @@ describe('the sailing-period log', () => {
       .set('x-csrf-token', engineer.csrf)
       .send({ startAt: '2026-02-10T00:00:00Z', endAt: '2026-02-01T00:00:00Z', mode: 'raising' });
     expect(bad.status).toBe(400);
-    expect(bad.body.error.details[0].path).toBe('endAt');
+    expect(bad.body.error.details[0].path).toBe('body.endAt');
     const changed = await engineer
       .put(`/api/orbit/sailing-periods/${id}`)
       .set('x-csrf-token', engineer.csrf)
@@ -182,35 +182,29 @@ describe('the sailing-period log', () => {
 
 describe('spacecraft records', () => {
   it('validates the record and keeps catalog numbers unique', async () => {
-    const bad = await engineer
-      .post('/api/orbit/spacecraft')
-      .set('x-csrf-token', engineer.csrf)
-      .send({
-        name: '',
-        slug: 'Bad Slug',
-        catalogNumber: 'x',
-        massKg: -1,
-        sailAreaM2: 1,
-        sailReflectivity: 2,
-        dragCoefficient: 2.2,
-        dragAreaEdgeOnM2: 1,
-      });
+    const bad = await engineer.post('/api/orbit/spacecraft').set('x-csrf-token', engineer.csrf).send({
+      name: '',
+      slug: 'Bad Slug',
+      catalogNumber: 'x',
+      massKg: -1,
+      sailAreaM2: 1,
+      sailReflectivity: 2,
+      dragCoefficient: 2.2,
+      dragAreaEdgeOnM2: 1,
+    });
     expect(bad.status).toBe(400);
     const paths = bad.body.error.details.map((d: { path: string }) => d.path);
-    expect(paths).toEqual(expect.arrayContaining(['name', 'slug', 'catalogNumber', 'massKg', 'sailReflectivity']));
-    const dup = await engineer
-      .post('/api/orbit/spacecraft')
-      .set('x-csrf-token', engineer.csrf)
-      .send({
-        name: 'Copy',
-        slug: 'copy',
-        catalogNumber: TERN1.catalogNumber,
-        massKg: 1,
-        sailAreaM2: 1,
-        sailReflectivity: 0.5,
-        dragCoefficient: 2.2,
-        dragAreaEdgeOnM2: 1,
-      });
+    expect(paths).toEqual(expect.arrayContaining(['body.name', 'body.slug', 'body.catalogNumber', 'body.massKg', 'body.sailReflectivity']));
+    const dup = await engineer.post('/api/orbit/spacecraft').set('x-csrf-token', engineer.csrf).send({
+      name: 'Copy',
+      slug: 'copy',
+      catalogNumber: TERN1.catalogNumber,
+      massKg: 1,
+      sailAreaM2: 1,
+      sailReflectivity: 0.5,
+      dragCoefficient: 2.2,
+      dragAreaEdgeOnM2: 1,
+    });
     expect(dup.status).toBe(409);
     expect(dup.body.error.code).toBe('orbit.spacecraft_catalog_taken');
   });

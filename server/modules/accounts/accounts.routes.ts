@@ -8,7 +8,7 @@ import { accounts } from './accounts.tables';
 import { createAccountsRepository } from './accounts.repository';
 import { createAdminService } from './admin.service';
 import { listAudit, recordAudit } from '../audit/audit.repository';
-import { grantRoleSchema, roleSchema, updateAccountSchema } from '../../../shared/schemas/auth';
+import { accountSearchQuerySchema, grantRoleSchema, roleSchema, updateAccountSchema } from '../../../shared/schemas/auth';
 
 export function createAccountRouter({ db }: { db: Db }) {
   const router = Router();
@@ -43,7 +43,7 @@ export function createAdminRouter({ db }: { db: Db }) {
   router.use(requireRole('admin'));
   router.get(
     '/accounts',
-    validated({ query: z.object({ q: z.string().max(200).optional() }) }, async (_req, res, { query }) => {
+    validated({ query: accountSearchQuerySchema }, async (_req, res, { query }) => {
       res.json({ accounts: await repo.list(query.q) });
     }),
   );

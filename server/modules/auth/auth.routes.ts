@@ -10,6 +10,8 @@ import { invalidCredentials } from './auth.service';
 import { validated } from '../../middleware/validate';
 import { requireAuth } from '../../middleware/auth';
 import { AppError } from '../../errors';
+import { DATABASE_RETRY_AFTER_SECONDS } from '../../db/errors';
+import { textProblem } from '../../../shared/schemas/text';
 import {
   signInSchema,
   signUpSchema,
@@ -26,9 +28,27 @@ function tooMany(message: string) {
   };
 }
 
-/** Only same-site paths may be a return target. */
+/** Only same-site paths of plain text may be a return target. */
 export function safeReturnTo(value: unknown) {
-  return typeof value === 'string' && value.startsWith('/') && !value.startsWith('//') && !value.includes('\\') ? value : '/';
+  return typeof value === 'string' &&
+    value.startsWith('/') &&
+    !value.startsWith('//') &&
+    !value.includes('\\') &&
+    textProblem(value) === null
+    ? value
+    : '/';
+}
+
+function sessionStoreUnavailable(cause: unknown) {
+  const err = new AppError(
+    503,
+    'service_unavailable',
+    'Lightkeel cannot keep your session right now, so forms cannot be sent. Try again in a moment.',
+    undefined,
+    { 'Retry-After': String(DATABASE_RETRY_AFTER_SECONDS) },
+  );
+  (err as Error & { cause?: unknown }).cause = cause;
+  return err;
 }
 
 export function createAuthRouter({
@@ -62,15 +82,24 @@ export function createAuthRouter({
     skipSuccessfulRequests: true,
     standardHeaders: false,
     legacyHeaders: false,
-    keyGenerator: (req) =>
-      `acct:${String((req.body as { email?: unknown })?.email ?? '')
+    // The limiter runs before validation: text the database cannot store is counted under one key.
+    keyGenerator: (req) => {
+      const email = String((req.body as { email?: unknown })?.email ?? '')
         .trim()
-        .toLowerCase()}`,
+        .toLowerCase();
+      return textProblem(email) ? 'acct:(unreadable)' : `acct:${email}`;
+    },
     handler: tooMany('Too many failed sign-ins for this account. Wait a little and try again.'),
   });
 
-  router.get('/csrf', (req, res) => {
-    res.json({ csrfToken: generateCsrfToken(req) });
+  // The token is only good once the session holding it is stored: save first, answer after. A session
+  // store that is down must not hand out a token every later request would refuse.
+  router.get('/csrf', (req, res, next) => {
+    const csrfToken = generateCsrfToken(req);
+    req.session.save((err) => {
+      if (err) return next(sessionStoreUnavailable(err));
+      res.set('Cache-Control', 'no-store').json({ csrfToken });
+    });
   });
 
   router.get('/providers', (_req, res) => {

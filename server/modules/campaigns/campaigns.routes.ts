@@ -1,12 +1,13 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { validated } from '../../middleware/validate';
+import { safeText } from '../../../shared/schemas/text';
 import { requireRole } from '../../middleware/auth';
 import type { CampaignsService } from './campaigns.service';
 import { stretchTargetsSchema, tierInputSchema, updateCampaignSchema } from '../../../shared/schemas/campaign';
 import { budgetLinesSchema } from '../../../shared/schemas/budget-lines';
 
-const slugParams = z.object({ slug: z.string().regex(/^[a-z0-9-]{1,80}$/, 'must be a campaign slug') });
+const slugParams = z.object({ slug: safeText().regex(/^[a-z0-9-]{1,80}$/, 'must be a campaign slug') });
 const tierParams = slugParams.extend({ tierId: z.uuid({ message: 'must be a tier id' }) });
 
 export function createCampaignsRouter({ campaigns }: { campaigns: CampaignsService }) {

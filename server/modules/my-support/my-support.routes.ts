@@ -3,11 +3,10 @@ import { z } from 'zod';
 import { validated } from '../../middleware/validate';
 import { requireAuth } from '../../middleware/auth';
 import type { MySupportService } from './my-support.service';
-import { emailPreferencesSchema } from '../../../shared/schemas/campaign';
+import { deleteAccountSchema, emailPreferencesSchema } from '../../../shared/schemas/campaign';
 
 const membershipParams = z.object({ id: z.uuid({ message: 'must be a membership id' }) });
 const receiptParams = z.object({ entryId: z.coerce.number().int().positive({ message: 'must be a payment number' }) });
-export const deleteAccountSchema = z.object({ confirmEmail: z.string().trim().min(1, 'Type your e-mail address to confirm').max(254) });
 
 export function createMySupportRouter({ mySupport }: { mySupport: MySupportService }) {
   const router = Router();

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
 import { validated } from '../../middleware/validate';
+import { safeText } from '../../../shared/schemas/text';
 import { requireRole } from '../../middleware/auth';
 import { AppError } from '../../errors';
 import {
@@ -13,6 +14,8 @@ import {
   spacecraftInputSchema,
   trendQuerySchema,
   updateSnapshotSchema,
+  uploadFieldsSchema,
+  uploadFileSchema,
 } from '../../../shared/schemas/orbit';
 import type { SnapshotData } from '../../../shared/charts/snapshot-chart';
 import { createSpacecraftRepository, spacecraftView } from './spacecraft.repository';
@@ -112,13 +115,12 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
     '/spacecraft/:id/uploads',
     engineers,
     uploadMiddleware(config.UPLOAD_LIMIT_BYTES),
-    validated({ params: idParams }, async (req, res, { params }) => {
+    validated({ params: idParams, body: uploadFieldsSchema, file: uploadFileSchema }, async (req, res, { params, body, file }) => {
       let bytes: Buffer | undefined = req.file?.buffer;
-      let filename = req.file?.originalname ?? '';
-      const body = (req.body ?? {}) as { text?: unknown; filename?: unknown };
-      if (!bytes && typeof body.text === 'string') {
+      let filename = file?.name ?? '';
+      if (!bytes && body.text !== undefined) {
         bytes = Buffer.from(body.text, 'utf8');
-        filename = typeof body.filename === 'string' && body.filename.trim() ? body.filename.trim() : 'pasted.txt';
+        filename = body.filename || 'pasted.txt';
       }
       if (!bytes) throw emptyUpload();
       const job = await ingest.startUpload({ spacecraftId: params.id, accountId: req.user!.id, filename, bytes });
@@ -289,7 +291,7 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
   return router;
 }
 
-const slugParams = z.object({ slug: z.string().regex(/^[a-z0-9-]{1,80}$/, { message: 'must be a snapshot link' }) });
+const slugParams = z.object({ slug: safeText().regex(/^[a-z0-9-]{1,80}$/, { message: 'must be a snapshot link' }) });
 
 /** Anyone: published snapshots. */
 export function createPublicSnapshotsRouter({ module }: { module: OrbitModule }) {
@@ -341,7 +343,7 @@ export function createPublicOrbitRouter({ module }: { module: OrbitModule }) {
   router.get(
     '/:slug',
     validated(
-      { params: z.object({ slug: z.string().regex(/^[a-z0-9-]{1,40}$/, { message: 'must be a spacecraft handle' }) }) },
+      { params: z.object({ slug: safeText().regex(/^[a-z0-9-]{1,40}$/, { message: 'must be a spacecraft handle' }) }) },
       async (_req, res, { params }) => {
         res.set('cache-control', 'public, max-age=60').json(await module.orbit.publicSummary(params.slug));
       },

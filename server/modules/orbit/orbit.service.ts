@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
+import { toCsv, type CsvColumn } from '../../lib/csv';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
@@ -129,6 +130,33 @@ export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAre
   return usableFraction * c.sailAreaM2 + (1 - usableFraction) * c.dragAreaEdgeOnM2;
 }
 
+type HistoryCsvRow = {
+  epoch: Date;
+  elementSetNo: number;
+  semiMajorAxisKm: number;
+  eccentricity: number;
+  inclinationDeg: number;
+  apogeeAltitudeKm: number;
+  perigeeAltitudeKm: number;
+  bstar: number;
+  outlier: boolean;
+  fileName: string;
+  sourceLine: number;
+};
+const historyCsvColumns: CsvColumn<HistoryCsvRow>[] = [
+  { header: 'epoch_utc', value: (r) => r.epoch.toISOString() },
+  { header: 'element_set_no', value: (r) => r.elementSetNo },
+  { header: 'semi_major_axis_km', value: (r) => r.semiMajorAxisKm.toFixed(4) },
+  { header: 'eccentricity', value: (r) => r.eccentricity.toFixed(7) },
+  { header: 'inclination_deg', value: (r) => r.inclinationDeg.toFixed(4) },
+  { header: 'apogee_altitude_km', value: (r) => r.apogeeAltitudeKm.toFixed(4) },
+  { header: 'perigee_altitude_km', value: (r) => r.perigeeAltitudeKm.toFixed(4) },
+  { header: 'bstar_per_earth_radius', value: (r) => r.bstar.toExponential(5) },
+  { header: 'outlier', value: (r) => r.outlier },
+  { header: 'source_file', value: (r) => r.fileName },
+  { header: 'source_line', value: (r) => r.sourceLine },
+];
+
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
   const windowCache = new Map<string, WindowTrend>();
@@ -252,7 +280,7 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    /** CSV of the filtered history, in the chosen order. */
+    /** CSV of the filtered history, in the chosen order (through the shared writer: quoting, inert formulas). */
     async historyCsv(spacecraftId: string, q: HistoryQuery): Promise<string> {
       await craftOf(spacecraftId);
       const col = sortColumns[q.sort];
@@ -262,28 +290,7 @@ export function createOrbitService({ db }: { db: Db }) {
         .innerJoin(elementSetFiles, eq(elementSetFiles.id, elementSets.fileId))
         .where(historyFilter(spacecraftId, q))
         .orderBy(q.dir === 'asc' ? asc(col) : desc(col), q.dir === 'asc' ? asc(elementSets.id) : desc(elementSets.id));
-      const esc = (v: string) => (/[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v);
-      const lines = [
-        'epoch_utc,element_set_no,semi_major_axis_km,eccentricity,inclination_deg,apogee_altitude_km,perigee_altitude_km,bstar_per_earth_radius,outlier,source_file,source_line',
-      ];
-      for (const r of rows) {
-        lines.push(
-          [
-            r.epoch.toISOString(),
-            r.elementSetNo,
-            r.semiMajorAxisKm.toFixed(4),
-            r.eccentricity.toFixed(7),
-            r.inclinationDeg.toFixed(4),
-            r.apogeeAltitudeKm.toFixed(4),
-            r.perigeeAltitudeKm.toFixed(4),
-            r.bstar.toExponential(5),
-            r.outlier,
-            esc(r.fileName),
-            r.sourceLine,
-          ].join(','),
-        );
-      }
-      return lines.join('\r\n') + '\r\n';
+      return toCsv(rows, historyCsvColumns);
     },
 
     async getTrend(spacecraftId: string, window: { fromMs?: number; toMs?: number }) {

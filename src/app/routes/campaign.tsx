@@ -10,6 +10,8 @@ import { StretchTargets } from '@/features/campaign/components/stretch-targets';
 import { ThankYouGift } from '@/features/campaign/components/thank-you-gift';
 import { money } from '@/features/campaign/format';
 import { useDocumentTitle } from '@/lib/document-title';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from './not-found';
 
 function GiftList({
   id,
@@ -49,6 +51,7 @@ export function Component() {
   useDocumentTitle(campaign.data?.title ?? 'Campaign');
 
   if (campaign.isPending) return <PageSpinner label="Loading the campaign…" />;
+  if (campaign.isError && isNotFoundError(campaign.error)) return <NotFoundPage />;
   if (campaign.isError)
     return <PageLoadError title="Could not load the campaign" error={campaign.error} onRetry={() => campaign.refetch()} />;
   const c = campaign.data;

@@ -3,6 +3,8 @@ import { Alert } from '@/components/ui/alert';
 import { PageSpinner } from '@/components/ui/spinner';
 import { useCancelPledge } from '@/features/pledges/api/cancel-pledge';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from './not-found';
 import { isPaidPledge, PledgeOutcome, PledgeOutcomePage } from '../layouts/pledge-outcome';
 
 function Cancelled({ id }: { id: string }) {
@@ -14,6 +16,7 @@ function Cancelled({ id }: { id: string }) {
     asked.current = true;
     cancel.mutate(id);
   }, [cancel, id]);
+  if (cancel.isError && isNotFoundError(cancel.error)) return <NotFoundPage />;
   if (cancel.isError) return <Alert title="Could not close the checkout">{errorMessage(cancel.error)}</Alert>;
   if (!cancel.data) return <PageSpinner label="Closing the checkout…" />;
   const p = cancel.data;

@@ -2,12 +2,15 @@ import { Alert } from '@/components/ui/alert';
 import { PageSpinner, Spinner } from '@/components/ui/spinner';
 import { usePledge } from '@/features/pledges/api/get-pledge';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from './not-found';
 import { isPaidPledge, PledgeOutcome, PledgeOutcomePage } from '../layouts/pledge-outcome';
 
 function Thanks({ id }: { id: string }) {
   // The processor sends us here first and tells our server by webhook; wait for that before saying "paid".
   const pledge = usePledge(id, { poll: true });
   if (pledge.isPending) return <PageSpinner />;
+  if (pledge.isError && isNotFoundError(pledge.error)) return <NotFoundPage />;
   if (pledge.isError) return <Alert title="Could not load your pledge">{errorMessage(pledge.error)}</Alert>;
   const p = pledge.data;
   const paid = isPaidPledge(p);

@@ -4,6 +4,8 @@ import { Card } from '@/components/ui/card';
 import { Spinner } from '@/components/ui/spinner';
 import { useDocumentTitle } from '@/lib/document-title';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from './not-found';
 import { usePublicSnapshot } from '@/features/orbit/api/snapshots';
 import { SnapshotChartView } from '@/features/orbit/components/snapshot-chart-view';
 
@@ -12,6 +14,7 @@ export function Component() {
   const { slug = '' } = useParams();
   const q = usePublicSnapshot(slug);
   useDocumentTitle(q.data?.snapshot.title ?? 'Snapshot');
+  if (q.isError && isNotFoundError(q.error)) return <NotFoundPage />;
   return (
     <div className="mx-auto w-full max-w-5xl px-4 py-8 sm:px-6">
       {q.isPending ? (

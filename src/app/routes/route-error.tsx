@@ -1,12 +1,13 @@
 import { isRouteErrorResponse, useRouteError } from 'react-router-dom';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
+import { isNotFoundError } from '@/lib/api-client';
 import { NotFoundPage } from './not-found';
 
 /** Inside a layout it fills the layout's main region; `standalone` when the layout itself failed. */
 export function RouteError({ standalone = false }: { standalone?: boolean }) {
   const error = useRouteError();
-  if (isRouteErrorResponse(error) && error.status === 404) return <NotFoundPage />;
+  if ((isRouteErrorResponse(error) && error.status === 404) || isNotFoundError(error)) return <NotFoundPage />;
   // A failed lazy import usually means a new release replaced the files: a reload fetches them.
   const chunkFailed = error instanceof TypeError && /dynamically imported module|Importing a module script failed/i.test(error.message);
   const Wrapper = standalone ? 'main' : 'div';

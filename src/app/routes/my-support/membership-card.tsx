@@ -6,6 +6,8 @@ import { PageSpinner } from '@/components/ui/spinner';
 import { useOpenCardUpdate } from '@/features/my-support/api/open-card-update';
 import { useDocumentTitle } from '@/lib/document-title';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from '../not-found';
 
 /** The update-card link in a failed-renewal e-mail lands here: we ask for a fresh processor page and go there. */
 export function Component() {
@@ -18,6 +20,7 @@ export function Component() {
     asked.current = true;
     open.mutate(id, { onSuccess: (url) => window.location.assign(url) });
   }, [open, id]);
+  if (open.isError && isNotFoundError(open.error)) return <NotFoundPage />;
   return (
     <>
       <PageHeader eyebrow="My support" title="Update your card" />

@@ -8,12 +8,15 @@ import { useReceipt } from '@/features/my-support/api/get-receipt';
 import { dateTimeFormat, money } from '@/features/my-support/format';
 import { useDocumentTitle } from '@/lib/document-title';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from '../not-found';
 
 export function Component() {
   const { entryId = '' } = useParams();
   const receipt = useReceipt(Number(entryId));
   useDocumentTitle(receipt.data ? `Receipt ${receipt.data.number}` : 'Receipt');
   if (receipt.isPending) return <PageSpinner />;
+  if (receipt.isError && isNotFoundError(receipt.error)) return <NotFoundPage />;
   if (receipt.isError) return <Alert title="Could not load this receipt">{errorMessage(receipt.error)}</Alert>;
   const r = receipt.data;
   const refund = r.kind === 'refund';

@@ -1,18 +1,39 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import { deleteAccountSchema } from '@shared/schemas/campaign';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { TextField } from '@/components/ui/text-field';
-import { errorMessage } from '@/lib/form-errors';
+import { applyApiError } from '@/lib/form-errors';
 import { useDeleteAccount } from '../api/delete-account';
+
+type Values = z.input<typeof deleteAccountSchema>;
 
 export function DeleteAccountCard({ email, onDeleted }: { email: string; onDeleted: () => void }) {
   const [open, setOpen] = useState(false);
-  const [typed, setTyped] = useState('');
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<Values, unknown, z.output<typeof deleteAccountSchema>>({
+    resolver: zodResolver(deleteAccountSchema),
+    defaultValues: { confirmEmail: '' },
+  });
   const remove = useDeleteAccount();
   const queryClient = useQueryClient();
+  // The server's answer lands by the field it is about; anything else above the field.
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await remove.mutateAsync(values.confirmEmail);
+      queryClient.clear();
+      onDeleted();
+    } catch (error) {
+      setFormError(applyApiError(error, form.setError, { fields: ['confirmEmail'] }));
+    }
+  });
   return (
     <Card>
       <CardHeader
@@ -30,20 +51,21 @@ export function DeleteAccountCard({ email, onDeleted }: { email: string; onDelet
         pending={remove.isPending}
         onCancel={() => {
           setOpen(false);
+          setFormError(null);
+          form.reset();
           remove.reset();
         }}
-        onConfirm={() =>
-          remove.mutate(typed, {
-            onSuccess: () => {
-              queryClient.clear();
-              onDeleted();
-            },
-          })
-        }
+        onConfirm={() => void onSubmit()}
       >
         <p>This cannot be undone. Type your e-mail address ({email}) to confirm.</p>
-        <TextField label="Your e-mail address" type="email" autoComplete="off" value={typed} onChange={(e) => setTyped(e.target.value)} />
-        {remove.isError && <Alert title="Not deleted">{errorMessage(remove.error)}</Alert>}
+        {formError && <Alert title="Not deleted">{formError}</Alert>}
+        <TextField
+          label="Your e-mail address"
+          type="email"
+          autoComplete="off"
+          error={form.formState.errors.confirmEmail?.message}
+          {...form.register('confirmEmail')}
+        />
       </ConfirmDialog>
     </Card>
   );

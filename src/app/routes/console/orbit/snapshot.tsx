@@ -3,6 +3,8 @@ import { Alert } from '@/components/ui/alert';
 import { Card } from '@/components/ui/card';
 import { Spinner } from '@/components/ui/spinner';
 import { errorMessage } from '@/lib/form-errors';
+import { isNotFoundError } from '@/lib/api-client';
+import { NotFoundPage } from '../../not-found';
 import { useSnapshot } from '@/features/orbit/api/snapshots';
 import { OrbitDeskFrame } from '@/features/orbit/components/orbit-desk-frame';
 import { SnapshotChartView } from '@/features/orbit/components/snapshot-chart-view';
@@ -10,6 +12,7 @@ import { SnapshotChartView } from '@/features/orbit/components/snapshot-chart-vi
 export function Component() {
   const { snapshotId = '' } = useParams();
   const q = useSnapshot(snapshotId);
+  if (q.isError && isNotFoundError(q.error)) return <NotFoundPage />;
   return (
     <OrbitDeskFrame title={q.data?.snapshot.title ?? 'Snapshot'} requireCraft={false}>
       {() =>
