@@ -43,10 +43,51 @@ const configSchema = z.object({
 
 export type Config = z.infer<typeof configSchema>;
 
+// The local defaults above are public (they are in this file): production must bring its own.
+const localSecrets = [
+  'SESSION_SECRET',
+  'STRIPE_SECRET_KEY',
+  'STRIPE_WEBHOOK_SECRET',
+  'RESEND_API_KEY',
+  'GOOGLE_CLIENT_ID',
+  'GOOGLE_CLIENT_SECRET',
+] as const;
+const serviceUrls = ['RESEND_BASE_URL', 'STRIPE_API_BASE_URL', 'GOOGLE_OAUTH_BASE_URL'] as const;
+
+/** localhost, 127.0.0.0/8, ::1 and 0.0.0.0: where the local fakes listen. */
+export function isLoopbackUrl(value: string) {
+  if (!value) return false;
+  const host = new URL(value).hostname.replace(/^\[|\]$/g, '').toLowerCase();
+  return host === 'localhost' || host.endsWith('.localhost') || /^127\./.test(host) || host === '::1' || host === '0.0.0.0';
+}
+
+const productionSchema = configSchema.superRefine((config, ctx) => {
+  if (config.NODE_ENV !== 'production') return;
+  const defaults = configSchema.parse({});
+  for (const name of localSecrets) {
+    if (config[name] === defaults[name]) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [name],
+        message: 'is the local default, which is public; set a value of your own for production',
+      });
+    }
+  }
+  for (const name of serviceUrls) {
+    if (isLoopbackUrl(config[name])) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [name],
+        message: `points at loopback (${config[name]}), where the local fakes run; set the real service's address for production`,
+      });
+    }
+  }
+});
+
 export class ConfigError extends Error {}
 
 export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
-  const result = configSchema.safeParse(env);
+  const result = productionSchema.safeParse(env);
   if (!result.success) {
     const lines = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
