@@ -191,7 +191,8 @@ describe('password reset through the mail fake', () => {
 });
 
 describe('Continue with Google (local identity provider)', () => {
-  async function googleRoundTrip(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
+  /** The browser's side up to the provider's redirect back: answers the callback link it would follow. */
+  async function startGoogleFlow(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
     const start = await agent.get(`/api/auth/google?returnTo=${encodeURIComponent(returnTo)}`).expect(302);
     const authorize = new URL(start.headers.location!);
     expect(authorize.origin).toBe(new URL(idp.issuerUrl).origin);
@@ -199,8 +200,64 @@ describe('Continue with Google (local identity provider)', () => {
     expect(back.status).toBe(302);
     const callback = new URL(back.headers.get('location')!);
     expect(callback.pathname).toBe('/api/auth/google/callback');
-    return agent.get(callback.pathname + callback.search);
+    return { authorize, callback: callback.pathname + callback.search };
   }
+
+  async function googleRoundTrip(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
+    const { callback } = await startGoogleFlow(agent, returnTo);
+    return agent.get(callback);
+  }
+
+  async function accountExists(email: string) {
+    const { rows } = await t.database.db.execute(sql`select 1 from accounts where lower(email) = lower(${email})`);
+    return rows.length > 0;
+  }
+
+  it('sends a state bound to the session and an S256 PKCE challenge to the provider', async () => {
+    const agent = agentFor(t.app);
+    const { authorize } = await startGoogleFlow(agent);
+    const state = authorize.searchParams.get('state');
+    expect(state).toMatch(/^[\w-]{20,}$/);
+    expect(authorize.searchParams.get('code_challenge')).toMatch(/^[\w-]{43}$/);
+    expect(authorize.searchParams.get('code_challenge_method')).toBe('S256');
+    const other = await startGoogleFlow(agentFor(t.app));
+    expect(other.authorize.searchParams.get('state')).not.toBe(state);
+  });
+
+  it('does not sign in a browser that follows a callback link from a flow another browser started', async () => {
+    // The attacker starts a sign-in with their own Google account and stops before the callback…
+    idp.setNextProfile({ sub: 'g-attacker', email: 'mallard.attacker@example.org', email_verified: true, name: 'Attacker' });
+    const attacker = agentFor(t.app);
+    const { callback } = await startGoogleFlow(attacker);
+
+    // …and sends the callback link to a victim: one fresh browser, one that has started its own sign-in.
+    const fresh = agentFor(t.app);
+    const busy = agentFor(t.app);
+    await startGoogleFlow(busy);
+    for (const victim of [fresh, busy]) {
+      const res = await victim.get(callback);
+      expect(res.status).toBe(302);
+      expect(res.headers.location).toBe('/sign-in?error=auth.state_mismatch');
+      expect((await victim.get('/api/auth/me').expect(200)).body).toEqual({ account: null });
+    }
+    expect(await accountExists('mallard.attacker@example.org')).toBe(false);
+  });
+
+  it('refuses a callback without state, or with a state it made up, and signs nobody in', async () => {
+    idp.setNextProfile({ sub: 'g-nostate', email: 'nostate@example.org', email_verified: true, name: 'No State' });
+    const agent = agentFor(t.app);
+    const { callback } = await startGoogleFlow(agent);
+    const url = new URL(callback, 'http://x');
+    const code = url.searchParams.get('code')!;
+    for (const search of [`?code=${code}`, `?code=${code}&state=made-up-state-value-000000`]) {
+      const res = await agent.get(`/api/auth/google/callback${search}`);
+      expect(res.headers.location).toBe('/sign-in?error=auth.state_mismatch');
+    }
+    // The flow's own state was spent by the first refused attempt: the genuine link no longer works either.
+    expect((await agent.get(callback)).headers.location).toBe('/sign-in?error=auth.state_mismatch');
+    expect((await agent.get('/api/auth/me')).body).toEqual({ account: null });
+    expect(await accountExists('nostate@example.org')).toBe(false);
+  });
 
   it('creates an account on the first sign-in and returns to the asked page', async () => {
     idp.setNextProfile({ sub: 'g-1001', email: 'oystercatcher@example.org', email_verified: true, name: 'Oyster Catcher' });

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, inject } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { launchBrowser, shot } from './browser';
+import { launchBrowser, newPage, shot } from './browser';
 
 const baseUrl = inject('baseUrl');
 let browser: Browser;
@@ -31,4 +31,33 @@ describe('signed-out pages', () => {
       await context.close();
     });
   }
+});
+
+describe('a Google callback link from another browser', () => {
+  it('signs nobody in and says why on the sign-in page', async () => {
+    // Another browser starts "Continue with Google" and stops at the provider's redirect back.
+    const start = await fetch(`${baseUrl}/api/auth/google?returnTo=%2Fmy-support`, { redirect: 'manual' });
+    const authorize = await fetch(start.headers.get('location')!, { redirect: 'manual' });
+    const callbackUrl = authorize.headers.get('location') ?? '';
+    expect(callbackUrl).toMatch(/\/api\/auth\/google\/callback\?.*code=/);
+
+    // Browser B is sent that link.
+    const { page, context, problems } = await newPage(browser);
+    await page.goto(callbackUrl);
+    await page.waitForURL((u) => u.pathname === '/sign-in');
+    await expect.poll(() => page.getByRole('alert').textContent()).toMatch(/not signed in.*not started from this browser/is);
+    await expect
+      .poll(() =>
+        page
+          .getByRole('link', { name: /sign in/i })
+          .first()
+          .isVisible(),
+      )
+      .toBe(true);
+    await shot(page, 'google-callback-from-another-browser');
+    const me = await page.evaluate(async () => (await fetch('/api/auth/me')).json());
+    expect(me).toEqual({ account: null });
+    expect(problems).toEqual([]);
+    await context.close();
+  });
 });

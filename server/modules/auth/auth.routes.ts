@@ -5,6 +5,7 @@ type Authenticator = InstanceType<PassportStatic['Passport']>;
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { PgRateLimitStore } from './rate-limit-store';
+import { stateMismatch } from './oauth-state-store';
 import type { AuthService } from './auth.service';
 import { invalidCredentials } from './auth.service';
 import { validated } from '../../middleware/validate';
@@ -126,12 +127,15 @@ export function createAuthRouter({
   });
 
   router.get('/google/callback', (req, res, next) => {
-    pp.authenticate('google', (err: unknown, user: Express.User | false) => {
+    pp.authenticate('google', (err: unknown, user: Express.User | false, info?: { code?: string }) => {
       if (err) {
         const code = err instanceof AppError ? err.code : 'auth.provider_failed';
         return res.redirect(`/sign-in?error=${encodeURIComponent(code)}`);
       }
-      if (!user) return res.redirect('/sign-in?error=auth.provider_failed');
+      if (!user) {
+        const code = info?.code === stateMismatch.code ? stateMismatch.code : 'auth.provider_failed';
+        return res.redirect(`/sign-in?error=${code}`);
+      }
       const returnTo = safeReturnTo(req.session.returnTo);
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);
@@ -166,8 +170,8 @@ export function createAuthRouter({
 
   router.post(
     '/reset-password',
-    validated({ body: resetPasswordSchema }, async (_req, res, { body }) => {
-      await auth.resetPassword(body.token, body.password);
+    validated({ body: resetPasswordSchema }, async (req, res, { body }) => {
+      await auth.resetPassword(body.token, body.password, { keepSessionId: req.sessionID });
       res.status(204).end();
     }),
   );
