@@ -23,9 +23,15 @@ const configSchema = z.object({
     .int()
     .min(1024)
     .default(20 * 1024 * 1024),
+  // Failed sign-ins per client address per window (successes are not counted).
   SIGN_IN_LIMIT_PER_IP: z.coerce.number().int().min(1).default(30),
-  SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(8),
+  // Failed sign-ins on one account before each further try from a failing address must wait (1 s, 2 s, 4 s …).
+  SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(5),
+  SIGN_IN_MAX_DELAY_SECONDS: z.coerce.number().int().min(1).max(86_400).default(300),
   SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
+  // Separate budgets per address per window for the other signed-out actions.
+  SIGN_UP_LIMIT_PER_IP: z.coerce.number().int().min(1).default(10),
+  PASSWORD_RESET_LIMIT_PER_IP: z.coerce.number().int().min(1).default(10),
   MAIL_FROM: z.string().default('Lightkeel <mission@saltmarsh.example>'),
   RESEND_API_KEY: z.string().min(1).default('re_lightkeel_local'),
   RESEND_BASE_URL: z.url().default('http://127.0.0.1:4020'),

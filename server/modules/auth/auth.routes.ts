@@ -5,6 +5,7 @@ type Authenticator = InstanceType<PassportStatic['Passport']>;
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { PgRateLimitStore } from './rate-limit-store';
+import { createSignInThrottle } from './sign-in-throttle';
 import { stateMismatch } from './oauth-state-store';
 import type { AuthService } from './auth.service';
 import { invalidCredentials } from './auth.service';
@@ -47,27 +48,34 @@ export function createAuthRouter({
 }) {
   const router = Router();
   const windowMs = config.SIGN_IN_WINDOW_SECONDS * 1000;
-  const perIp = rateLimit({
-    windowMs,
-    store: new PgRateLimitStore(db, 'ip:'),
-    limit: config.SIGN_IN_LIMIT_PER_IP,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: tooMany('Too many sign-in attempts from this network. Wait a little and try again.'),
-  });
-  // Failed attempts per account, whatever address they come from.
-  const perAccount = rateLimit({
-    windowMs,
-    store: new PgRateLimitStore(db, 'account:'),
-    limit: config.SIGN_IN_LIMIT_PER_ACCOUNT,
-    skipSuccessfulRequests: true,
-    standardHeaders: false,
-    legacyHeaders: false,
-    keyGenerator: (req) =>
-      `acct:${String((req.body as { email?: unknown })?.email ?? '')
-        .trim()
-        .toLowerCase()}`,
-    handler: tooMany('Too many failed sign-ins for this account. Wait a little and try again.'),
+  // One budget per action and address, so failing sign-ins never block sign-up or a reset request.
+  const perAddress = (action: string, limit: number, message: string) =>
+    rateLimit({
+      windowMs,
+      store: new PgRateLimitStore(db, `${action}:ip:`),
+      limit,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      // Without TRUST_PROXY the header is the client's own claim and is rightly ignored.
+      validate: { xForwardedForHeader: false },
+      handler: tooMany(message),
+    });
+  const signUpLimit = perAddress(
+    'signup',
+    config.SIGN_UP_LIMIT_PER_IP,
+    'Too many new accounts from this network. Wait a little and try again.',
+  );
+  const resetRequestLimit = perAddress(
+    'reset',
+    config.PASSWORD_RESET_LIMIT_PER_IP,
+    'Too many reset requests from this network. Wait a little and try again.',
+  );
+  const signInThrottle = createSignInThrottle({
+    db,
+    windowSeconds: config.SIGN_IN_WINDOW_SECONDS,
+    perAddress: config.SIGN_IN_LIMIT_PER_IP,
+    freeFailures: config.SIGN_IN_LIMIT_PER_ACCOUNT,
+    maxDelaySeconds: config.SIGN_IN_MAX_DELAY_SECONDS,
   });
 
   router.get('/csrf', (req, res) => {
@@ -85,7 +93,7 @@ export function createAuthRouter({
 
   router.post(
     '/sign-up',
-    perIp,
+    signUpLimit,
     validated({ body: signUpSchema }, async (req, res, { body }) => {
       const row = await auth.signUp(body);
       const account = await auth.repo.view(row);
@@ -96,16 +104,20 @@ export function createAuthRouter({
 
   router.post(
     '/sign-in',
-    perIp,
-    perAccount,
-    validated({ body: signInSchema }, (req, res, _input, next) => {
+    validated({ body: signInSchema }, async (req, res, { body }, next) => {
+      // req.ip is the socket address, or the proxy's X-Forwarded-For entry when TRUST_PROXY=true.
+      const attempt = await signInThrottle.begin({ email: body.email, address: req.ip ?? 'unknown' });
       pp.authenticate('local', (err: unknown, user: Express.User | false) => {
         if (err) return next(err);
-        if (!user) return next(invalidCredentials());
-        req.logIn(user, (loginErr) => {
-          if (loginErr) return next(loginErr);
-          res.json({ account: user });
-        });
+        if (!user) return void attempt.failed().then(() => next(invalidCredentials()), next);
+        attempt.succeeded().then(
+          () =>
+            req.logIn(user, (loginErr) => {
+              if (loginErr) return next(loginErr);
+              res.json({ account: user });
+            }),
+          next,
+        );
       })(req, res, next);
     }),
   );
@@ -160,7 +172,7 @@ export function createAuthRouter({
 
   router.post(
     '/request-password-reset',
-    perIp,
+    resetRequestLimit,
     validated({ body: requestPasswordResetSchema }, async (req, res, { body }) => {
       // Same answer whether or not the account exists.
       await auth.requestPasswordReset(body.email).catch((err) => req.log?.warn({ err }, 'password reset mail failed'));
