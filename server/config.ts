@@ -25,8 +25,9 @@ const configSchema = z.object({
     .default(20 * 1024 * 1024),
   // Failed sign-ins per client address per window (successes are not counted).
   SIGN_IN_LIMIT_PER_IP: z.coerce.number().int().min(1).default(30),
-  // Failed sign-ins on one account before each further try from a failing address must wait (1 s, 2 s, 4 s …).
+  // Failed sign-ins on one account before each further try from a failing address must wait (first delay, then doubling).
   SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(5),
+  SIGN_IN_FIRST_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(1),
   SIGN_IN_MAX_DELAY_SECONDS: z.coerce.number().int().min(1).max(86_400).default(300),
   SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
   // Separate budgets per address per window for the other signed-out actions.

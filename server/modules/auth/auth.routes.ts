@@ -1,5 +1,5 @@
 import { Router, type Request, type Response, type NextFunction } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
 type Authenticator = InstanceType<PassportStatic['Passport']>;
 import type { Config } from '../../config';
@@ -75,6 +75,7 @@ export function createAuthRouter({
     windowSeconds: config.SIGN_IN_WINDOW_SECONDS,
     perAddress: config.SIGN_IN_LIMIT_PER_IP,
     freeFailures: config.SIGN_IN_LIMIT_PER_ACCOUNT,
+    firstDelaySeconds: config.SIGN_IN_FIRST_DELAY_SECONDS,
     maxDelaySeconds: config.SIGN_IN_MAX_DELAY_SECONDS,
   });
 
@@ -105,12 +106,13 @@ export function createAuthRouter({
   router.post(
     '/sign-in',
     validated({ body: signInSchema }, async (req, res, { body }, next) => {
-      // req.ip is the socket address, or the proxy's X-Forwarded-For entry when TRUST_PROXY=true.
-      const attempt = await signInThrottle.begin({ email: body.email, address: req.ip ?? 'unknown' });
+      // req.ip is the socket address, or the proxy's X-Forwarded-For entry when TRUST_PROXY=true; an IPv6
+      // address counts by its /56 network (one household or host gets many addresses).
+      const attempt = await signInThrottle.begin({ email: body.email, address: ipKeyGenerator(req.ip ?? 'unknown') });
       pp.authenticate('local', (err: unknown, user: Express.User | false) => {
         if (err) return next(err);
         if (!user) return void attempt.failed().then(() => next(invalidCredentials()), next);
-        attempt.succeeded().then(
+        void attempt.succeeded().then(
           () =>
             req.logIn(user, (loginErr) => {
               if (loginErr) return next(loginErr);

@@ -7,7 +7,7 @@ import { AppError } from '../../errors';
  *
  * - Per client address: at most `perAddress` failures per window, whatever the accounts (password spraying).
  * - Per account: after `freeFailures` failures, an address that has itself failed on this account must wait
- *   2^(n − freeFailures) s (at most `maxDelaySeconds`) after the account's last attempt. Attempts that come
+ *   firstDelaySeconds × 2^(n − freeFailures) (at most `maxDelaySeconds`) after the account's last attempt. Attempts that come
  *   sooner get 429 with Retry-After and are not heard. An address with no failures on the account is never
  *   held back, so guessing cannot lock the owner out, and the right password always works after the wait.
  * - Only failures count: a success gives back its reservation and clears its address's record on the account.
@@ -20,17 +20,19 @@ export function createSignInThrottle({
   windowSeconds,
   perAddress,
   freeFailures,
+  firstDelaySeconds,
   maxDelaySeconds,
 }: {
   db: Db;
   windowSeconds: number;
   perAddress: number;
   freeFailures: number;
+  firstDelaySeconds: number;
   maxDelaySeconds: number;
 }) {
   const window = sql`make_interval(secs => ${windowSeconds})`;
   // The account row's reset_at slides: it is always (last attempt + window).
-  const waitUntil = sql`(r.reset_at - ${window}) + make_interval(secs => least(power(2, r.hits - ${freeFailures}), ${maxDelaySeconds}))`;
+  const waitUntil = sql`(r.reset_at - ${window}) + make_interval(secs => least(${firstDelaySeconds} * power(2, r.hits - ${freeFailures}), ${maxDelaySeconds}))`;
 
   const tooMany = (seconds: number, message: string) =>
     new AppError(429, 'auth.rate_limited', message, undefined, { 'Retry-After': String(Math.max(1, seconds)) });
