@@ -75,7 +75,8 @@ try {
     say('building the client (vite build) …');
     const build = spawnSync(bin('vite'), ['build', '--logLevel', 'warn'], { cwd: repo, stdio: 'inherit', env });
     if (build.status !== 0) throw new Error('client build failed');
-    run(bin('tsx'), ['server/index.ts'], { ...env, NODE_ENV: 'production' });
+    // Not NODE_ENV=production: that refuses the local secrets and the loopback fakes this script runs.
+    run(bin('tsx'), ['server/index.ts'], { ...env, NODE_ENV: env.NODE_ENV ?? 'development' });
   }
 
   const appUrl = dev ? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}` : config.PUBLIC_URL;

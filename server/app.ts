@@ -69,6 +69,11 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
+  // An https PUBLIC_URL means every request reached us through TLS (here or at the proxy in front), so the
+  // session cookie is always Secure: it must not depend on whether a proxy header arrived.
+  const httpsOnly = config.PUBLIC_URL.startsWith('https:');
+  if (httpsOnly) Object.defineProperty(app.request, 'secure', { configurable: true, enumerable: true, get: () => true });
+
   const PgStore = connectPgSimple(session);
   app.use(
     session({
@@ -83,11 +88,10 @@ export function createApp(deps: AppDeps): Express {
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      proxy: config.TRUST_PROXY,
       cookie: {
         httpOnly: true,
         sameSite: 'lax',
-        secure: config.PUBLIC_URL.startsWith('https:') ? 'auto' : false,
+        secure: httpsOnly,
         maxAge: 30 * 24 * 3600 * 1000,
       },
     }),

@@ -28,9 +28,16 @@ const configSchema = z.object({
     .int()
     .min(1024)
     .default(20 * 1024 * 1024),
+  // Failed sign-ins per client address per window (successes are not counted).
   SIGN_IN_LIMIT_PER_IP: z.coerce.number().int().min(1).default(30),
-  SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(8),
+  // Failed sign-ins on one account before each further try from a failing address must wait (first delay, then doubling).
+  SIGN_IN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(5),
+  SIGN_IN_FIRST_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(1),
+  SIGN_IN_MAX_DELAY_SECONDS: z.coerce.number().int().min(1).max(86_400).default(300),
   SIGN_IN_WINDOW_SECONDS: z.coerce.number().int().min(1).default(900),
+  // Separate budgets per address per window for the other signed-out actions.
+  SIGN_UP_LIMIT_PER_IP: z.coerce.number().int().min(1).default(10),
+  PASSWORD_RESET_LIMIT_PER_IP: z.coerce.number().int().min(1).default(10),
   MAIL_FROM: z.string().default('Lightkeel <mission@saltmarsh.example>'),
   RESEND_API_KEY: z.string().min(1).default('re_lightkeel_local'),
   RESEND_BASE_URL: z.url().default('http://127.0.0.1:4020'),
@@ -48,10 +55,51 @@ const configSchema = z.object({
 
 export type Config = z.infer<typeof configSchema>;
 
+// The local defaults above are public (they are in this file): production must bring its own.
+const localSecrets = [
+  'SESSION_SECRET',
+  'STRIPE_SECRET_KEY',
+  'STRIPE_WEBHOOK_SECRET',
+  'RESEND_API_KEY',
+  'GOOGLE_CLIENT_ID',
+  'GOOGLE_CLIENT_SECRET',
+] as const;
+const serviceUrls = ['RESEND_BASE_URL', 'STRIPE_API_BASE_URL', 'GOOGLE_OAUTH_BASE_URL'] as const;
+
+/** localhost, 127.0.0.0/8, ::1 and 0.0.0.0: where the local fakes listen. */
+export function isLoopbackUrl(value: string) {
+  if (!value) return false;
+  const host = new URL(value).hostname.replace(/^\[|\]$/g, '').toLowerCase();
+  return host === 'localhost' || host.endsWith('.localhost') || /^127\./.test(host) || host === '::1' || host === '0.0.0.0';
+}
+
+const productionSchema = configSchema.superRefine((config, ctx) => {
+  if (config.NODE_ENV !== 'production') return;
+  const defaults = configSchema.parse({});
+  for (const name of localSecrets) {
+    if (config[name] === defaults[name]) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [name],
+        message: 'is the local default, which is public; set a value of your own for production',
+      });
+    }
+  }
+  for (const name of serviceUrls) {
+    if (isLoopbackUrl(config[name])) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [name],
+        message: `points at loopback (${config[name]}), where the local fakes run; set the real service's address for production`,
+      });
+    }
+  }
+});
+
 export class ConfigError extends Error {}
 
 export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
-  const result = configSchema.safeParse(env);
+  const result = productionSchema.safeParse(env);
   if (!result.success) {
     const lines = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);

@@ -10,6 +10,8 @@ declare global {
 declare module 'express-session' {
   interface SessionData {
     returnTo?: string;
+    /** Google sign-ins this browser started: OAuth state handle and PKCE verifier (see oauth-state-store.ts). */
+    oauthFlows?: { handle: string; verifier: string; startedAt: number }[];
     csrfToken?: string;
   }
 }

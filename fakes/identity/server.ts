@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import { OAuth2Issuer, OAuth2Service, type MutableRedirectUri, type MutableResponse, type MutableToken } from 'oauth2-mock-server';
 import { closeServer, listenOnLoopback } from '../lib/loopback-server';
@@ -66,6 +67,21 @@ function checkProfile(input: unknown): Partial<Profile> {
   return out;
 }
 
+interface Grant {
+  profile: Profile;
+  challenge: string;
+  redirectUri: string;
+  expiresAt: number;
+}
+
+// Authorization codes are short-lived (RFC 6749 §4.1.2 recommends at most 10 minutes).
+const CODE_TTL_MS = 10 * 60_000;
+
+function refuse(response: MutableResponse, error: string, description: string) {
+  response.statusCode = 400;
+  response.body = { error, error_description: description };
+}
+
 async function readJson(req: IncomingMessage): Promise<unknown> {
   const chunks: Buffer[] = [];
   let size = 0;
@@ -84,16 +100,41 @@ export async function createIdentityFake(opts: IdentityFakeOptions = {}): Promis
 
   let current: Profile = { ...defaultProfile, ...checkProfile(opts.profile ?? {}) };
   // A sign-in keeps the profile that was current when it started, even if a test changes it mid-flight.
-  const byCode = new Map<string, Profile>();
+  // Like the provider it stands in for, the fake asks for `state` and an S256 PKCE challenge at /authorize,
+  // and gives tokens only for a code it issued, once, to the same redirect_uri, with the matching verifier.
+  const byCode = new Map<string, Grant>();
   const byAccessToken = new Map<string, Profile>();
 
-  service.on('beforeAuthorizeRedirect', (redirect: MutableRedirectUri) => {
+  service.on('beforeAuthorizeRedirect', (redirect: MutableRedirectUri, req: IncomingMessage) => {
     const code = redirect.url.searchParams.get('code');
-    if (code) byCode.set(code, current);
+    if (!code) return;
+    const query = new URL(req.url ?? '/', 'http://127.0.0.1').searchParams;
+    const problem = !query.get('state')
+      ? 'state is required'
+      : !query.get('code_challenge')
+        ? 'code_challenge is required (PKCE)'
+        : query.get('code_challenge_method') !== 'S256'
+          ? 'code_challenge_method must be S256'
+          : undefined;
+    if (problem) {
+      redirect.url.searchParams.delete('code');
+      redirect.url.searchParams.set('error', 'invalid_request');
+      redirect.url.searchParams.set('error_description', problem);
+      return;
+    }
+    byCode.set(code, {
+      profile: current,
+      challenge: query.get('code_challenge')!,
+      redirectUri: query.get('redirect_uri') ?? '',
+      expiresAt: Date.now() + CODE_TTL_MS,
+    });
   });
-  service.on('beforeTokenSigning', (token: MutableToken, req: IncomingMessage & { body?: Record<string, unknown> }) => {
+  const grantFor = (req: IncomingMessage & { body?: Record<string, unknown> }) => {
     const code = typeof req.body?.code === 'string' ? req.body.code : undefined;
-    const p = (code && byCode.get(code)) || current;
+    return code ? byCode.get(code) : undefined;
+  };
+  service.on('beforeTokenSigning', (token: MutableToken, req: IncomingMessage & { body?: Record<string, unknown> }) => {
+    const p = grantFor(req)?.profile ?? current;
     Object.assign(token.payload, {
       sub: p.sub,
       email: p.email,
@@ -105,12 +146,34 @@ export async function createIdentityFake(opts: IdentityFakeOptions = {}): Promis
     });
   });
   service.on('beforeResponse', (response: MutableResponse, req: IncomingMessage & { body?: Record<string, unknown> }) => {
-    const code = typeof req.body?.code === 'string' ? req.body.code : undefined;
-    const body = response.body;
-    if (response.statusCode !== 200 || typeof body !== 'object') return;
-    const p = (code && byCode.get(code)) || current;
-    if (typeof body.access_token === 'string') byAccessToken.set(body.access_token, p);
-    if (code) byCode.delete(code);
+    const body = req.body ?? {};
+    if (body.grant_type !== 'authorization_code') {
+      refuse(response, 'unsupported_grant_type', 'only the authorization_code grant is offered');
+      return;
+    }
+    const code = typeof body.code === 'string' ? body.code : '';
+    const grant = byCode.get(code);
+    byCode.delete(code); // a code is good for one exchange, whatever its outcome
+    const verifier = typeof body.code_verifier === 'string' ? body.code_verifier : '';
+    const problem = !grant
+      ? 'unknown or already used authorization code'
+      : grant.expiresAt < Date.now()
+        ? 'authorization code expired'
+        : body.redirect_uri !== grant.redirectUri
+          ? 'redirect_uri differs from the one the code was issued for'
+          : !verifier
+            ? 'code_verifier is required (PKCE)'
+            : createHash('sha256').update(verifier).digest('base64url') !== grant.challenge
+              ? 'code_verifier does not match the code_challenge'
+              : undefined;
+    if (problem || !grant) {
+      refuse(response, 'invalid_grant', problem ?? 'invalid grant');
+      return;
+    }
+    const token = response.body;
+    if (response.statusCode === 200 && typeof token === 'object' && typeof token.access_token === 'string') {
+      byAccessToken.set(token.access_token, grant.profile);
+    }
   });
   service.on('beforeUserinfo', (response: MutableResponse, req: IncomingMessage) => {
     const auth = req.headers.authorization ?? '';

@@ -10,7 +10,12 @@ let idp: Awaited<ReturnType<typeof createIdentityFake>>;
 
 beforeAll(async () => {
   idp = await createIdentityFake({ port: 0 });
-  t = await createTestApp({ GOOGLE_OAUTH_BASE_URL: idp.issuerUrl, SIGN_IN_LIMIT_PER_ACCOUNT: '3', SIGN_IN_LIMIT_PER_IP: '1000' });
+  t = await createTestApp({
+    GOOGLE_OAUTH_BASE_URL: idp.issuerUrl,
+    SIGN_IN_LIMIT_PER_ACCOUNT: '3',
+    SIGN_IN_FIRST_DELAY_SECONDS: '30',
+    SIGN_IN_LIMIT_PER_IP: '1000',
+  });
   await seedDemoAccounts(t.database.db);
 });
 afterAll(async () => {
@@ -88,7 +93,7 @@ describe('sign-up and sign-in', () => {
       });
     await agent.token();
     await agent.post('/api/auth/sign-out').set('x-csrf-token', agent.csrf).expect(204);
-    await agent.get('/api/auth/me').expect(401);
+    expect((await agent.get('/api/auth/me').expect(200)).body).toEqual({ account: null });
   });
 
   it('keeps a session across an app restart (sessions live in PostgreSQL)', async () => {
@@ -114,7 +119,7 @@ describe('sign-up and sign-in', () => {
     expect(forged.status).toBe(403);
   });
 
-  it('limits failed sign-ins per account with 429 and Retry-After', async () => {
+  it('slows failed sign-ins per account with 429 and Retry-After, and lets the right password in after the wait', async () => {
     await signUp('tern@example.org', 'a good long password');
     const agent = agentFor(t.app);
     await agent.token();
@@ -128,13 +133,21 @@ describe('sign-up and sign-in', () => {
       statuses.push(last.status);
     }
     expect(statuses).toEqual([401, 401, 401, 429, 429]);
-    expect(Number(last!.headers['retry-after'])).toBeGreaterThan(0);
-    // Even the right password waits out the window.
-    const right = await agent
+    expect(Number(last!.headers['retry-after'])).toBeGreaterThan(25);
+    expect(Number(last!.headers['retry-after'])).toBeLessThanOrEqual(30);
+    // Too soon, even with the right password: this address has been failing.
+    const early = await agent
       .post('/api/auth/sign-in')
       .set('x-csrf-token', agent.csrf)
       .send({ email: 'tern@example.org', password: 'a good long password' });
-    expect(right.status).toBe(429);
+    expect(early.status).toBe(429);
+    // Once the wait is over the right password signs in: nothing is locked.
+    await t.database.db.execute(sql`update rate_limit_hits set reset_at = reset_at - interval '30 seconds'`);
+    await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', agent.csrf)
+      .send({ email: 'tern@example.org', password: 'a good long password' })
+      .expect(200);
   });
 });
 
@@ -191,7 +204,8 @@ describe('password reset through the mail fake', () => {
 });
 
 describe('Continue with Google (local identity provider)', () => {
-  async function googleRoundTrip(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
+  /** The browser's side up to the provider's redirect back: answers the callback link it would follow. */
+  async function startGoogleFlow(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
     const start = await agent.get(`/api/auth/google?returnTo=${encodeURIComponent(returnTo)}`).expect(302);
     const authorize = new URL(start.headers.location!);
     expect(authorize.origin).toBe(new URL(idp.issuerUrl).origin);
@@ -199,8 +213,64 @@ describe('Continue with Google (local identity provider)', () => {
     expect(back.status).toBe(302);
     const callback = new URL(back.headers.get('location')!);
     expect(callback.pathname).toBe('/api/auth/google/callback');
-    return agent.get(callback.pathname + callback.search);
+    return { authorize, callback: callback.pathname + callback.search };
   }
+
+  async function googleRoundTrip(agent: ReturnType<typeof agentFor>, returnTo = '/my-support') {
+    const { callback } = await startGoogleFlow(agent, returnTo);
+    return agent.get(callback);
+  }
+
+  async function accountExists(email: string) {
+    const { rows } = await t.database.db.execute(sql`select 1 from accounts where lower(email) = lower(${email})`);
+    return rows.length > 0;
+  }
+
+  it('sends a state bound to the session and an S256 PKCE challenge to the provider', async () => {
+    const agent = agentFor(t.app);
+    const { authorize } = await startGoogleFlow(agent);
+    const state = authorize.searchParams.get('state');
+    expect(state).toMatch(/^[\w-]{20,}$/);
+    expect(authorize.searchParams.get('code_challenge')).toMatch(/^[\w-]{43}$/);
+    expect(authorize.searchParams.get('code_challenge_method')).toBe('S256');
+    const other = await startGoogleFlow(agentFor(t.app));
+    expect(other.authorize.searchParams.get('state')).not.toBe(state);
+  });
+
+  it('does not sign in a browser that follows a callback link from a flow another browser started', async () => {
+    // The attacker starts a sign-in with their own Google account and stops before the callback…
+    idp.setNextProfile({ sub: 'g-attacker', email: 'mallard.attacker@example.org', email_verified: true, name: 'Attacker' });
+    const attacker = agentFor(t.app);
+    const { callback } = await startGoogleFlow(attacker);
+
+    // …and sends the callback link to a victim: one fresh browser, one that has started its own sign-in.
+    const fresh = agentFor(t.app);
+    const busy = agentFor(t.app);
+    await startGoogleFlow(busy);
+    for (const victim of [fresh, busy]) {
+      const res = await victim.get(callback);
+      expect(res.status).toBe(302);
+      expect(res.headers.location).toBe('/sign-in?error=auth.state_mismatch');
+      expect((await victim.get('/api/auth/me').expect(200)).body).toEqual({ account: null });
+    }
+    expect(await accountExists('mallard.attacker@example.org')).toBe(false);
+  });
+
+  it('refuses a callback without state, or with a state it made up, and signs nobody in', async () => {
+    idp.setNextProfile({ sub: 'g-nostate', email: 'nostate@example.org', email_verified: true, name: 'No State' });
+    const agent = agentFor(t.app);
+    const { callback } = await startGoogleFlow(agent);
+    const url = new URL(callback, 'http://x');
+    const code = url.searchParams.get('code')!;
+    for (const search of [`?code=${code}`, `?code=${code}&state=made-up-state-value-000000`]) {
+      const res = await agent.get(`/api/auth/google/callback${search}`);
+      expect(res.headers.location).toBe('/sign-in?error=auth.state_mismatch');
+    }
+    // The flow's own state was spent by the first refused attempt: the genuine link no longer works either.
+    expect((await agent.get(callback)).headers.location).toBe('/sign-in?error=auth.state_mismatch');
+    expect((await agent.get('/api/auth/me')).body).toEqual({ account: null });
+    expect(await accountExists('nostate@example.org')).toBe(false);
+  });
 
   it('creates an account on the first sign-in and returns to the asked page', async () => {
     idp.setNextProfile({ sub: 'g-1001', email: 'oystercatcher@example.org', email_verified: true, name: 'Oyster Catcher' });
@@ -235,6 +305,6 @@ describe('Continue with Google (local identity provider)', () => {
     const res = await googleRoundTrip(agent);
     expect(res.status).toBe(302);
     expect(res.headers.location).toBe('/sign-in?error=auth.email_unverified');
-    await agent.get('/api/auth/me').expect(401);
+    expect((await agent.get('/api/auth/me').expect(200)).body).toEqual({ account: null });
   });
 });

@@ -43,7 +43,7 @@ export const benchmarks: Benchmark[] = [
       const closers: Array<() => Promise<unknown>> = [];
       try {
         const env = {
-          NODE_ENV: 'production',
+          NODE_ENV: 'development', // production refuses the local secrets and fakes
           LOG_LEVEL: 'silent',
           DATABASE_URL: url,
           PUBLIC_URL: 'http://127.0.0.1:3999',

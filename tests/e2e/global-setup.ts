@@ -33,7 +33,8 @@ export default async function setup(project: TestProject) {
   const [appPort, idPort, mailPort, payPort] = [await freePort(), await freePort(), await freePort(), await freePort()];
   const config = loadConfig({
     ...process.env,
-    NODE_ENV: 'production',
+    // The local fakes and secrets: production would (rightly) refuse them.
+    NODE_ENV: 'development',
     LOG_LEVEL: 'silent',
     PORT: String(appPort),
     PUBLIC_URL: `http://127.0.0.1:${appPort}`,

@@ -1,3 +1,4 @@
+import { createHash, randomBytes } from 'node:crypto';
 import { Strategy as GoogleStrategy, type Profile as GoogleProfile } from 'passport-google-oauth20';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createIdentityFake, defaultProfile, googleEndpoints, type IdentityFake } from '../../fakes/identity/server';
@@ -10,36 +11,53 @@ function decodeJwtPayload(jwt: string): Record<string, unknown> {
   return JSON.parse(Buffer.from(part, 'base64url').toString('utf8')) as Record<string, unknown>;
 }
 
-/** authorize → code → token → userinfo, the way passport-google-oauth20 drives it. */
-async function signInRoundTrip(fake: IdentityFake, state: string) {
-  const ep = googleEndpoints(fake.issuerUrl);
-  const authorize = new URL(ep.authorizationURL);
-  authorize.search = new URLSearchParams({
+/** A PKCE pair (RFC 7636 §4.1–4.2, S256): challenge = BASE64URL(SHA256(verifier)). */
+function pkcePair() {
+  const verifier = randomBytes(32).toString('base64url');
+  return { verifier, challenge: createHash('sha256').update(verifier).digest('base64url') };
+}
+
+/** GET /authorize as a browser would; answers the redirect back to the app. */
+async function authorize(fake: IdentityFake, params: Record<string, string>) {
+  const url = new URL(googleEndpoints(fake.issuerUrl).authorizationURL);
+  url.search = new URLSearchParams({
     response_type: 'code',
     client_id: 'lightkeel-local',
     redirect_uri: redirectUri,
     scope: 'openid profile email',
-    state,
+    ...params,
   }).toString();
-  const redirect = await fetch(authorize, { redirect: 'manual' });
+  const redirect = await fetch(url, { redirect: 'manual' });
   expect(redirect.status).toBe(302);
-  const back = new URL(redirect.headers.get('location') ?? '');
+  return new URL(redirect.headers.get('location') ?? '');
+}
+
+/** An authorization code issued for a fresh PKCE pair. */
+async function issueCode(fake: IdentityFake, state = 'state-x') {
+  const pair = pkcePair();
+  const back = await authorize(fake, { state, code_challenge: pair.challenge, code_challenge_method: 'S256' });
+  return { code: back.searchParams.get('code') ?? '', ...pair };
+}
+
+function exchange(fake: IdentityFake, params: Record<string, string>) {
+  return fetch(googleEndpoints(fake.issuerUrl).tokenURL, {
+    method: 'POST',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: new URLSearchParams({ grant_type: 'authorization_code', redirect_uri: redirectUri, client_id: 'lightkeel-local', ...params }),
+  });
+}
+
+/** authorize → code → token → userinfo, the way passport-google-oauth20 drives it (state and PKCE S256). */
+async function signInRoundTrip(fake: IdentityFake, state: string) {
+  const ep = googleEndpoints(fake.issuerUrl);
+  const pair = pkcePair();
+  const back = await authorize(fake, { state, code_challenge: pair.challenge, code_challenge_method: 'S256' });
   expect(`${back.origin}${back.pathname}`).toBe(redirectUri);
   expect(back.searchParams.get('state')).toBe(state);
   const code = back.searchParams.get('code');
   expect(code).toBeTruthy();
 
-  const tokenRes = await fetch(ep.tokenURL, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded' },
-    body: new URLSearchParams({
-      grant_type: 'authorization_code',
-      code: code ?? '',
-      redirect_uri: redirectUri,
-      client_id: 'lightkeel-local',
-      client_secret: 'local-secret',
-    }),
-  });
+  const tokenRes = await exchange(fake, { code: code ?? '', code_verifier: pair.verifier, client_secret: 'local-secret' });
   expect(tokenRes.status).toBe(200);
   const token = (await tokenRes.json()) as { access_token: string; id_token: string; token_type: string };
   expect(token.token_type).toBe('Bearer');
@@ -95,16 +113,9 @@ describe('identity fake (local Google sign-in)', () => {
   it('keeps the profile bound to the code even if the next profile changes mid sign-in', async () => {
     fake.setNextProfile({ sub: 'first-person', email: 'first@example.org' });
     const ep = googleEndpoints(fake.issuerUrl);
-    const res = await fetch(`${ep.authorizationURL}?response_type=code&client_id=c&redirect_uri=${encodeURIComponent(redirectUri)}`, {
-      redirect: 'manual',
-    });
-    const code = new URL(res.headers.get('location') ?? '').searchParams.get('code') ?? '';
+    const { code, verifier } = await issueCode(fake);
     fake.setNextProfile({ sub: 'second-person', email: 'second@example.org' });
-    const tokenRes = await fetch(ep.tokenURL, {
-      method: 'POST',
-      headers: { 'content-type': 'application/x-www-form-urlencoded' },
-      body: new URLSearchParams({ grant_type: 'authorization_code', code, redirect_uri: redirectUri, client_id: 'c' }),
-    });
+    const tokenRes = await exchange(fake, { code, code_verifier: verifier });
     const { access_token } = (await tokenRes.json()) as { access_token: string };
     const info = (await (await fetch(ep.userProfileURL, { headers: { authorization: `Bearer ${access_token}` } })).json()) as {
       sub: string;
@@ -149,19 +160,17 @@ describe('identity fake (local Google sign-in)', () => {
       { clientID: 'lightkeel-local', clientSecret: 'local-secret', callbackURL: redirectUri, ...googleEndpoints(fake.issuerUrl) },
       () => undefined,
     );
-    const authorize = await fetch(
-      `${googleEndpoints(fake.issuerUrl).authorizationURL}?response_type=code&client_id=lightkeel-local&redirect_uri=${encodeURIComponent(redirectUri)}`,
-      { redirect: 'manual' },
-    );
-    const code = new URL(authorize.headers.get('location') ?? '').searchParams.get('code') ?? '';
+    const { code, verifier } = await issueCode(fake);
     // The strategy's own OAuth2 client and profile loader, as used inside passport.authenticate().
     const internals = strategy as unknown as {
       _oauth2: { getOAuthAccessToken(code: string, params: object, cb: (err: unknown, accessToken: string) => void): void };
       userProfile(accessToken: string, done: (err: unknown, profile?: GoogleProfile) => void): void;
     };
     const accessToken = await new Promise<string>((resolve, reject) =>
-      internals._oauth2.getOAuthAccessToken(code, { grant_type: 'authorization_code', redirect_uri: redirectUri }, (err, t) =>
-        err ? reject(err) : resolve(t),
+      internals._oauth2.getOAuthAccessToken(
+        code,
+        { grant_type: 'authorization_code', redirect_uri: redirectUri, code_verifier: verifier },
+        (err, t) => (err ? reject(err) : resolve(t)),
       ),
     );
     const profile = await new Promise<GoogleProfile>((resolve, reject) =>
@@ -179,6 +188,57 @@ describe('identity fake (local Google sign-in)', () => {
     expect((await fetch(ep.userProfileURL)).status).toBe(401);
     expect((await fetch(ep.userProfileURL, { headers: { authorization: 'Bearer made-up' } })).status).toBe(401);
     expect((await fetch(`${ep.userProfileURL}?access_token=made-up`)).status).toBe(401);
+  });
+
+  it('refuses an authorization request without state or without an S256 PKCE challenge', async () => {
+    const { challenge } = pkcePair();
+    const cases: [Record<string, string>, RegExp][] = [
+      [{ code_challenge: challenge, code_challenge_method: 'S256' }, /state/],
+      [{ state: 's' }, /code_challenge/],
+      [{ state: 's', code_challenge: challenge, code_challenge_method: 'plain' }, /S256/],
+      [{ state: 's', code_challenge: challenge }, /S256/],
+    ];
+    for (const [params, reason] of cases) {
+      const back = await authorize(fake, params);
+      expect(back.searchParams.get('code'), JSON.stringify(params)).toBeNull();
+      expect(back.searchParams.get('error')).toBe('invalid_request');
+      expect(back.searchParams.get('error_description')).toMatch(reason);
+    }
+  });
+
+  it('refuses a token exchange whose code_verifier does not match the code_challenge', async () => {
+    const { code } = await issueCode(fake);
+    const res = await exchange(fake, { code, code_verifier: pkcePair().verifier });
+    expect(res.status).toBe(400);
+    expect(((await res.json()) as { error_description: string }).error_description).toMatch(/code_verifier.*code_challenge/);
+  });
+
+  it('refuses a token exchange without a code_verifier, and the code is then spent', async () => {
+    const { code, verifier } = await issueCode(fake);
+    const res = await exchange(fake, { code });
+    expect(res.status).toBe(400);
+    expect(await res.json()).toMatchObject({ error: 'invalid_grant', error_description: expect.stringMatching(/code_verifier/) });
+    const retry = await exchange(fake, { code, code_verifier: verifier });
+    expect(retry.status).toBe(400);
+  });
+
+  it('refuses a code it never issued, a code used twice, and a code sent to another redirect_uri', async () => {
+    const made = await exchange(fake, { code: 'made-up-code', code_verifier: pkcePair().verifier });
+    expect(made.status).toBe(400);
+
+    const first = await issueCode(fake);
+    expect((await exchange(fake, { code: first.code, code_verifier: first.verifier })).status).toBe(200);
+    const twice = await exchange(fake, { code: first.code, code_verifier: first.verifier });
+    expect(twice.status).toBe(400);
+
+    const other = await issueCode(fake);
+    const elsewhere = await exchange(fake, {
+      code: other.code,
+      code_verifier: other.verifier,
+      redirect_uri: 'http://127.0.0.1:3999/somewhere-else',
+    });
+    expect(elsewhere.status).toBe(400);
+    expect(((await elsewhere.json()) as { error_description: string }).error_description).toMatch(/redirect_uri/);
   });
 
   it('starts with the profile given in its options', async () => {

@@ -1,10 +1,12 @@
 import { Router, type Request, type Response, type NextFunction } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
 type Authenticator = InstanceType<PassportStatic['Passport']>;
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { PgRateLimitStore } from './rate-limit-store';
+import { createSignInThrottle } from './sign-in-throttle';
+import { stateMismatch } from './oauth-state-store';
 import type { AuthService } from './auth.service';
 import { invalidCredentials } from './auth.service';
 import { validated } from '../../middleware/validate';
@@ -66,30 +68,35 @@ export function createAuthRouter({
 }) {
   const router = Router();
   const windowMs = config.SIGN_IN_WINDOW_SECONDS * 1000;
-  const perIp = rateLimit({
-    windowMs,
-    store: new PgRateLimitStore(db, 'ip:'),
-    limit: config.SIGN_IN_LIMIT_PER_IP,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: tooMany('Too many sign-in attempts from this network. Wait a little and try again.'),
-  });
-  // Failed attempts per account, whatever address they come from.
-  const perAccount = rateLimit({
-    windowMs,
-    store: new PgRateLimitStore(db, 'account:'),
-    limit: config.SIGN_IN_LIMIT_PER_ACCOUNT,
-    skipSuccessfulRequests: true,
-    standardHeaders: false,
-    legacyHeaders: false,
-    // The limiter runs before validation: text the database cannot store is counted under one key.
-    keyGenerator: (req) => {
-      const email = String((req.body as { email?: unknown })?.email ?? '')
-        .trim()
-        .toLowerCase();
-      return textProblem(email) ? 'acct:(unreadable)' : `acct:${email}`;
-    },
-    handler: tooMany('Too many failed sign-ins for this account. Wait a little and try again.'),
+  // One budget per action and address, so failing sign-ins never block sign-up or a reset request.
+  const perAddress = (action: string, limit: number, message: string) =>
+    rateLimit({
+      windowMs,
+      store: new PgRateLimitStore(db, `${action}:ip:`),
+      limit,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      // Without TRUST_PROXY the header is the client's own claim and is rightly ignored.
+      validate: { xForwardedForHeader: false },
+      handler: tooMany(message),
+    });
+  const signUpLimit = perAddress(
+    'signup',
+    config.SIGN_UP_LIMIT_PER_IP,
+    'Too many new accounts from this network. Wait a little and try again.',
+  );
+  const resetRequestLimit = perAddress(
+    'reset',
+    config.PASSWORD_RESET_LIMIT_PER_IP,
+    'Too many reset requests from this network. Wait a little and try again.',
+  );
+  const signInThrottle = createSignInThrottle({
+    db,
+    windowSeconds: config.SIGN_IN_WINDOW_SECONDS,
+    perAddress: config.SIGN_IN_LIMIT_PER_IP,
+    freeFailures: config.SIGN_IN_LIMIT_PER_ACCOUNT,
+    firstDelaySeconds: config.SIGN_IN_FIRST_DELAY_SECONDS,
+    maxDelaySeconds: config.SIGN_IN_MAX_DELAY_SECONDS,
   });
 
   // The token is only good once the session holding it is stored: save first, answer after. A session
@@ -106,13 +113,14 @@ export function createAuthRouter({
     res.json({ google: Boolean(config.GOOGLE_CLIENT_ID && config.GOOGLE_CLIENT_SECRET) });
   });
 
-  router.get('/me', requireAuth, (req, res) => {
-    res.json({ account: req.user });
+  // Signed out is an answer here, not an error: a 401 would show as a failed request in every visitor's console.
+  router.get('/me', (req, res) => {
+    res.json({ account: req.user ?? null });
   });
 
   router.post(
     '/sign-up',
-    perIp,
+    signUpLimit,
     validated({ body: signUpSchema }, async (req, res, { body }) => {
       const row = await auth.signUp(body);
       const account = await auth.repo.view(row);
@@ -123,16 +131,21 @@ export function createAuthRouter({
 
   router.post(
     '/sign-in',
-    perIp,
-    perAccount,
-    validated({ body: signInSchema }, (req, res, _input, next) => {
+    validated({ body: signInSchema }, async (req, res, { body }, next) => {
+      // req.ip is the socket address, or the proxy's X-Forwarded-For entry when TRUST_PROXY=true; an IPv6
+      // address counts by its /56 network (one household or host gets many addresses).
+      const attempt = await signInThrottle.begin({ email: body.email, address: ipKeyGenerator(req.ip ?? 'unknown') });
       pp.authenticate('local', (err: unknown, user: Express.User | false) => {
         if (err) return next(err);
-        if (!user) return next(invalidCredentials());
-        req.logIn(user, (loginErr) => {
-          if (loginErr) return next(loginErr);
-          res.json({ account: user });
-        });
+        if (!user) return void attempt.failed().then(() => next(invalidCredentials()), next);
+        void attempt.succeeded().then(
+          () =>
+            req.logIn(user, (loginErr) => {
+              if (loginErr) return next(loginErr);
+              res.json({ account: user });
+            }),
+          next,
+        );
       })(req, res, next);
     }),
   );
@@ -154,12 +167,15 @@ export function createAuthRouter({
   });
 
   router.get('/google/callback', (req, res, next) => {
-    pp.authenticate('google', (err: unknown, user: Express.User | false) => {
+    pp.authenticate('google', (err: unknown, user: Express.User | false, info?: { code?: string }) => {
       if (err) {
         const code = err instanceof AppError ? err.code : 'auth.provider_failed';
         return res.redirect(`/sign-in?error=${encodeURIComponent(code)}`);
       }
-      if (!user) return res.redirect('/sign-in?error=auth.provider_failed');
+      if (!user) {
+        const code = info?.code === stateMismatch.code ? stateMismatch.code : 'auth.provider_failed';
+        return res.redirect(`/sign-in?error=${code}`);
+      }
       const returnTo = safeReturnTo(req.session.returnTo);
       req.logIn(user, (loginErr) => {
         if (loginErr) return next(loginErr);
@@ -184,7 +200,7 @@ export function createAuthRouter({
 
   router.post(
     '/request-password-reset',
-    perIp,
+    resetRequestLimit,
     validated({ body: requestPasswordResetSchema }, async (req, res, { body }) => {
       // Same answer whether or not the account exists.
       await auth.requestPasswordReset(body.email).catch((err) => req.log?.warn({ err }, 'password reset mail failed'));
@@ -194,8 +210,8 @@ export function createAuthRouter({
 
   router.post(
     '/reset-password',
-    validated({ body: resetPasswordSchema }, async (_req, res, { body }) => {
-      await auth.resetPassword(body.token, body.password);
+    validated({ body: resetPasswordSchema }, async (req, res, { body }) => {
+      await auth.resetPassword(body.token, body.password, { keepSessionId: req.sessionID });
       res.status(204).end();
     }),
   );

@@ -7,6 +7,7 @@ import type { Mailer } from '../../lib/mailer';
 import { accounts, authTokens, identities } from '../accounts/accounts.tables';
 import { createAccountsRepository } from '../accounts/accounts.repository';
 import { recordAudit } from '../audit/audit.repository';
+import { endOtherSessions } from './sessions.repository';
 import { AppError, badRequest } from '../../errors';
 import type { SignUpInput } from '../../../shared/schemas/auth';
 
@@ -143,7 +144,8 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
       });
     },
 
-    async resetPassword(token: string, password: string) {
+    /** Sets the new password and ends the account's sessions in every other browser (`keepSessionId` stays). */
+    async resetPassword(token: string, password: string, { keepSessionId }: { keepSessionId?: string } = {}) {
       const passwordHash = await hash(password, ARGON2);
       const row = await consumeToken(token, 'reset-password');
       await db.transaction(async (tx) => {
@@ -156,6 +158,7 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
           .set({ emailVerifiedAt: new Date() })
           .where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
         await recordAudit(tx, { actorId: row.accountId, action: 'password.reset', subjectType: 'account', subjectId: row.accountId });
+        await endOtherSessions(tx, { accountId: row.accountId, keepSessionId });
       });
     },
   };

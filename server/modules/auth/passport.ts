@@ -3,6 +3,8 @@ import { Strategy as LocalStrategy } from 'passport-local';
 import { Strategy as GoogleStrategy, type Profile } from 'passport-google-oauth20';
 import type { Config } from '../../config';
 import type { AuthService } from './auth.service';
+import { SessionOAuthStateStore } from './oauth-state-store';
+import type { StateStore } from 'passport-oauth2';
 
 /** One Authenticator per app instance, so tests can build several apps in one process. */
 export function createPassport({ config, auth }: { config: Config; auth: AuthService }) {
@@ -34,6 +36,12 @@ export function createPassport({ config, auth }: { config: Config; auth: AuthSer
         callbackURL: `${config.PUBLIC_URL}/api/auth/google/callback`,
         ...(base ? { authorizationURL: `${base}/authorize`, tokenURL: `${base}/token`, userProfileURL: `${base}/userinfo` } : {}),
         scope: ['openid', 'email', 'profile'],
+        // Login CSRF: the callback must carry the state this browser's session holds, and the code is only
+        // good with this flow's PKCE verifier (S256).
+        state: true,
+        pkce: true,
+        // The PKCE store signature (req, verifier, state, meta, cb) is missing from @types/passport-oauth2.
+        store: new SessionOAuthStateStore() as unknown as StateStore,
       },
       (_accessToken: string, _refreshToken: string, profile: Profile, done: (err: unknown, user?: Express.User | false) => void) => {
         const json = profile._json as { email?: string; email_verified?: boolean | string };

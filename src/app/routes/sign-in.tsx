@@ -1,5 +1,6 @@
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import type { AccountView } from '@shared/schemas/auth';
+import { Alert } from '@/components/ui/alert';
 import { useMe } from '@/features/auth/api/get-me';
 import { GoogleButton } from '@/features/auth/components/google-button';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
@@ -12,12 +13,30 @@ export function homeFor(account: AccountView): string {
   return hasAnyRole(account.roles, staffRoles) ? '/console' : '/my-support';
 }
 
+// What the Google callback tells the sign-in page when it signed nobody in (`/sign-in?error=…`).
+const providerErrors: Record<string, { title: string; text: string }> = {
+  'auth.state_mismatch': {
+    title: 'You were not signed in',
+    text: 'That Google sign-in link was not started from this browser, so we ignored it. If you meant to sign in, choose “Continue with Google” here.',
+  },
+  'auth.email_unverified': {
+    title: 'Google did not confirm your e-mail',
+    text: 'Your Google account did not confirm an e-mail address, so we cannot sign you in with it. Sign in with your e-mail and password instead.',
+  },
+  'auth.provider_failed': {
+    title: 'Google sign-in did not finish',
+    text: 'Something went wrong between us and Google. Try again, or sign in with your e-mail and password.',
+  },
+};
+
 export function Component() {
   useDocumentTitle('Sign in');
   const [params] = useSearchParams();
   const returnTo = safeReturnTo(params.get('returnTo'));
   const navigate = useNavigate();
   const me = useMe();
+  const errorCode = params.get('error');
+  const providerError = errorCode ? (providerErrors[errorCode] ?? providerErrors['auth.provider_failed']) : undefined;
 
   if (me.data) return <Navigate replace to={returnTo ?? homeFor(me.data)} />;
 
@@ -36,6 +55,7 @@ export function Component() {
         </p>
       }
     >
+      {providerError && <Alert title={providerError.title}>{providerError.text}</Alert>}
       <GoogleButton returnTo={returnTo ?? '/my-support'} />
       <SignInForm onSignedIn={(account) => navigate(returnTo ?? homeFor(account), { replace: true })} />
       <p className="text-center text-sm">

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { AccountView } from '@shared/schemas/auth';
-import { api, isApiError } from '@/lib/api-client';
+import { api } from '@/lib/api-client';
 
 export const authKeys = {
   all: ['auth'] as const,
@@ -8,15 +8,10 @@ export const authKeys = {
   providers: () => [...authKeys.all, 'providers'] as const,
 };
 
-/** The signed-in account, or null when nobody is signed in (401 is an answer here, not an error). */
+/** The signed-in account, or null when nobody is signed in. */
 export async function getMe({ signal }: { signal?: AbortSignal } = {}): Promise<AccountView | null> {
-  try {
-    const { account } = await api.get<{ account: AccountView }>('/api/auth/me', { signal });
-    return account;
-  } catch (error) {
-    if (isApiError(error) && error.status === 401) return null;
-    throw error;
-  }
+  const { account } = await api.get<{ account: AccountView | null }>('/api/auth/me', { signal });
+  return account;
 }
 
 export function getMeQueryOptions() {
