@@ -207,3 +207,36 @@ describe('OMM errors name the line and the keyword', () => {
     expect(r.records[0]!.epoch).toBe('2000-06-27T18:50:19.734Z');
   });
 });
+
+describe('a broken XML file: what is wrong, where, in words', () => {
+  const lineOf = (needle: string) => XML.split('\n').findIndex((l) => l.includes(needle)) + 1;
+  const colOf = (needle: string) => XML.split('\n')[lineOf(needle) - 1]!.indexOf(needle) + 1;
+  it('a mistyped closing tag names both elements, the line and column, and where the element opened', () => {
+    const r = parseElementSets(XML.replace('</ECCENTRICITY>', '</ECCENTRICITYX>'));
+    const line = lineOf('</ECCENTRICITY>');
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({
+      line,
+      columns: [colOf('</ECCENTRICITY>'), colOf('</ECCENTRICITY>')],
+      field: 'ECCENTRICITY',
+      message: `XML line ${line}, column ${colOf('</ECCENTRICITY>')}: <ECCENTRICITY> (opened on line ${line}, column ${colOf('<ECCENTRICITY>')}) is closed with </ECCENTRICITYX>`,
+      expected: '</ECCENTRICITY>',
+    });
+  });
+  it('an element never closed', () => {
+    const r = parseElementSets(XML.replace('</ndm>', ''));
+    expect(r.errors[0]).toMatchObject({ line: 2, field: 'ndm', expected: '</ndm> before the end of the file' });
+    expect(r.errors[0]!.message).toBe('XML line 2, column 1: <ndm> is opened here but never closed');
+  });
+  it('a bare "&" in a value', () => {
+    const r = parseElementSets(XML.replace('<ORIGINATOR>TEST</ORIGINATOR>', '<ORIGINATOR>A & B</ORIGINATOR>'));
+    expect(r.errors[0]).toMatchObject({ line: 4, expected: '"&amp;" for a literal "&"' });
+    expect(r.errors[0]!.message).toMatch(/^XML line 4, column \d+: an "&" that starts no entity$/);
+  });
+  it('a closing tag with no opening one', () => {
+    const r = parseElementSets(XML.replace('<MEAN_ANOMALY>19.3264</MEAN_ANOMALY>', '19.3264</MEAN_ANOMALY>'));
+    const line = lineOf('<MEAN_ANOMALY>');
+    expect(r.errors[0]).toMatchObject({ line, field: 'MEAN_ANOMALY' });
+    expect(r.errors[0]!.message).toMatch(new RegExp(`^XML line ${line}, column \\d+: </MEAN_ANOMALY> closes an element that is not open$`));
+  });
+});
