@@ -1,13 +1,5 @@
-// Orbit engine benchmarks, each against a bare satellite.js loop over the same inputs in the same run.
-import { eciToGeodetic, gstime, propagate, twoline2satrec } from 'satellite.js';
-import {
-  deriveElementSet,
-  formatTleFile,
-  meanMotionForSemiMajorAxis,
-  parseElementSets,
-  sgp4AltitudeRange,
-  type TleWriteInput,
-} from '../../shared/orbit';
+// Orbit engine benchmarks, each against a bare loop doing the same work on the same inputs in the same run.
+import { deriveElementSet, formatTleFile, meanMotionForSemiMajorAxis, parseElementSets, type TleWriteInput } from '../../shared/orbit';
 import { median, type Benchmark } from './harness';
 
 /**
@@ -122,55 +114,6 @@ export const benchmarks: Benchmark[] = [
       return {
         ratio: m.ratio,
         detail: `text → records → derive: ours ${m.oursMs.toFixed(0)} ms (validation, checksums, errors, ISO dates) vs bare slice+Number ${m.bareMs.toFixed(0)} ms (100k sets, split timed on both sides, median of 7 alternating rounds)`,
-      };
-    },
-  },
-  {
-    id: 'orbit.sgp4-minmax',
-    goal: 1.2,
-    better: 'lower',
-    async run() {
-      const sets = parseElementSets(formatTleFile(makeSets(5_000))).records;
-      const samples = 60;
-      let peakRss = process.memoryUsage().rss,
-        peakHeap = process.memoryUsage().heapUsed;
-      const sample = () => {
-        const m = process.memoryUsage();
-        peakRss = Math.max(peakRss, m.rss);
-        peakHeap = Math.max(peakHeap, m.heapUsed);
-      };
-      const m = await interleaved(
-        () => {
-          for (let k = 0; k < sets.length; k++) {
-            const r = sgp4AltitudeRange(sets[k]!, { samplesPerRev: samples });
-            if (r.ok) sink += r.minAltitudeKm + r.maxAltitudeKm;
-            if (k % 1000 === 0) sample();
-          }
-        },
-        () => {
-          for (let k = 0; k < sets.length; k++) {
-            const s = sets[k]!;
-            const sat = twoline2satrec(s.line1, s.line2);
-            const periodMin = (2 * Math.PI) / sat.no;
-            const epochMs = (sat.jdsatepoch - 2440587.5) * 86_400_000;
-            let min = Infinity,
-              max = -Infinity;
-            for (let j = 0; j < samples; j++) {
-              const date = new Date(epochMs + ((j * periodMin) / samples) * 60_000);
-              const pv = propagate(sat, date);
-              if (!pv) break;
-              const h = eciToGeodetic(pv.position, gstime(date)).height;
-              if (h < min) min = h;
-              if (h > max) max = h;
-            }
-            sink += min + max;
-          }
-        },
-      );
-      sample();
-      return {
-        ratio: m.ratio,
-        detail: `ours ${m.oursMs.toFixed(0)} ms vs propagate+eciToGeodetic ${m.bareMs.toFixed(0)} ms (5k sets × ${samples}); peak rss ${(peakRss / 2 ** 20).toFixed(0)} MiB, heap ${(peakHeap / 2 ** 20).toFixed(0)} MiB`,
       };
     },
   },
