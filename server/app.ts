@@ -1,4 +1,4 @@
-import express, { type Express } from 'express';
+import express, { type Express, type RequestHandler } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
@@ -15,6 +15,7 @@ import type { Config } from './config';
 import type { Mailer } from './lib/mailer';
 import { mount } from './lib/routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
+import { sessionWhenNeeded } from './middleware/session-when-needed';
 import { createAuthService } from './modules/auth/auth.service';
 import { createPassport } from './modules/auth/passport';
 import { createAuthRouter } from './modules/auth/auth.routes';
@@ -75,7 +76,8 @@ export function createApp(deps: AppDeps): Express {
   if (httpsOnly) Object.defineProperty(app.request, 'secure', { configurable: true, enumerable: true, get: () => true });
 
   const PgStore = connectPgSimple(session);
-  app.use(
+  // Sessions only where a request has or may start one (see sessionWhenNeeded): set up below with passport's.
+  const sessionStack: RequestHandler[] = [
     session({
       name: 'lk.sid',
       secret: config.SESSION_SECRET,
@@ -95,12 +97,12 @@ export function createApp(deps: AppDeps): Express {
         maxAge: 30 * 24 * 3600 * 1000,
       },
     }),
-  );
+  ];
 
   const auth = createAuthService({ db, config, mailer });
   const pp = createPassport({ config, auth });
   app.use(pp.initialize());
-  app.use(pp.session());
+  app.use(sessionWhenNeeded('lk.sid', [...sessionStack, pp.session()]));
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
   const funding = createFunding({ db, pool, config, mailer, stripe: deps.stripe, logger });

@@ -23,6 +23,47 @@ export function parseCatalogNumber(field: string): number {
   return value;
 }
 
+/** Whitespace as String#trim sees it. */
+export function isTrimWhitespace(c: number): boolean {
+  return (
+    c === 32 ||
+    (c >= 9 && c <= 13) ||
+    c === 0xa0 ||
+    c === 0x1680 ||
+    (c >= 0x2000 && c <= 0x200a) ||
+    c === 0x2028 ||
+    c === 0x2029 ||
+    c === 0x202f ||
+    c === 0x205f ||
+    c === 0x3000 ||
+    c === 0xfeff
+  );
+}
+
+/** `parseCatalogNumber(line.slice(start, start + 5))` without building the slice (the parser's hot path). */
+export function readCatalogNumberAt(line: string, start: number): number {
+  let s = start,
+    e = Math.min(start + 5, line.length);
+  while (s < e && isTrimWhitespace(line.charCodeAt(s))) s++;
+  while (e > s && isTrimWhitespace(line.charCodeAt(e - 1))) e--;
+  if (s === e) return NaN;
+  let value = 0;
+  const first = line.charCodeAt(s);
+  if (first >= 65 && first <= 90) {
+    if (e - s !== 5) return NaN;
+    const idx = ALPHA5_LETTERS.indexOf(line[s]!);
+    if (idx < 0) return NaN;
+    value = idx + 10;
+    s++;
+  }
+  for (let i = s; i < e; i++) {
+    const c = line.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return NaN;
+    value = value * 10 + c;
+  }
+  return value;
+}
+
 /** Largest number alpha-5 can write: Z9999. */
 export const MAX_CATALOG_NUMBER = 339_999;
 

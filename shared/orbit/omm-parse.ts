@@ -122,14 +122,95 @@ const xmlParser = new XMLParser({
   isArray: (name) => name === 'omm' || name === 'segment',
 });
 
+type XmlValidatorError = { code: string; msg: string; line: number; col: number };
+
+/**
+ * The XML validator's finding in words a user reads: where (line and column), which element, what is wrong, and
+ * what was expected there. Unknown findings keep the validator's own text.
+ */
+export function xmlSyntaxError(err: XmlValidatorError): ParseError {
+  const line = Number.isInteger(err.line) && err.line >= 1 ? err.line : 1;
+  const col = Number.isInteger(err.col) && err.col >= 1 ? err.col : undefined;
+  const where = col ? `XML: line ${line}, column ${col}` : `XML: line ${line}`;
+  const msg = String(err.msg ?? '');
+  let field: string | undefined;
+  let what = msg;
+  let expected = 'well-formed XML';
+  let m: RegExpMatchArray | null;
+  if ((m = msg.match(/^Expected closing tag '(.*)' \(opened in line (\d+), col (\d+)\) instead of closing tag '(.*)'\.$/))) {
+    field = m[1];
+    what = `</${m[4]}> where </${m[1]}> was expected (<${m[1]}> opened on line ${m[2]}, column ${m[3]})`;
+    expected = `</${m[1]}>`;
+  } else if ((m = msg.match(/^Closing tag '(.*)' has not been opened\.$/))) {
+    field = m[1];
+    what = `</${m[1]}> closes an element that is not open`;
+    expected = `an opening <${m[1]}> before it, or no </${m[1]}>`;
+  } else if ((m = msg.match(/^Closing tag '(.*)' doesn't have proper closing\.$/))) {
+    field = m[1];
+    what = `</${m[1]}> does not end with ">"`;
+    expected = `</${m[1]}>`;
+  } else if ((m = msg.match(/^Closing tag '(.*)' can't have attributes or invalid starting\.$/))) {
+    field = m[1];
+    what = `</${m[1]}> has text inside the closing tag`;
+    expected = `</${m[1]}> alone`;
+  } else if ((m = msg.match(/^Unclosed tag '(.*)'\.$/))) {
+    field = m[1];
+    what = `<${m[1]}> is opened here but never closed`;
+    expected = `</${m[1]}> before the end of the file`;
+  } else if ((m = msg.match(/^Invalid '\[(.*)\]' found\.$/))) {
+    const names = [...m[1]!.matchAll(/"([^"]*)"/g)].map((x) => x[1]!);
+    field = names[names.length - 1];
+    what = `elements never closed: ${names.map((n) => `<${n}>`).join(', ')}`;
+    expected = `a closing tag for each, innermost first (</${names[names.length - 1] ?? ''}> first)`;
+  } else if ((m = msg.match(/^Tag '(.*)' is an invalid name\.$/))) {
+    field = m[1];
+    what = `"<${m[1]}" is not a valid element name`;
+    expected = 'an element name of letters, digits, "_", "-", "." or ":" starting with a letter or "_"';
+  } else if (msg === "Invalid space after '<'.") {
+    what = 'a "<" followed by a space';
+    expected = 'an element name right after "<", or "&lt;" for a literal "<"';
+  } else if ((m = msg.match(/^Attributes for '(.*)' have open quote\.$/))) {
+    field = m[1];
+    what = `an attribute of <${m[1]}> has no closing quote`;
+    expected = 'name="value" with both quotes';
+  } else if ((m = msg.match(/^Attribute '(.*)' (is without value|has no space in starting|is repeated|is an invalid name)\.$/))) {
+    field = m[1];
+    what = `the attribute "${m[1]}" ${m[2] === 'is without value' ? 'has no value' : m[2] === 'has no space in starting' ? 'is not separated by a space' : m[2] === 'is repeated' ? 'appears twice' : 'has an invalid name'}`;
+    expected = 'name="value", each name once, separated by spaces';
+  } else if ((m = msg.match(/^boolean attribute '(.*)' is not allowed\.$/))) {
+    field = m[1];
+    what = `the attribute "${m[1]}" has no value`;
+    expected = `${m[1]}="value"`;
+  } else if (msg === "char '&' is not expected.") {
+    what = 'an "&" that starts no entity';
+    expected = '"&amp;" for a literal "&"';
+  } else if ((m = msg.match(/^char '(.*)' is not expected\.$/))) {
+    what = `"${m[1]}" outside any element`;
+    expected = 'elements only, e.g. <ndm>…</ndm>';
+  } else if (msg === 'Extra text at the end') {
+    what = 'text after the last closing tag';
+    expected = 'nothing after the closing tag of the root element';
+  } else if (msg === 'Multiple possible root nodes found.') {
+    what = 'a second top-level element';
+    expected = 'one root element (<ndm> or <omm>) around everything';
+  } else if (msg === 'Start tag expected.') {
+    what = 'no element found';
+    expected = '<ndm><omm>… or <omm>… (CCSDS 502.0-B-2)';
+  } else if (msg === 'XML declaration allowed only at the start of the document.') {
+    what = 'an <?xml …?> declaration that is not at the very start';
+    expected = '<?xml …?> on the first line, or none';
+  }
+  const e: ParseError = { line, message: `${where}: ${what}`, expected };
+  if (col) e.columns = [col, col];
+  if (field) e.field = field;
+  return e;
+}
+
 export function parseOmmXml(text: string): Parsed {
   const out: Parsed = { records: [], errors: [] };
   const valid = XMLValidator.validate(text);
   if (valid !== true) {
-    const { line, col, msg } = valid.err;
-    const e: ParseError = { line: Number.isInteger(line) && line >= 1 ? line : 1, message: `XML: ${msg}`, expected: 'well-formed XML' };
-    if (Number.isInteger(col) && col >= 1) e.columns = [col, col];
-    out.errors.push(e);
+    out.errors.push(xmlSyntaxError(valid.err));
     return out;
   }
   let doc: Record<string, unknown>;

@@ -1,4 +1,4 @@
-import { parseCatalogNumber } from './catalog-number';
+import { isTrimWhitespace, readCatalogNumberAt } from './catalog-number';
 import { dayOfYearToMs, isLeapYear, msToIso, tleYearToFullYear } from './epoch';
 import { readAssumedDecimalExponent, readDecimal, readEccentricity, readUnsigned, tleChecksum } from './tle-fields';
 import type { Classification, ElementSet, ParseError } from './types';
@@ -45,6 +45,12 @@ function pushError(errors: ParseError[], line: number, columns: [number, number]
   errors.push({ line, columns, field, message, expected });
 }
 
+const SHAPE_OK = 0;
+/** Wrong length, a shifted field or a checksum that is not a digit: the fields cannot be read. */
+const SHAPE_BROKEN = 1;
+/** Well formed, but the stated checksum differs from the computed one (reported after the field errors). */
+const SHAPE_CHECKSUM = 2;
+
 function checkShape(
   line: string,
   lineNo: number,
@@ -52,11 +58,11 @@ function checkShape(
   spaces: readonly number[],
   verifyChecksum: boolean,
   errors: ParseError[],
-): boolean {
+): number {
   const n = line.length;
   if (n < TLE_LINE_LENGTH) {
     pushError(errors, lineNo, [1, n || 1], `line ${which}`, `line ${which} has ${n} characters`, `${TLE_LINE_LENGTH} characters`);
-    return false;
+    return SHAPE_BROKEN;
   }
   if (n > TLE_LINE_LENGTH) {
     pushError(
@@ -67,28 +73,36 @@ function checkShape(
       `unexpected text after column ${TLE_LINE_LENGTH}`,
       `${TLE_LINE_LENGTH} characters`,
     );
-    return false;
+    return SHAPE_BROKEN;
   }
-  let ok = true;
+  let status = SHAPE_OK;
   for (let k = 0; k < spaces.length; k++) {
     const col = spaces[k]!;
     if (line.charCodeAt(col - 1) !== 32) {
       pushError(errors, lineNo, [col, col], 'separator', `column ${col} is "${line[col - 1]}", fields are shifted`, 'a space');
-      ok = false;
+      status = SHAPE_BROKEN;
     }
   }
   const stated = line.charCodeAt(68) - 48;
   if (stated < 0 || stated > 9) {
     pushError(errors, lineNo, [69, 69], 'checksum', `checksum "${line[68]}" is not a digit`, 'a digit 0–9');
-    ok = false;
-  } else if (verifyChecksum) {
-    const computed = tleChecksum(line);
-    if (computed !== stated) {
-      pushError(errors, lineNo, [69, 69], 'checksum', `checksum is ${stated} but columns 1–68 give ${computed}`, String(computed));
-      ok = false;
-    }
+    status = SHAPE_BROKEN;
+  } else if (verifyChecksum && tleChecksum(line) !== stated) {
+    if (status === SHAPE_BROKEN) errors.push(checksumError(line, lineNo));
+    else status = SHAPE_CHECKSUM;
   }
-  return ok;
+  return status;
+}
+
+function checksumError(line: string, lineNo: number): ParseError {
+  const computed = tleChecksum(line);
+  return {
+    line: lineNo,
+    columns: [69, 69],
+    field: 'checksum',
+    message: `checksum is ${line[68]} but columns 1–68 give ${computed}`,
+    expected: String(computed),
+  };
 }
 
 function readAngle(l2: string, s: number, e: number, field: string, max: number, lineNo: number, errors: ParseError[]): number {
@@ -113,26 +127,42 @@ export function parseTlePair(
     clean(line2),
     opts.line1No,
     opts.line2No ?? opts.line1No + 1,
-    opts,
+    opts.name,
+    opts.sourceLine ?? opts.line1No,
     opts.verifyChecksum !== false,
     errors,
   );
   return { record, errors };
 }
 
+/**
+ * Shape first (length, separators, checksum digit); when both lines have their shape the fields are read, and a
+ * wrong checksum is reported after the field errors: a letter in a number names its field, then the checksum it
+ * breaks.
+ */
 function parsePairInto(
   l1: string,
   l2: string,
   line1No: number,
   line2No: number,
-  opts: { name?: string; sourceLine?: number },
+  name: string | undefined,
+  sourceLine: number,
   verify: boolean,
   errors: ParseError[],
 ): ElementSet | null {
   const shape1 = checkShape(l1, line1No, 1, LINE1_SPACES, verify, errors);
+  const afterLine1 = errors.length;
   const shape2 = checkShape(l2, line2No, 2, LINE2_SPACES, verify, errors);
-  if (!shape1 || !shape2) return null;
-  return readFields(l1, l2, line1No, line2No, opts, errors);
+  if (shape1 === SHAPE_BROKEN || shape2 === SHAPE_BROKEN) {
+    if (shape1 === SHAPE_CHECKSUM) errors.splice(afterLine1, 0, checksumError(l1, line1No));
+    if (shape2 === SHAPE_CHECKSUM) errors.push(checksumError(l2, line2No));
+    return null;
+  }
+  const record = readFields(l1, l2, line1No, line2No, name, sourceLine, errors);
+  if (shape1 === SHAPE_OK && shape2 === SHAPE_OK) return record;
+  if (shape1 === SHAPE_CHECKSUM) errors.push(checksumError(l1, line1No));
+  if (shape2 === SHAPE_CHECKSUM) errors.push(checksumError(l2, line2No));
+  return null;
 }
 
 function readFields(
@@ -140,37 +170,41 @@ function readFields(
   l2: string,
   line1No: number,
   line2No: number,
-  opts: { name?: string; sourceLine?: number },
+  name: string | undefined,
+  sourceLine: number,
   errors: ParseError[],
 ): ElementSet | null {
   const before = errors.length;
   let lineNo = line1No;
 
-  const catField1 = l1.slice(2, 7);
-  const catalogNumberInt = parseCatalogNumber(catField1);
+  const catalogNumberInt = readCatalogNumberAt(l1, 2);
   if (!Number.isFinite(catalogNumberInt))
     pushError(
       errors,
       lineNo,
       [3, 7],
       'catalog number',
-      `"${catField1}" is not a catalog number`,
+      `"${l1.slice(2, 7)}" is not a catalog number`,
       'five digits, or alpha-5 (letter + four digits)',
     );
-  const cls = l1[7];
+  const clsCode = l1.charCodeAt(7);
   let classification: Classification = 'U';
-  if (cls === 'C' || cls === 'S' || cls === 'U') classification = cls;
-  else if (cls !== ' ') pushError(errors, lineNo, [8, 8], 'classification', `classification "${cls}"`, 'U, C or S');
-  const designator = l1.slice(9, 17).trim();
-  for (let i = 0; i < designator.length; i++) {
-    const c = designator.charCodeAt(i);
+  if (clsCode === 67) classification = 'C';
+  else if (clsCode === 83) classification = 'S';
+  else if (clsCode !== 85 && clsCode !== 32) pushError(errors, lineNo, [8, 8], 'classification', `classification "${l1[7]}"`, 'U, C or S');
+  let dStart = 9,
+    dEnd = 17;
+  while (dStart < dEnd && isTrimWhitespace(l1.charCodeAt(dStart))) dStart++;
+  while (dEnd > dStart && isTrimWhitespace(l1.charCodeAt(dEnd - 1))) dEnd--;
+  for (let i = dStart; i < dEnd; i++) {
+    const c = l1.charCodeAt(i);
     if (!((c >= 48 && c <= 57) || (c >= 65 && c <= 90) || c === 32)) {
       pushError(
         errors,
         lineNo,
         [10, 17],
         'international designator',
-        `"${designator}" has invalid characters`,
+        `"${l1.slice(dStart, dEnd)}" has invalid characters`,
         'digits and capital letters',
       );
       break;
@@ -225,18 +259,17 @@ function readFields(
     pushError(errors, lineNo, [65, 68], 'element set number', `"${l1.slice(64, 68)}" is not a number`, 'up to four digits');
 
   lineNo = line2No;
-  const catField2 = l2.slice(2, 7);
-  const cat2 = parseCatalogNumber(catField2);
+  const cat2 = readCatalogNumberAt(l2, 2);
   if (!Number.isFinite(cat2))
-    pushError(errors, lineNo, [3, 7], 'catalog number', `"${catField2}" is not a catalog number`, 'five digits, or alpha-5');
+    pushError(errors, lineNo, [3, 7], 'catalog number', `"${l2.slice(2, 7)}" is not a catalog number`, 'five digits, or alpha-5');
   else if (Number.isFinite(catalogNumberInt) && cat2 !== catalogNumberInt)
     pushError(
       errors,
       lineNo,
       [3, 7],
       'catalog number',
-      `line 2 has catalog number "${catField2}" but line 1 has "${catField1}"`,
-      `"${catField1}"`,
+      `line 2 has catalog number "${l2.slice(2, 7)}" but line 1 has "${l1.slice(2, 7)}"`,
+      `"${l1.slice(2, 7)}"`,
     );
   const incl = readAngle(l2, 8, 16, 'inclination', 180, lineNo, errors);
   const raan = readAngle(l2, 17, 25, 'right ascension of the ascending node', 360, lineNo, errors);
@@ -269,11 +302,15 @@ function readFields(
     pushError(errors, lineNo, [64, 68], 'revolution number', `"${l2.slice(63, 68)}" is not a number`, 'up to five digits');
 
   if (errors.length > before) return null;
+  let cStart = 2,
+    cEnd = 7;
+  while (cStart < cEnd && isTrimWhitespace(l1.charCodeAt(cStart))) cStart++;
+  while (cEnd > cStart && isTrimWhitespace(l1.charCodeAt(cEnd - 1))) cEnd--;
   const record: ElementSet = {
-    catalogNumber: catField1.trim().padStart(5, '0'),
+    catalogNumber: cEnd - cStart === 5 ? l1.slice(2, 7) : l1.slice(cStart, cEnd).padStart(5, '0'),
     catalogNumberInt,
     classification,
-    internationalDesignator: designator,
+    internationalDesignator: l1.slice(dStart, dEnd),
     epoch: msToIso(epochMs),
     epochMs,
     meanMotionRevPerDay: n,
@@ -288,11 +325,11 @@ function readFields(
     ephemerisType: eph,
     elementSetNo: elset,
     revAtEpoch: rev,
-    sourceLine: opts.sourceLine ?? line1No,
+    sourceLine,
     line1: l1,
     line2: l2,
   };
-  if (opts.name !== undefined) record.name = opts.name;
+  if (name !== undefined) record.name = name;
   return record;
 }
 
@@ -325,15 +362,7 @@ export function parseTleText(text: string, opts: TleParseOptions = {}): { record
       const next = j < count ? clean(lines[j]!) : '';
       if (j < count && isTleLine(next, 50)) {
         const name = pendingName;
-        const record = parsePairInto(
-          line,
-          next,
-          i + 1,
-          j + 1,
-          { name, sourceLine: name !== undefined ? pendingNameLine : i + 1 },
-          verify,
-          errors,
-        );
+        const record = parsePairInto(line, next, i + 1, j + 1, name, name !== undefined ? pendingNameLine : i + 1, verify, errors);
         pendingName = undefined;
         if (record) records.push(record);
         i = j;

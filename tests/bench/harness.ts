@@ -6,6 +6,8 @@ export type BenchContext = {
   /** A migrated template database name to clone (`create database x template <name>`). */
   pgTemplate: string;
   log: (message: string) => void;
+  /** The cluster's durability settings as measured (e.g. "fsync=on, synchronous_commit=on, full_page_writes=on"). */
+  durability: string;
 };
 
 export type BenchResult = { ratio: number; detail: string };

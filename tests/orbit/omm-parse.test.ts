@@ -1,7 +1,7 @@
 // CCSDS OMM (502.0-B-2) in KVN, XML, JSON and CSV, checked against the same set as a TLE. Convention pinned
 // here: MEAN_MOTION_DOT is the TLE line-1 field ṅ/2 and MEAN_MOTION_DDOT the field n̈/6 (REFERENCES.md §3).
 import { describe, expect, it } from 'vitest';
-import { detectFormat, parseElementSets, type ElementSet } from '../../shared/orbit';
+import { detectFormat, parseElementSets, parseOmmXml, type ElementSet } from '../../shared/orbit';
 
 const TLE = `00005 TEST\n1 00005U 58002B   00179.78495062  .00000023  00000-0  28098-4 0  4753\n2 00005  34.2682 348.7242 1859667 331.7664  19.3264 10.82419157413667\n`;
 
@@ -205,5 +205,55 @@ describe('OMM errors name the line and the keyword', () => {
     const r = parseElementSets(KVN.replace('EPOCH = 2000-06-27T18:50:19.733568', 'EPOCH = 2000-179T18:50:19.733568'));
     expect(r.errors).toEqual([]);
     expect(r.records[0]!.epoch).toBe('2000-06-27T18:50:19.734Z');
+  });
+});
+
+describe('a broken XML file: what is wrong, where, in words', () => {
+  const lineOf = (needle: string) => XML.split('\n').findIndex((l) => l.includes(needle)) + 1;
+  const colOf = (needle: string) => XML.split('\n')[lineOf(needle) - 1]!.indexOf(needle) + 1;
+  it('a mistyped closing tag names both elements, the line and column, and where the element opened', () => {
+    const r = parseElementSets(XML.replace('</ECCENTRICITY>', '</ECCENTRICITYX>'));
+    const line = lineOf('</ECCENTRICITY>');
+    expect(r.errors).toHaveLength(1);
+    expect(r.errors[0]).toMatchObject({
+      line,
+      columns: [colOf('</ECCENTRICITY>'), colOf('</ECCENTRICITY>')],
+      field: 'ECCENTRICITY',
+      message: `XML: line ${line}, column ${colOf('</ECCENTRICITY>')}: </ECCENTRICITYX> where </ECCENTRICITY> was expected (<ECCENTRICITY> opened on line ${line}, column ${colOf('<ECCENTRICITY>')})`,
+      expected: '</ECCENTRICITY>',
+    });
+  });
+  it('an element never closed', () => {
+    const r = parseElementSets(XML.replace('</ndm>', ''));
+    expect(r.errors[0]).toMatchObject({ line: 2, field: 'ndm', expected: '</ndm> before the end of the file' });
+    expect(r.errors[0]!.message).toBe('XML: line 2, column 1: <ndm> is opened here but never closed');
+  });
+  it('a bare "&" in a value', () => {
+    const r = parseElementSets(XML.replace('<ORIGINATOR>TEST</ORIGINATOR>', '<ORIGINATOR>A & B</ORIGINATOR>'));
+    expect(r.errors[0]).toMatchObject({ line: 4, expected: '"&amp;" for a literal "&"' });
+    expect(r.errors[0]!.message).toMatch(/^XML: line 4, column \d+: an "&" that starts no entity$/);
+  });
+  it('a closing tag with no opening one names the element that is open there', () => {
+    const r = parseElementSets(XML.replace('<MEAN_ANOMALY>19.3264</MEAN_ANOMALY>', '19.3264</MEAN_ANOMALY>'));
+    const line = lineOf('<MEAN_ANOMALY>');
+    const opened = lineOf('<meanElements>');
+    expect(r.errors[0]).toMatchObject({ line, field: 'meanElements', expected: '</meanElements>' });
+    expect(r.errors[0]!.message).toMatch(
+      new RegExp(
+        `^XML: line ${line}, column \\d+: </MEAN_ANOMALY> where </meanElements> was expected \\(<meanElements> opened on line ${opened}, column 11\\)$`,
+      ),
+    );
+  });
+  it('a closing tag before any element is open', () => {
+    const r = parseOmmXml('</omm>\n');
+    expect(r.errors).toEqual([
+      {
+        line: 1,
+        columns: [1, 1],
+        field: 'omm',
+        message: 'XML: line 1, column 1: </omm> closes an element that is not open',
+        expected: 'an opening <omm> before it, or no </omm>',
+      },
+    ]);
   });
 });

@@ -76,3 +76,32 @@ describe('errors name line, columns, field and what was expected', () => {
     expect(r.errors[10]!.message).toBe('40 more errors not listed');
   });
 });
+
+describe('a letter in a numeric field is named as well as the checksum it breaks', () => {
+  // "34.2682" → "3A.2682": the letter counts 0 in the checksum (published TLE checksum rule), so the stated
+  // checksum no longer matches; the user must learn which field holds the letter, not only that the sum is off.
+  const bad = L2.slice(0, 8) + ' 3A.2682' + L2.slice(16);
+  it('reports the inclination first, then the checksum, and keeps no record', () => {
+    const r = parseElementSets(`${L1}\n${bad}\n`, { format: 'tle' });
+    expect(r.records).toHaveLength(0);
+    expect(r.errors.map((e) => [e.line, e.field, e.columns])).toEqual([
+      [2, 'inclination', [9, 16]],
+      [2, 'checksum', [69, 69]],
+    ]);
+    expect(r.errors[0]!.message).toBe('" 3A.2682" is not a number');
+    expect(r.errors[1]!.message).toBe('checksum is 7 but columns 1–68 give 3');
+  });
+  it('a letter on line 1 (B*) and a wrong checksum on line 2: fields first, then each checksum', () => {
+    const b1 = L1.slice(0, 53) + ' 2809B-4' + L1.slice(61);
+    const r = parseElementSets(`${b1}\n${L2.slice(0, 68)}0\n`, { format: 'tle' });
+    expect(r.errors.map((e) => [e.line, e.field])).toEqual([
+      [1, 'B*'],
+      [1, 'checksum'],
+      [2, 'checksum'],
+    ]);
+  });
+  it('with checksums not verified, the field error alone', () => {
+    const r = parseElementSets(`${L1}\n${bad}\n`, { format: 'tle', verifyChecksum: false });
+    expect(r.errors.map((e) => e.field)).toEqual(['inclination']);
+  });
+});
