@@ -39,6 +39,17 @@ const configSchema = z.object({
   STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
   // How long a public campaign read may be served from memory (progress is "consistent within seconds").
   CAMPAIGN_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
+  // Background jobs (server/jobs): how long a stopping worker waits for running jobs; old job rows.
+  JOBS_SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(1000).default(30_000),
+  JOB_ARCHIVE_AFTER_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(12 * 3600),
+  JOB_RETENTION_DAYS: z.coerce.number().int().min(1).default(7),
+  JOB_MAINTENANCE_INTERVAL_SECONDS: z.coerce.number().int().min(1).default(60),
+  // A previewed upload nobody imports or cancels releases its held text after this long.
+  UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
 });
 
 export type Config = z.infer<typeof configSchema>;
