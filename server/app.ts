@@ -23,12 +23,14 @@ import { createAccountRouter, createAdminRouter } from './modules/accounts/accou
 import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
 import { createFunding } from './modules/pledges/funding';
+import { createMailQueueRouter } from './modules/mail/mail.routes';
 
 export type AppDeps = {
   db: Db;
   pool: pg.Pool;
   config: Config;
-  mailer: Mailer;
+  /** Unused by the routes since every message goes through the mail queue; kept for callers that pass it. */
+  mailer?: Mailer;
   stripe: Stripe;
   logger?: Logger;
   /** Puts background work on a queue (server/jobs); workers may run in other processes. */
@@ -41,7 +43,7 @@ export type AppDeps = {
 const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook']);
 
 export function createApp(deps: AppDeps): Express {
-  const { db, pool, config, mailer } = deps;
+  const { db, pool, config } = deps;
   const logger = deps.logger ?? pino({ level: config.LOG_LEVEL });
   const app = express();
   app.disable('x-powered-by');
@@ -95,13 +97,13 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
-  const auth = createAuthService({ db, config, mailer });
+  const auth = createAuthService({ db, config });
   const pp = createPassport({ config, auth });
   app.use(pp.initialize());
   app.use(pp.session());
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
-  const funding = createFunding({ db, pool, config, mailer, stripe: deps.stripe, logger });
+  const funding = createFunding({ db, pool, config, stripe: deps.stripe, logger });
   mount(app, '/api/payments', funding.webhookRouter);
   app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
 
@@ -115,6 +117,7 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/health', createHealthRouter({ db }));
   mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
   mount(app, '/api/account', createAccountRouter({ db }));
+  mount(app, '/api/admin/mail-queue', createMailQueueRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));
   mount(app, '/api/campaigns', funding.campaignsRouter);
   mount(app, '/api/pledges', funding.pledgesRouter);
