@@ -115,7 +115,7 @@ export function createApp(deps: AppDeps): Express {
   );
 
   mount(app, '/api/health', createHealthRouter({ db }));
-  mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
+  mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken, jobs: deps.jobs }));
   mount(app, '/api/account', createAccountRouter({ db }));
   mount(app, '/api/admin/mail-queue', createMailQueueRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));

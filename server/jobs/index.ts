@@ -24,13 +24,14 @@ import type { Db } from '../db/client';
 import type { Config } from '../config';
 import type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 import { housekeepingQueue } from './housekeeping';
+import { accountMailQueue } from './account-mail';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
 
 // Every queue the product has. Order does not matter.
-export const queues: QueueDefinition[] = [housekeepingQueue as QueueDefinition];
+export const queues: QueueDefinition[] = [housekeepingQueue as QueueDefinition, accountMailQueue as QueueDefinition];
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';
@@ -57,6 +58,8 @@ export type Jobs = JobSender & {
   work(): Promise<void>;
   /** Graceful: stop fetching, wait for running jobs (bounded), release nothing it does not own. */
   stop(): Promise<void>;
+  /** Runs the jobs waiting now in this process, one by one, until none is left (tests; a one-off script). */
+  runPending(queue?: string): Promise<number>;
   /** Background loops started by work() (e.g. the mail sender) that stop() must also wait for. */
   addLoop(loop: { stop: () => Promise<void> }): void;
 };
@@ -154,6 +157,33 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     }
   }
 
+  async function runOne(q: QueueDefinition, job: { id: string; data: unknown; retryCount?: number }) {
+    const parsed = q.schema.safeParse(job.data);
+    if (!parsed.success)
+      throw new Error(`payload refused: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+    await q.handler(parsed.data, { id: job.id, ctx, retryCount: job.retryCount ?? 0 });
+  }
+
+  async function runPending(queue?: string) {
+    let n = 0;
+    for (const q of list) {
+      if (queue && q.name !== queue) continue;
+      for (;;) {
+        const [job] = await boss.fetch<unknown>(q.name);
+        if (!job) break;
+        try {
+          await runOne(q, job);
+          await boss.complete(q.name, job.id);
+        } catch (err) {
+          await boss.fail(q.name, job.id, { message: (err as Error).message });
+          throw err;
+        }
+        n++;
+      }
+    }
+    return n;
+  }
+
   async function stop() {
     const timeout = config.JOBS_SHUTDOWN_TIMEOUT_MS;
     await Promise.all(loops.map((l) => l.stop().catch((err: unknown) => log.error({ err }, 'loop stop failed'))));
@@ -161,5 +191,5 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     await boss.stop({ graceful: true, wait: true, timeout, close: false });
   }
 
-  return { boss, send: sender.send, start, work, stop, addLoop: (l) => void loops.push(l) };
+  return { boss, send: sender.send, start, work, stop, runPending, addLoop: (l) => void loops.push(l) };
 }

@@ -31,7 +31,8 @@ async function newBacker(email: string) {
     .post('/api/auth/sign-up')
     .set('x-csrf-token', agent.csrf)
     .send({ email, password: 'a long enough password', displayName: 'Petrel Tester' })
-    .expect(201);
+    .expect(202);
+  await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email, password: 'a long enough password' }).expect(200);
   await agent.token();
   return agent;
 }

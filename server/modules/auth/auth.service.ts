@@ -71,22 +71,52 @@ export function createAuthService({ db, config }: { db: Db; config: Config }) {
 
   return {
     repo,
-    async signUp(input: SignUpInput) {
+    /**
+     * Creates the account and queues its verification mail; for an address that already has an account, queues
+     * a "someone tried to sign up with your address" notice to its owner instead (at most one an hour). The caller
+     * answers the same either way, so sign-up does not tell anyone which addresses have accounts.
+     */
+    async signUp(input: SignUpInput): Promise<{ created: boolean }> {
+      // Hashed in both cases, so both take the same time.
       const passwordHash = await hash(input.password, ARGON2);
-      const account = await db.transaction(async (tx) => {
-        const row = await repo.create(tx, { email: input.email, displayName: input.displayName });
-        await tx.insert(identities).values({ accountId: row.id, provider: 'password', passwordHash });
-        await recordAudit(tx, {
-          actorId: row.id,
-          action: 'account.created',
-          subjectType: 'account',
-          subjectId: row.id,
-          after: { email: row.email, via: 'password' },
+      const existing = await repo.findByEmail(input.email);
+      if (!existing) {
+        try {
+          await db.transaction(async (tx) => {
+            const row = await repo.create(tx, { email: input.email, displayName: input.displayName });
+            await tx.insert(identities).values({ accountId: row.id, provider: 'password', passwordHash });
+            await recordAudit(tx, {
+              actorId: row.id,
+              action: 'account.created',
+              subjectType: 'account',
+              subjectId: row.id,
+              after: { email: row.email, via: 'password' },
+            });
+            await sendVerification(row, tx);
+          });
+          return { created: true };
+        } catch (err) {
+          // A concurrent sign-up took the address: answer as for a known one.
+          if (!(err instanceof AppError && err.code === 'auth.email_taken')) throw err;
+        }
+      }
+      const owner = existing ?? (await repo.findByEmail(input.email));
+      if (owner) {
+        const hour = new Date().toISOString().slice(0, 13);
+        await queueMail(db, {
+          template: 'sign-up-attempt',
+          to: owner.email,
+          category: 'transactional',
+          accountId: owner.id,
+          idempotencyKey: `sign-up-attempt/${owner.id}/${hour}`,
+          data: {
+            displayName: owner.displayName,
+            signInUrl: `${config.PUBLIC_URL}/sign-in`,
+            resetUrl: `${config.PUBLIC_URL}/forgot-password`,
+          },
         });
-        await sendVerification(row, tx);
-        return row;
-      });
-      return account;
+      }
+      return { created: false };
     },
 
     async verifyPassword(email: string, password: string) {
@@ -177,6 +207,17 @@ export function createAuthService({ db, config }: { db: Db; config: Config }) {
           .set({ emailVerifiedAt: new Date() })
           .where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
         await recordAudit(tx, { actorId: row.accountId, action: 'password.reset', subjectType: 'account', subjectId: row.accountId });
+        const account = await repo.findById(row.accountId, tx);
+        if (account) {
+          await queueMail(tx, {
+            template: 'password-changed',
+            to: account.email,
+            category: 'transactional',
+            accountId: account.id,
+            idempotencyKey: `password-changed/${row.id}`,
+            data: { displayName: account.displayName, changedAt: new Date(), resetUrl: `${config.PUBLIC_URL}/forgot-password` },
+          });
+        }
       });
     },
   };
