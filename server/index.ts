@@ -3,6 +3,7 @@ import { loadConfig, ConfigError } from './config';
 import { createDb } from './db/client';
 import { createApp, defaultClientDir } from './app';
 import { createMailerFromConfig, createStripeFromConfig } from './deps';
+import { createJobs } from './jobs';
 
 let config;
 try {
@@ -21,6 +22,9 @@ const { db, pool } = createDb(config.DATABASE_URL, {
   connectTimeoutMs: config.DATABASE_CONNECT_TIMEOUT_MS,
   statementTimeoutMs: config.DATABASE_STATEMENT_TIMEOUT_MS,
 });
+// The web process only enqueues; workers run in their own processes (server/worker.ts).
+const jobs = createJobs({ pool, db, config, logger });
+await jobs.start();
 const app = createApp({
   db,
   pool,
@@ -28,11 +32,13 @@ const app = createApp({
   logger,
   mailer: createMailerFromConfig(config),
   stripe: createStripeFromConfig(config),
+  jobs,
   clientDir: defaultClientDir,
 });
 
 const server = app.listen(config.PORT, config.HOST, () => {
   logger.info(`Lightkeel listening on http://${config.HOST}:${config.PORT}`);
+  process.send?.({ ready: 'web' });
 });
 
 let closing = false;
@@ -41,7 +47,10 @@ function shutdown(signal: string) {
   closing = true;
   logger.info({ signal }, 'shutting down');
   server.close(() => {
-    pool.end().finally(() => process.exit(0));
+    jobs
+      .stop()
+      .catch(() => undefined)
+      .finally(() => pool.end().finally(() => process.exit(0)));
   });
   setTimeout(() => process.exit(0), 5000).unref();
 }

@@ -32,7 +32,11 @@ export const emailDataSchemas = {
     amountMinor,
     currency,
     receiptUrl: link,
+    /** A monthly crew membership: the confirmation says it renews, when, and how to stop it. */
+    renewsMonthly: z.object({ nextRenewalAt: z.union([z.date(), z.iso.datetime({ offset: true })]), manageUrl: link }).optional(),
   }),
+  'sign-up-attempt': z.object({ displayName: text, signInUrl: link, resetUrl: link }),
+  'password-changed': z.object({ displayName: text, changedAt: z.union([z.date(), z.iso.datetime({ offset: true })]), resetUrl: link }),
   'renewal-failed': z.object({
     displayName: text,
     campaignTitle: text,
@@ -80,6 +84,37 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
     ],
     reason: 'You get this e-mail because a password reset was requested for the Lightkeel account with this address.',
   }),
+  'sign-up-attempt': (d) => ({
+    subject: 'Someone tried to sign up to Lightkeel with your address',
+    preview: 'You already have an account; nothing was changed.',
+    heading: `Hello ${d.displayName}`,
+    blocks: [
+      {
+        kind: 'paragraph',
+        text: 'Someone just tried to create a Lightkeel account with this e-mail address. You already have an account, so nothing was created and nothing about your account changed.',
+      },
+      { kind: 'button', label: 'Sign in', url: d.signInUrl },
+      {
+        kind: 'note',
+        text: `If it was you, sign in instead; if you forgot your password, choose a new one at ${d.resetUrl}. If it was not you, you can ignore this message.`,
+      },
+    ],
+    reason: 'You get this e-mail because a sign-up was attempted with the address of your Lightkeel account.',
+  }),
+  'password-changed': (d) => ({
+    subject: 'Your Lightkeel password was changed',
+    preview: `Changed on ${formatWhen(d.changedAt)}.`,
+    heading: `Hello ${d.displayName}`,
+    blocks: [
+      { kind: 'paragraph', text: `The password of your Lightkeel account was changed on ${formatWhen(d.changedAt)}.` },
+      {
+        kind: 'note',
+        text: 'If you made this change, there is nothing more to do. If you did not, choose a new password now with the button below, and tell us.',
+      },
+      { kind: 'button', label: 'Choose a new password', url: d.resetUrl },
+    ],
+    reason: 'You get this e-mail because the password of the Lightkeel account with this address was changed.',
+  }),
   'pledge-confirmation': (d) => {
     const amount = formatMoney(d.amountMinor, d.currency.toUpperCase());
     return {
@@ -96,6 +131,15 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
             { label: 'Amount', value: amount },
           ],
         },
+        ...(d.renewsMonthly
+          ? [
+              {
+                kind: 'paragraph' as const,
+                text: `This is a monthly crew membership: ${amount} renews every month. The next renewal is on ${formatWhen(d.renewsMonthly.nextRenewalAt)}. You can stop it at any time from your membership page; stop it before that date and it is not renewed.`,
+              },
+              { kind: 'button' as const, label: 'Manage or stop my membership', url: d.renewsMonthly.manageUrl },
+            ]
+          : []),
         { kind: 'button', label: 'View your receipt', url: d.receiptUrl },
         {
           kind: 'note',

@@ -24,11 +24,17 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     updateCardUrl: 'http://127.0.0.1:3000/my-support/card',
     nextAttemptAt: '2031-03-04T10:15:00Z',
   },
+  'sign-up-attempt': {
+    displayName: hostile,
+    signInUrl: 'http://127.0.0.1:3000/sign-in',
+    resetUrl: 'http://127.0.0.1:3000/forgot-password',
+  },
+  'password-changed': { displayName: hostile, changedAt: '2031-05-06T07:08:00Z', resetUrl: 'http://127.0.0.1:3000/forgot-password' },
 };
 
 function urlOf(name: EmailName): string {
   const d = samples[name] as Record<string, unknown>;
-  return String(d.verifyUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl);
+  return String(d.verifyUrl ?? d.signInUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl);
 }
 
 describe('e-mail templates', () => {
@@ -86,6 +92,30 @@ describe('e-mail templates', () => {
 
     const noTier = await renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], tierTitle: undefined });
     expect(noTier.text).not.toContain('Tier:');
+  });
+
+  it('says a monthly pledge renews monthly, on which date, and how to stop it', async () => {
+    const r = await renderEmail('pledge-confirmation', {
+      ...samples['pledge-confirmation'],
+      renewsMonthly: { nextRenewalAt: '2031-04-01T00:00:00Z', manageUrl: 'http://127.0.0.1:3000/my-support/memberships/m1' },
+    });
+    for (const part of [r.text.replace(/\s+/g, ' '), r.html]) {
+      expect(part).toContain('renews every month');
+      expect(part).toContain('1 April 2031');
+      expect(part).toMatch(/stop it at any time/);
+    }
+    expect(r.html).toContain('href="http://127.0.0.1:3000/my-support/memberships/m1"');
+    const once = await renderEmail('pledge-confirmation', samples['pledge-confirmation']);
+    expect(once.text).not.toContain('renews');
+  });
+
+  it('tells the owner of an address that someone tried to sign up with it, and when a password changed', async () => {
+    const attempt = await renderEmail('sign-up-attempt', samples['sign-up-attempt']);
+    expect(attempt.subject).toMatch(/tried to sign up/);
+    expect(attempt.text).toMatch(/nothing was created/);
+    const changed = await renderEmail('password-changed', samples['password-changed']);
+    expect(changed.text.replace(/\s+/g, ' ')).toContain('6 May 2031 at 07:08 UTC');
+    expect(changed.html).toContain('href="http://127.0.0.1:3000/forgot-password"');
   });
 
   it('mentions the reset link lifetime in both parts', async () => {

@@ -175,7 +175,7 @@ describe('mail fake driven through the resend SDK', () => {
       headers: { 'content-type': 'application/json' },
       body: JSON.stringify({ rateLimitNext: 1, failNext: 2 }),
     });
-    expect(await set.json()).toEqual({ rateLimitNext: 1, failNext: 2 });
+    expect(await set.json()).toEqual({ rateLimitNext: 1, failNext: 2, delayMs: 0, retryAfterSeconds: 1 });
 
     const limited = await resend.emails.send(msg);
     expect(limited.error).toMatchObject({ name: 'rate_limit_exceeded', statusCode: 429 });
@@ -195,6 +195,14 @@ describe('mail fake driven through the resend SDK', () => {
       body: JSON.stringify({ failNext: -1 }),
     });
     expect(badFault.status).toBe(400);
+
+    // A slow service: every request waits delayMs; and a longer Retry-After on the next 429.
+    fake.faults.set({ delayMs: 300, rateLimitNext: 1, retryAfterSeconds: 30 });
+    const started = Date.now();
+    const slow = await resend.emails.send(msg);
+    expect(Date.now() - started).toBeGreaterThanOrEqual(295);
+    expect(slow.headers?.['retry-after']).toBe('30');
+    fake.faults.set({ delayMs: 0, retryAfterSeconds: 1 });
   });
 
   it('honours Idempotency-Key: same payload replays the first id, other payload is a conflict', async () => {

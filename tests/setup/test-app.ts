@@ -5,12 +5,18 @@ import { createApp } from '../../server/app';
 import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
 import { createTestDatabase, type TestDatabase } from './test-db';
 import { createMailFake } from '../../fakes/mail/server';
+import { createMailSender, mailSenderOptionsFrom } from '../../server/jobs/mail-sender';
+import pino from 'pino';
+import { createJobs, type Jobs } from '../../server/jobs';
 
 export type TestApp = {
   app: Express;
   config: Config;
   database: TestDatabase;
   mail: Awaited<ReturnType<typeof createMailFake>>;
+  jobs: Jobs;
+  /** Runs the waiting jobs, then sends what the mail queue holds now (what a worker does), through the SDK to the mail fake. */
+  flushMail: () => Promise<number>;
   /** Builds another app instance on the same database (e.g. to test a restart). */
   rebuild: () => Express;
   close: () => Promise<void>;
@@ -29,8 +35,12 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
     SESSION_SECRET: 'test-session-secret-0123456789',
     ...env,
   });
+  // The app enqueues through pg-boss on the test database; tests run the waiting jobs with flushMail/runJobs.
+  const jobs = createJobs({ pool: database.pool, db: database.db, config, logger: pino({ level: 'silent' }) });
+  await jobs.start();
   const build = () =>
     createApp({
+      jobs,
       db: database.db,
       pool: database.pool,
       config,
@@ -38,13 +48,20 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
       stripe: createStripeFromConfig(config),
     });
   const app = build();
+  const sender = createMailSender(database.pool, mailSenderOptionsFrom({ config, deps: {} }), pino({ level: 'silent' }));
   return {
     app,
     config,
     database,
     mail,
+    jobs,
+    flushMail: async () => {
+      await jobs.runPending();
+      return sender.drain();
+    },
     rebuild: build,
     close: async () => {
+      await jobs.stop();
       if (!opts.keepMail) await mail.close();
       await database.drop();
     },

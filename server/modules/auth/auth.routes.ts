@@ -1,3 +1,4 @@
+import type { JobSender } from '../../jobs/queue';
 import { Router, type Request, type Response, type NextFunction } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
@@ -30,6 +31,12 @@ function tooMany(message: string) {
   };
 }
 
+/** POST /sign-up's one answer, for a new address and a known one alike. */
+export const SIGN_UP_ANSWER = {
+  status: 'check-your-inbox',
+  message: 'If this address can be used, we have sent a message to it. Follow the link in it to confirm your address.',
+} as const;
+
 /** Only same-site paths of plain text may be a return target. */
 export function safeReturnTo(value: unknown) {
   return typeof value === 'string' &&
@@ -59,12 +66,15 @@ export function createAuthRouter({
   pp,
   config,
   generateCsrfToken,
+  jobs,
 }: {
   db: Db;
   auth: AuthService;
   pp: Authenticator;
   config: Config;
   generateCsrfToken: (req: Request, overwrite?: boolean) => string;
+  /** Enqueues the password-reset lookup; without it (a bare test app) the lookup runs in the request. */
+  jobs?: JobSender;
 }) {
   const router = Router();
   const windowMs = config.SIGN_IN_WINDOW_SECONDS * 1000;
@@ -121,11 +131,11 @@ export function createAuthRouter({
   router.post(
     '/sign-up',
     signUpLimit,
-    validated({ body: signUpSchema }, async (req, res, { body }) => {
-      const row = await auth.signUp(body);
-      const account = await auth.repo.view(row);
-      await new Promise<void>((resolve, reject) => req.logIn(account, (err) => (err ? reject(err) : resolve())));
-      res.status(201).json({ account });
+    validated({ body: signUpSchema }, async (_req, res, { body }) => {
+      // The same answer for a new address and for one that has an account (its owner gets a notice by mail):
+      // sign-up must not tell which addresses have accounts. The client signs in next with the same password.
+      await auth.signUp(body);
+      res.status(202).json(SIGN_UP_ANSWER);
     }),
   );
 
@@ -202,8 +212,10 @@ export function createAuthRouter({
     '/request-password-reset',
     resetRequestLimit,
     validated({ body: requestPasswordResetSchema }, async (req, res, { body }) => {
-      // Same answer whether or not the account exists.
-      await auth.requestPasswordReset(body.email).catch((err) => req.log?.warn({ err }, 'password reset mail failed'));
+      // Same answer, in the same time, whether or not the account exists: the route only enqueues (one insert
+      // either way); the account-mail job looks the address up and queues the message after we answered.
+      if (jobs) await jobs.send('account-mail', { kind: 'password-reset', email: body.email });
+      else await auth.requestPasswordReset(body.email).catch((err) => req.log?.warn({ err }, 'password reset mail failed'));
       res.status(202).json({ status: 'sent' });
     }),
   );

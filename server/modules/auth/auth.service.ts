@@ -3,7 +3,7 @@ import { and, eq, gt, isNull } from 'drizzle-orm';
 import { hash, verify, type Algorithm } from '@node-rs/argon2';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
-import type { Mailer } from '../../lib/mailer';
+import { queueMail, type DbOrTx } from '../mail/mail-queue';
 import { accounts, authTokens, identities } from '../accounts/accounts.tables';
 import { createAccountsRepository } from '../accounts/accounts.repository';
 import { recordAudit } from '../audit/audit.repository';
@@ -20,15 +20,18 @@ export const invalidCredentials = () => new AppError(401, 'auth.invalid_credenti
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
-export function createAuthService({ db, config, mailer }: { db: Db; config: Config; mailer: Mailer }) {
+export function createAuthService({ db, config }: { db: Db; config: Config }) {
   const repo = createAccountsRepository({ db });
   // Verifying against a real hash when the e-mail is unknown keeps the answer time the same.
   const dummyHash = hash('not-a-real-password-lightkeel', ARGON2);
 
-  async function issueToken(accountId: string, purpose: 'verify-email' | 'reset-password', ttlMs: number) {
+  async function issueToken(tx: DbOrTx, accountId: string, purpose: 'verify-email' | 'reset-password', ttlMs: number) {
     const token = randomBytes(32).toString('base64url');
-    await db.insert(authTokens).values({ accountId, purpose, tokenHash: sha256(token), expiresAt: new Date(Date.now() + ttlMs) });
-    return token;
+    const [row] = await tx
+      .insert(authTokens)
+      .values({ accountId, purpose, tokenHash: sha256(token), expiresAt: new Date(Date.now() + ttlMs) })
+      .returning({ id: authTokens.id });
+    return { token, tokenId: row!.id };
   }
 
   async function consumeToken(token: string, purpose: string) {
@@ -50,32 +53,71 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
     });
   }
 
-  async function sendVerification(account: { id: string; email: string; displayName: string }) {
-    const token = await issueToken(account.id, 'verify-email', VERIFY_HOURS * 3600_000);
-    await mailer.send('verify-email', account.email, {
-      displayName: account.displayName,
-      verifyUrl: `${config.PUBLIC_URL}/verify-email?token=${token}`,
-    });
+  /** Issues a verification token and queues its mail, both in `tx` (or a transaction of their own). */
+  async function sendVerification(account: { id: string; email: string; displayName: string }, tx?: DbOrTx) {
+    const run = async (t: DbOrTx) => {
+      const { token, tokenId } = await issueToken(t, account.id, 'verify-email', VERIFY_HOURS * 3600_000);
+      await queueMail(t, {
+        template: 'verify-email',
+        to: account.email,
+        category: 'transactional',
+        accountId: account.id,
+        idempotencyKey: `verify-email/${tokenId}`,
+        data: { displayName: account.displayName, verifyUrl: `${config.PUBLIC_URL}/verify-email?token=${token}` },
+      });
+    };
+    if (tx) await run(tx);
+    else await db.transaction(run);
   }
 
   return {
     repo,
-    async signUp(input: SignUpInput) {
+    /**
+     * Creates the account and queues its verification mail; for an address that already has an account, queues
+     * a "someone tried to sign up with your address" notice to its owner instead (at most one an hour). The caller
+     * answers the same either way, so sign-up does not tell anyone which addresses have accounts.
+     */
+    async signUp(input: SignUpInput): Promise<{ created: boolean }> {
+      // Hashed in both cases, so both take the same time.
       const passwordHash = await hash(input.password, ARGON2);
-      const account = await db.transaction(async (tx) => {
-        const row = await repo.create(tx, { email: input.email, displayName: input.displayName });
-        await tx.insert(identities).values({ accountId: row.id, provider: 'password', passwordHash });
-        await recordAudit(tx, {
-          actorId: row.id,
-          action: 'account.created',
-          subjectType: 'account',
-          subjectId: row.id,
-          after: { email: row.email, via: 'password' },
+      const existing = await repo.findByEmail(input.email);
+      if (!existing) {
+        try {
+          await db.transaction(async (tx) => {
+            const row = await repo.create(tx, { email: input.email, displayName: input.displayName });
+            await tx.insert(identities).values({ accountId: row.id, provider: 'password', passwordHash });
+            await recordAudit(tx, {
+              actorId: row.id,
+              action: 'account.created',
+              subjectType: 'account',
+              subjectId: row.id,
+              after: { email: row.email, via: 'password' },
+            });
+            await sendVerification(row, tx);
+          });
+          return { created: true };
+        } catch (err) {
+          // A concurrent sign-up took the address: answer as for a known one.
+          if (!(err instanceof AppError && err.code === 'auth.email_taken')) throw err;
+        }
+      }
+      const owner = existing ?? (await repo.findByEmail(input.email));
+      if (owner) {
+        const hour = new Date().toISOString().slice(0, 13);
+        await queueMail(db, {
+          template: 'sign-up-attempt',
+          to: owner.email,
+          category: 'transactional',
+          accountId: owner.id,
+          idempotencyKey: `sign-up-attempt/${owner.id}/${hour}`,
+          data: {
+            displayName: owner.displayName,
+            signInUrl: `${config.PUBLIC_URL}/sign-in`,
+            resetUrl: `${config.PUBLIC_URL}/forgot-password`,
+          },
         });
-        return row;
-      });
-      await sendVerification(account).catch(() => undefined); // the account stands; the mail can be re-sent
-      return account;
+      }
+      return { created: false };
     },
 
     async verifyPassword(email: string, password: string) {
@@ -136,11 +178,20 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
     async requestPasswordReset(email: string) {
       const account = await repo.findByEmail(email);
       if (!account) return;
-      const token = await issueToken(account.id, 'reset-password', RESET_MINUTES * 60_000);
-      await mailer.send('password-reset', account.email, {
-        displayName: account.displayName,
-        resetUrl: `${config.PUBLIC_URL}/reset-password?token=${token}`,
-        expiresInMinutes: RESET_MINUTES,
+      await db.transaction(async (tx) => {
+        const { token, tokenId } = await issueToken(tx, account.id, 'reset-password', RESET_MINUTES * 60_000);
+        await queueMail(tx, {
+          template: 'password-reset',
+          to: account.email,
+          category: 'transactional',
+          accountId: account.id,
+          idempotencyKey: `password-reset/${tokenId}`,
+          data: {
+            displayName: account.displayName,
+            resetUrl: `${config.PUBLIC_URL}/reset-password?token=${token}`,
+            expiresInMinutes: RESET_MINUTES,
+          },
+        });
       });
     },
 
@@ -159,6 +210,17 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
           .where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
         await recordAudit(tx, { actorId: row.accountId, action: 'password.reset', subjectType: 'account', subjectId: row.accountId });
         await endOtherSessions(tx, { accountId: row.accountId, keepSessionId });
+        const account = await repo.findById(row.accountId, tx);
+        if (account) {
+          await queueMail(tx, {
+            template: 'password-changed',
+            to: account.email,
+            category: 'transactional',
+            accountId: account.id,
+            idempotencyKey: `password-changed/${row.id}`,
+            data: { displayName: account.displayName, changedAt: new Date(), resetUrl: `${config.PUBLIC_URL}/forgot-password` },
+          });
+        }
       });
     },
   };

@@ -70,9 +70,10 @@ export const consoleSections: ConsoleSection[] = [
     path: 'people',
     title: 'People',
     roles: ['admin'],
-    summary: 'Accounts, their roles, and the audit log of every change.',
-    duties: ['Find accounts, grant and revoke roles, and read the audit log.'],
+    summary: 'Accounts, their roles, the audit log of every change, and the mail queue.',
+    duties: ['Find accounts, grant and revoke roles, and read the audit log.', 'Watch the mail queue: waiting, sent and failed messages.'],
     lazy: () => import('@/app/routes/console/people'),
+    children: [{ path: 'mail-queue', lazy: () => import('@/app/routes/console/people-mail-queue') }],
   },
 ];
 

@@ -1,5 +1,6 @@
 import { useDeferredValue, useMemo, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
+import { Link } from 'react-router-dom';
 import { Alert } from '@/components/ui/alert';
 import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -30,6 +31,12 @@ export function Component() {
         title="People"
         description="Every account and the roles it holds. Each grant and revoke is written to the audit log."
       />
+      <p className="mb-4 text-sm">
+        <Link to="/console/people/mail-queue" className="underline">
+          Mail queue
+        </Link>{' '}
+        — every message the product sends, and what the mail service answered.
+      </p>
       <div className="space-y-6">
         <Card>
           <form role="search" onSubmit={(event) => event.preventDefault()} className="mb-5 max-w-md">

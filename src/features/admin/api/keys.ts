@@ -6,6 +6,8 @@ export const adminKeys = {
   accountList: (q: string) => [...adminKeys.accounts(), { q }] as const,
   audit: () => [...adminKeys.all, 'audit'] as const,
   auditList: (limit: number) => [...adminKeys.audit(), { limit }] as const,
+  mailQueue: () => [...adminKeys.all, 'mail-queue'] as const,
+  mailQueueList: (filter: { state?: string; page: number }) => [...adminKeys.mailQueue(), filter] as const,
 };
 
 /** A role change shows in the account list and adds an audit entry. */

@@ -13,6 +13,7 @@ type Values = z.input<typeof signUpSchema>;
 
 export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) => void }) {
   const [formError, setFormError] = useState<string | null>(null);
+  const [notice, setNotice] = useState<string | null>(null);
   const form = useForm<Values, unknown, z.output<typeof signUpSchema>>({
     resolver: zodResolver(signUpSchema),
     defaultValues: { displayName: '', email: '', password: '' },
@@ -22,8 +23,10 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) 
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
+    setNotice(null);
     try {
-      await signUp.mutateAsync(values);
+      const result = await signUp.mutateAsync(values);
+      if (!result.account) setNotice(result.message);
     } catch (error) {
       setFormError(
         applyApiError(error, form.setError, {
@@ -37,7 +40,15 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) 
   return (
     <AuthForm
       onSubmit={onSubmit}
-      problem={formError && <Alert title="Could not create the account">{formError}</Alert>}
+      problem={
+        formError ? (
+          <Alert title="Could not create the account">{formError}</Alert>
+        ) : notice ? (
+          <Alert tone="info" title="Check your inbox">
+            {notice}
+          </Alert>
+        ) : null
+      }
       submitLabel="Create account"
       pending={signUp.isPending}
     >
