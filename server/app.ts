@@ -21,7 +21,7 @@ import { createAuthRouter } from './modules/auth/auth.routes';
 import { createAccountRouter, createAdminRouter } from './modules/accounts/accounts.routes';
 import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
-import { createFunding } from './modules/pledges/funding';
+import { createFunding } from './composition/funding';
 
 export type AppDeps = {
   db: Db;
