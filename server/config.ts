@@ -39,6 +39,8 @@ const configSchema = z.object({
   STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
   // How long a public campaign read may be served from memory (progress is "consistent within seconds").
   CAMPAIGN_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
+  /** How long a repeated pledge submit waits for the first one to open the checkout before answering 202. */
+  PLEDGE_CHECKOUT_WAIT_MS: z.coerce.number().int().min(0).max(120_000).default(15_000),
 });
 
 export type Config = z.infer<typeof configSchema>;
