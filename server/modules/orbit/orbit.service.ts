@@ -2,7 +2,7 @@ import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
-import { recordAudit } from '../audit/audit.repository';
+import { recordAudit, recordChange } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { median } from '../../../shared/orbit/robust-stats';
@@ -444,7 +444,7 @@ export function createOrbitService({ db }: { db: Db }) {
           .where(eq(sailingPeriods.id, id))
           .returning();
         const view = sailingPeriodView(row!);
-        await recordAudit(tx, {
+        await recordChange(tx, {
           actorId,
           action: 'sailing_period.updated',
           subjectType: 'sailing_period',
