@@ -23,7 +23,7 @@ import { createAuthRouter } from './modules/auth/auth.routes';
 import { createAccountRouter, createAdminRouter } from './modules/accounts/accounts.routes';
 import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
-import { createFunding } from './modules/pledges/funding';
+import { createFunding } from './composition/funding';
 import { createOpenDataRouter } from './modules/open-data/open-data.routes';
 import { createMailQueueRouter } from './modules/mail/mail.routes';
 

@@ -69,6 +69,8 @@ const configSchema = z.object({
   MAIL_QUEUE_KEEP_DAYS: z.coerce.number().int().min(1).default(90),
   // A previewed upload nobody imports or cancels releases its held text after this long.
   UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
+  /** How long a repeated pledge submit waits for the first one to open the checkout before answering 202. */
+  PLEDGE_CHECKOUT_WAIT_MS: z.coerce.number().int().min(0).max(120_000).default(15_000),
 });
 
 export type Config = z.infer<typeof configSchema>;

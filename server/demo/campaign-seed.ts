@@ -32,6 +32,7 @@ function mulberry32(seed: number) {
 /** 2.9 % + 30¢, the processor's published US card price (REFERENCES.md §7), rounded half up. */
 const feeMinor = (amountMinor: number) => Math.floor((amountMinor * 290 + 5000) / 10000) + 30;
 
+// Invented people and places only (Gullwhistle, Wrackholm): no real town, school or club.
 const names = [
   'Marisol K.',
   'The Hallam family',
@@ -45,7 +46,7 @@ const names = [
   null,
   'Rosalind P.',
   'Benedek',
-  'Class 6B, Harbour Road School',
+  'Class 6B, Gullwhistle School',
   null,
   'Yusuf A.',
   'Fen',
@@ -56,7 +57,7 @@ const names = [
   'Ossian',
   null,
   'Harriet W.',
-  'Dunmore amateur radio club',
+  'Wrackholm amateur radio club',
 ];
 const laterNames = [
   'Saoirse',

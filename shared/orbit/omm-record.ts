@@ -10,7 +10,7 @@ export type OmmFields = Record<string, OmmValue>;
 
 const SGP4_THEORIES = new Set(['SGP4', 'SGP', 'SDP4', 'SGP/SGP4', 'SGP4/SDP4']);
 
-/** "1958-002B" → "58002B" (the TLE form); a value already in TLE form is kept. */
+/** "2025-951C" → "25951C" (the TLE form); a value already in TLE form is kept. */
 export function objectIdToDesignator(objectId: string): string | null {
   const s = objectId.trim().toUpperCase();
   if (s === '' || s === 'UNKNOWN') return '';
@@ -110,7 +110,7 @@ export function ommFieldsToElementSet(
   const objectId = asText(fields.OBJECT_ID);
   if (objectId !== undefined) {
     const d = objectIdToDesignator(objectId);
-    if (d === null) err('OBJECT_ID', `OBJECT_ID "${objectId}" is not an international designator`, 'YYYY-NNNP such as 1958-002B');
+    if (d === null) err('OBJECT_ID', `OBJECT_ID "${objectId}" is not an international designator`, 'YYYY-NNNP such as 2025-951C');
     else designator = d;
   }
   const name = asText(fields.OBJECT_NAME);

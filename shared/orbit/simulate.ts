@@ -203,12 +203,20 @@ export function simulateHistory(o: SimulationOptions): SimulatedHistory {
   return { sets, periods, truth };
 }
 
+/**
+ * Demo and test objects take catalog numbers 99000–99999 only: a fictional range, far above any number
+ * catalogued so far (REFERENCES.md §2: five digits, alpha-5 beyond 99999).
+ */
+export const FICTIONAL_CATALOG_NUMBERS = { min: 99_000, max: 99_999 } as const;
+
 /** The fictional Tern-1: 4.8 kg, 24 m² sail, sun-synchronous near 780 km. */
 export const TERN1 = {
   name: 'TERN-1',
   catalogNumber: '99871',
   catalogNumberInt: 99871,
-  internationalDesignator: '25061C',
+  // Fictional: launch 951 of 2025 (columns 10–17, YYNNNP); no year has had anywhere near 951 launches,
+  // so no real object can carry it.
+  internationalDesignator: '25951C',
   craft: { massKg: 4.8, sailAreaM2: 24, reflectivity: 0.9, dragCoefficient: 2.2, dragAreaEdgeOnM2: 0.12 },
   startAltitudeKm: 780,
   // Sun-synchronous at ~780 km: cos i = −(ρ̇ · a^3.5) / (1.5 · J2 · R² · √μ) gives about 98.5° (common practice, from memory).

@@ -24,7 +24,7 @@ export type ElementSet = {
   catalogNumber: string;
   catalogNumberInt: number;
   classification: Classification;
-  /** e.g. "58002B" (TLE) — OMM OBJECT_ID "1958-002B" is converted to this form; may be "". */
+  /** e.g. "25951C" (TLE) — OMM OBJECT_ID "2025-951C" is converted to this form; may be "". */
   internationalDesignator: string;
   /** ISO 8601 UTC, millisecond precision. */
   epoch: string;

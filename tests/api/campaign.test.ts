@@ -275,3 +275,76 @@ describe('the ledger', () => {
     await outreach.get('/api/ledger').expect(403);
   });
 });
+
+describe('the audit log of campaign desk edits', () => {
+  const entriesOf = (subjectId: string) =>
+    t.database.db.select().from(auditLog).where(eq(auditLog.subjectId, subjectId)).orderBy(auditLog.id);
+  const current = async () => (await outreach.get('/api/campaigns/tern-1?all=1').expect(200)).body.campaign;
+
+  it('records exactly the changed fields, writes nothing for a save without change, and keeps times to the second', async () => {
+    // Open and close times with seconds, as a seed or an import may set them.
+    const startsAt = new Date('2026-01-05T09:15:42.000Z');
+    const endsAt = new Date('2027-02-01T18:00:07.000Z');
+    await t.database.db.execute(sql`update campaigns set starts_at = ${startsAt}, ends_at = ${endsAt} where id = ${world.campaign.id}`);
+    const c = await current();
+    const body = {
+      title: c.title,
+      summary: c.summary,
+      story: c.story,
+      goalMinor: c.goalMinor,
+      currency: c.currency,
+      startsAt: c.startsAt,
+      endsAt: c.endsAt,
+    };
+    const before = (await entriesOf(world.campaign.id)).length;
+
+    await outreach.patch('/api/campaigns/tern-1').set('x-csrf-token', outreach.csrf).send(body).expect(200);
+    expect(await entriesOf(world.campaign.id)).toHaveLength(before);
+
+    const res = await outreach
+      .patch('/api/campaigns/tern-1')
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...body, story: 'The story, told again.' })
+      .expect(200);
+    expect(res.body.campaign).toMatchObject({ startsAt: startsAt.toISOString(), endsAt: endsAt.toISOString() });
+    const entries = await entriesOf(world.campaign.id);
+    expect(entries).toHaveLength(before + 1);
+    expect(entries.at(-1)).toMatchObject({
+      action: 'campaign.updated',
+      before: { story: c.story },
+      after: { story: 'The story, told again.' },
+    });
+  });
+
+  it('lists only the tier fields that changed, never ids or counts', async () => {
+    const tier = {
+      title: 'Dish visit',
+      description: 'See the dish.',
+      minAmountMinor: 40_000,
+      kind: 'one-time',
+      quantityLimit: 5,
+      estimatedDelivery: '2027-09-01',
+      position: 6,
+    };
+    const created = await outreach.post('/api/campaigns/tern-1/tiers').set('x-csrf-token', outreach.csrf).send(tier).expect(201);
+    const id = created.body.tier.id as string;
+    await outreach
+      .patch(`/api/campaigns/tern-1/tiers/${id}`)
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...tier, minAmountMinor: 45_000, title: 'Dish visit and tea' })
+      .expect(200);
+    await outreach
+      .patch(`/api/campaigns/tern-1/tiers/${id}`)
+      .set('x-csrf-token', outreach.csrf)
+      .send({ ...tier, minAmountMinor: 45_000, title: 'Dish visit and tea' })
+      .expect(200);
+    const entries = await entriesOf(id);
+    expect(entries.map((e) => e.action)).toEqual(['tier.created', 'tier.updated']);
+    expect(entries[1]).toMatchObject({
+      before: { title: 'Dish visit', minAmountMinor: 40_000 },
+      after: { title: 'Dish visit and tea', minAmountMinor: 45_000 },
+    });
+    expect(Object.keys(entries[1]!.before as object).sort()).toEqual(['minAmountMinor', 'title']);
+    expect(Object.keys(entries[1]!.after as object).sort()).toEqual(['minAmountMinor', 'title']);
+  });
+});

@@ -209,3 +209,23 @@ describe('spacecraft records', () => {
     expect(dup.body.error.code).toBe('orbit.spacecraft_catalog_taken');
   });
 });
+
+describe('the audit log of snapshot edits', () => {
+  it('records only the title on a rename, and nothing for a save that changes nothing', async () => {
+    const s = await createSnapshot({ title: 'Before the rename' });
+    const entries = async () =>
+      (await t.database.pool.query('select action, before, after from audit_log where subject_id = $1 order by id', [s.id])).rows;
+    await engineer.patch(`/api/orbit/snapshots/${s.id}`).set('x-csrf-token', engineer.csrf).send({ title: 'After the rename' }).expect(200);
+    const [, renamed] = await entries();
+    expect(renamed).toEqual({ action: 'snapshot.updated', before: { title: 'Before the rename' }, after: { title: 'After the rename' } });
+    const res = await engineer.get(`/api/orbit/snapshots/${s.id}`).expect(200);
+    expect(res.body.snapshot).toMatchObject({ caption: 'Apogee up, perigee down.', isPublic: false });
+
+    await engineer
+      .patch(`/api/orbit/snapshots/${s.id}`)
+      .set('x-csrf-token', engineer.csrf)
+      .send({ title: 'After the rename', caption: 'Apogee up, perigee down.' })
+      .expect(200);
+    expect(await entries()).toHaveLength(2);
+  });
+});

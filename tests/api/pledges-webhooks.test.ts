@@ -159,38 +159,6 @@ describe('events out of order', () => {
       ['refund', -1500],
     ]);
   });
-
-  it('asks for a retry (non-2xx) when a refund of a membership charge comes before its invoice, then applies it', async () => {
-    w.fake.faults.set({ dropWebhooks: true });
-    const res = await startPledge(w.backer, { tierId: w.tier.crew.id, amountMinor: 800 });
-    expect(res.status).toBe(201);
-    expect((await payOnHostedPage(res.body.checkoutUrl, CARDS.ok)).status).toBe(303);
-    const invoicePaid = w.fake
-      .state()
-      .collections.event.find(
-        (e) => e.type === 'invoice.paid' && e.data.object.parent?.subscription_details?.metadata?.pledge_id === res.body.pledge.id,
-      )!;
-    const piId = invoicePaid.data.object.payments.data[0].payment.payment_intent as string;
-    const refund = await w.stripe.refunds.create({ payment_intent: piId });
-    w.fake.faults.set({ dropWebhooks: false });
-    const refunded = eventsFor(w, refund.charge as string, ['charge.refunded'])[0]!;
-
-    const early = await postEvent(w, refunded);
-    expect(early.status).toBe(409);
-    expect((await early.json()).error.code).toBe('payments.event_early');
-    expect(await ledgerOf(w, res.body.pledge.id)).toEqual([]);
-
-    expect((await postEvent(w, invoicePaid)).status).toBe(200);
-    const again = await postEvent(w, refunded);
-    expect(again.status).toBe(200);
-    expect(((await again.json()) as { outcome: string }).outcome).toBe('applied');
-    expect((await ledgerOf(w, res.body.pledge.id)).map((l) => [l.kind, l.amountMinor, l.processorInvoiceId !== null])).toEqual([
-      ['charge', 800, true],
-      ['fee', -53, true],
-      ['refund', -800, false],
-    ]);
-    expect((await pledgeRow(w, res.body.pledge.id)).state).toBe('refunded');
-  });
 });
 
 describe('the last slot of a limited tier', () => {

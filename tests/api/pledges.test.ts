@@ -62,7 +62,9 @@ describe('a one-time pledge through the hosted checkout', () => {
     expect(await ledgerOf(w, pledge.id)).toEqual([]);
 
     const cancelled = await w.backer.post(`/api/pledges/${pledge.id}/cancel`).set('x-csrf-token', w.backer.csrf).expect(200);
-    expect(cancelled.body.pledge.state).toBe('failed');
+    // A closed checkout outranks a decline (shared/pledge-states.ts): the attempt is over.
+    expect(cancelled.body.pledge.state).toBe('abandoned');
+    expect(cancelled.body.pledge.failureReason).toBe('You left the checkout without paying.');
     expect((await pledgeRow(w, pledge.id)).slotState).toBe('released');
     await settle(w);
     const session = await w.stripe.checkout.sessions.retrieve((await pledgeRow(w, pledge.id)).checkoutSessionId!);

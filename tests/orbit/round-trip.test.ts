@@ -6,7 +6,7 @@ import { formatCatalogNumber, formatTleFile, parseElementSets, writeTle, type Tl
 const setArb: fc.Arbitrary<TleWriteInput> = fc.record({
   catalogNumber: fc.integer({ min: 0, max: 339_999 }).map(formatCatalogNumber),
   classification: fc.constantFrom('U' as const, 'C' as const, 'S' as const),
-  internationalDesignator: fc.constantFrom('', '58002B', '98067A', '24123ABC'),
+  internationalDesignator: fc.constantFrom('', '25951C', '98967A', '24923ABC') /* fictional: launch numbers above any year's count */,
   // 1957-01-01 … 2056-12-30
   epochMs: fc.double({ min: Date.UTC(1957, 0, 1), max: Date.UTC(2056, 11, 30), noNaN: true }),
   meanMotionRevPerDay: fc.double({ min: 0.05, max: 17, noNaN: true }),

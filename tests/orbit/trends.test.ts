@@ -37,7 +37,7 @@ function history(opts: { days: number; perDay: number; aKm: (tDays: number) => n
     out.push({
       catalogNumber: '99001',
       classification: 'U',
-      internationalDesignator: '25001A',
+      internationalDesignator: '25901A', // fictional (launch 901 of 2025)
       epochMs: T0 + t * DAY,
       meanMotionRevPerDay: meanMotionForSemiMajorAxis(a, 0.0012, 98.6),
       meanMotionDotRevPerDay2: 0,

@@ -2,6 +2,7 @@ import { desc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { auditLog } from './audit.tables';
 import { accounts } from '../accounts/accounts.tables';
+import { diffFields } from './audit-diff';
 
 export type AuditEntryInput = {
   actorId: string | null;
@@ -23,6 +24,20 @@ export async function recordAudit(tx: Tx, entry: AuditEntryInput) {
     before: entry.before ?? null,
     after: entry.after ?? null,
   });
+}
+
+/**
+ * An audited change of a record: writes exactly the fields of `after` whose value differs from `before`,
+ * old and new; writes nothing (and answers false) when nothing changed.
+ */
+export async function recordChange(
+  tx: Tx,
+  entry: Omit<AuditEntryInput, 'before' | 'after'> & { before: Record<string, unknown>; after: Record<string, unknown> },
+): Promise<boolean> {
+  const diff = diffFields(entry.before, entry.after);
+  if (!diff) return false;
+  await recordAudit(tx, { ...entry, before: diff.before, after: diff.after });
+  return true;
 }
 
 export async function listAudit(db: Db, limit: number) {

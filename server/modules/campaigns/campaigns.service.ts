@@ -7,6 +7,7 @@ import type { BudgetLinesInput } from '../../../shared/schemas/budget-lines';
 import { pledges } from '../pledges/pledges.tables';
 import { campaignReadSql, type CampaignReadRow } from './campaign-read.sql';
 import { recordAudit } from '../audit/audit.repository';
+import { diffFields } from '../audit/audit-diff';
 import { badRequest, conflict, notFound } from '../../errors';
 import type { CampaignView, StretchTargetsInput, TierInput, TierView, UpdateCampaignInput } from '../../../shared/schemas/campaign';
 
@@ -158,25 +159,16 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           currency: input.currency,
           startsAt: new Date(input.startsAt),
           endsAt: new Date(input.endsAt),
-          updatedAt: new Date(),
         };
-        await tx.update(campaigns).set(values).where(eq(campaigns.id, before.id));
-        const pick = (c: typeof before | typeof values) => ({
-          title: c.title,
-          goalMinor: c.goalMinor,
-          currency: c.currency,
-          startsAt: c.startsAt.toISOString(),
-          endsAt: c.endsAt.toISOString(),
-          storyLength: c.story.length,
-        });
-        await recordAudit(tx, {
-          actorId,
-          action: 'campaign.updated',
-          subjectType: 'campaign',
-          subjectId: before.id,
-          before: pick(before),
-          after: pick(values),
-        });
+        // Only what changed is written and recorded; a save without change leaves the row and the log alone.
+        const diff = diffFields(before, values);
+        if (!diff) return;
+        const changed = Object.fromEntries(Object.keys(diff.after).map((k) => [k, values[k as keyof typeof values]]));
+        await tx
+          .update(campaigns)
+          .set({ ...changed, updatedAt: new Date() })
+          .where(eq(campaigns.id, before.id));
+        await recordAudit(tx, { actorId, action: 'campaign.updated', subjectType: 'campaign', subjectId: before.id, ...diff });
       });
       cache.clear();
       return this.view(slug, { fresh: true, includeInactive: true });
@@ -213,6 +205,8 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
             { path: 'quantityLimit', message: `must be at least ${before.soldCount}` },
           ]);
         }
+        const diff = diffFields(before, input);
+        if (!diff) return before;
         const [row] = await tx
           .update(tiers)
           .set({
@@ -223,15 +217,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           })
           .where(eq(tiers.id, before.id))
           .returning();
-        const { processorPriceId: _p, createdAt: _c, updatedAt: _u, ...auditBefore } = before;
-        await recordAudit(tx, {
-          actorId,
-          action: 'tier.updated',
-          subjectType: 'tier',
-          subjectId: before.id,
-          before: auditBefore,
-          after: input,
-        });
+        await recordAudit(tx, { actorId, action: 'tier.updated', subjectType: 'tier', subjectId: before.id, ...diff });
         return row!;
       });
       cache.clear();
@@ -246,6 +232,10 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           .from(stretchTargets)
           .where(eq(stretchTargets.campaignId, campaign.id))
           .orderBy(asc(stretchTargets.amountMinor));
+        const listed = (rows: { amountMinor: number; title: string }[]) =>
+          rows.map((b) => ({ amountMinor: b.amountMinor, title: b.title }));
+        const diff = diffFields({ targets: listed(before) }, { targets: listed(input.targets) });
+        if (!diff) return;
         await tx.delete(stretchTargets).where(eq(stretchTargets.campaignId, campaign.id));
         if (input.targets.length > 0) await tx.insert(stretchTargets).values(input.targets.map((t) => ({ ...t, campaignId: campaign.id })));
         await recordAudit(tx, {
@@ -253,8 +243,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
           action: 'campaign.stretch_targets_replaced',
           subjectType: 'campaign',
           subjectId: campaign.id,
-          before: before.map((b) => ({ amountMinor: b.amountMinor, title: b.title })),
-          after: input.targets.map((b) => ({ amountMinor: b.amountMinor, title: b.title })),
+          ...diff,
         });
       });
       cache.clear();

@@ -3,7 +3,7 @@ import { toCsv, type CsvColumn } from '../../lib/csv';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
-import { recordAudit } from '../audit/audit.repository';
+import { recordAudit, recordChange } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { median } from '../../../shared/orbit/robust-stats';
@@ -451,7 +451,7 @@ export function createOrbitService({ db }: { db: Db }) {
           .where(eq(sailingPeriods.id, id))
           .returning();
         const view = sailingPeriodView(row!);
-        await recordAudit(tx, {
+        await recordChange(tx, {
           actorId,
           action: 'sailing_period.updated',
           subjectType: 'sailing_period',

@@ -3,6 +3,7 @@ import { and, desc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit } from '../audit/audit.repository';
+import { diffFields } from '../audit/audit-diff';
 import type { Role } from '../../../shared/schemas/auth';
 import type { CreateSnapshotInput } from '../../../shared/schemas/orbit';
 import type { SnapshotData, SnapshotSeriesKey } from '../../../shared/charts/snapshot-chart';
@@ -172,19 +173,14 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
     ) {
       const before = (await load(id)).row;
       mayChange(actor, before);
+      const diff = diffFields(before, { title: patch.title, caption: patch.caption, isPublic: patch.isPublic });
+      if (!diff) return this.get(id);
       await db.transaction(async (tx) => {
         await tx
           .update(snapshots)
-          .set({ ...patch, updatedAt: new Date() })
+          .set({ ...diff.after, updatedAt: new Date() })
           .where(eq(snapshots.id, id));
-        await recordAudit(tx, {
-          actorId: actor.id,
-          action: 'snapshot.updated',
-          subjectType: 'snapshot',
-          subjectId: id,
-          before: { title: before.title, caption: before.caption, isPublic: before.isPublic },
-          after: patch,
-        });
+        await recordAudit(tx, { actorId: actor.id, action: 'snapshot.updated', subjectType: 'snapshot', subjectId: id, ...diff });
       });
       return this.get(id);
     },

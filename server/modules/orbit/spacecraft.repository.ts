@@ -1,6 +1,6 @@
 import { asc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { recordAudit } from '../audit/audit.repository';
+import { recordAudit, recordChange } from '../audit/audit.repository';
 import { parseCatalogNumber, formatCatalogNumber } from '../../../shared/orbit/catalog-number';
 import type { SpacecraftInput } from '../../../shared/schemas/orbit';
 import { spacecraft } from './orbit.tables';
@@ -96,7 +96,7 @@ export function createSpacecraftRepository({ db }: { db: Db }) {
             .set({ ...toColumns(input), updatedAt: new Date() })
             .where(eq(spacecraft.id, id))
             .returning();
-          await recordAudit(tx, {
+          await recordChange(tx, {
             actorId,
             action: 'spacecraft.updated',
             subjectType: 'spacecraft',

@@ -1,8 +1,8 @@
 import express, { Router } from 'express';
 import type Stripe from 'stripe';
 import type { Config } from '../../config';
-import { AppError, badRequest } from '../../errors';
-import { RetryLater, type PaymentsService } from './payments.service';
+import { badRequest } from '../../errors';
+import type { PaymentsService } from './payments.service';
 
 /**
  * The processor's webhook. Mounted before the JSON parser: the signature covers the raw bytes. A forged or
@@ -21,17 +21,9 @@ export function createPaymentsWebhookRouter({ payments, stripe, config }: { paym
     } catch {
       throw badRequest('payments.signature_invalid', 'The webhook signature does not match this endpoint’s secret.');
     }
-    try {
-      const outcome = await payments.handle(event);
-      res.json({ received: true, outcome });
-    } catch (err) {
-      if (err instanceof RetryLater) {
-        throw new AppError(409, 'payments.event_early', `Not applied yet, send it again later: ${err.message}.`, undefined, {
-          'Retry-After': '5',
-        });
-      }
-      throw err;
-    }
+    // Events that are not ours are acknowledged too (a shared account must not retry them forever).
+    const outcome = await payments.handle(event);
+    res.json({ received: true, outcome });
   });
   return router;
 }

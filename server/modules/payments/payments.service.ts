@@ -7,7 +7,7 @@ import type { Logger } from 'pino';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
 import { MailQueueDataError, queueMail } from '../mail/mail-queue';
-import { processedEvents } from './payments.tables';
+import { paymentCustomers, processedEvents, processorEventUnmatched } from './payments.tables';
 import { pledges, memberships } from '../pledges/pledges.tables';
 import { campaigns, tiers } from '../campaigns/campaigns.tables';
 import { accounts, emailPreferences } from '../accounts/accounts.tables';
@@ -28,19 +28,16 @@ import {
 import type { Processor } from './processor';
 import type { CampaignsService } from '../campaigns/campaigns.service';
 
-/** The event cannot be applied yet (what it refers to has not arrived); answering non-2xx makes the processor retry. */
-export class RetryLater extends Error {}
-
 /** Mail written to the outbox inside the event's transaction, after its handler ran (see mail-queue.ts). */
 type AfterCommit = (tx: Tx) => Promise<void>;
-type Outcome = 'applied' | 'duplicate' | 'ignored';
+/** ignored: not ours (or not a kind we act on), acknowledged; unmatched: money not ours, kept for the reconciliation. */
+type Outcome = 'applied' | 'duplicate' | 'ignored' | 'unmatched';
+type UnmatchedRow = typeof processorEventUnmatched.$inferInsert;
 
 const uuidRe = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const idOf = (v: string | { id: string } | null | undefined) => (typeof v === 'string' ? v : (v?.id ?? null));
-const pledgeIdIn = (metadata: Stripe.Metadata | null | undefined) => {
-  const id = metadata?.pledge_id;
-  return id && uuidRe.test(id) ? id : null;
-};
+const asUuid = (v: string | null | undefined) => (v && uuidRe.test(v) ? v : null);
+const pledgeIdIn = (metadata: Stripe.Metadata | null | undefined) => asUuid(metadata?.pledge_id);
 
 function subscriptionOfInvoice(invoice: Stripe.Invoice): { subscriptionId: string | null; pledgeId: string | null } {
   const details = invoice.parent?.subscription_details;
@@ -65,16 +62,72 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
     return row?.id ?? null;
   }
 
-  async function pledgeIdForCharge(charge: Stripe.Charge): Promise<string | null> {
-    return (
-      pledgeIdIn(charge.metadata) ??
-      (await pledgeIdByColumn('paymentIntentId', idOf(charge.payment_intent as string | null))) ??
-      (await pledgeIdOfCharge(db, charge.id))
+  /**
+   * The pledge a charge belongs to, from what we hold and then from the processor: the payment intent's
+   * metadata (one-time pledges) or, for a customer of ours, the membership invoice that the charge paid (its
+   * invoice event may still be on the way). Null: the charge is not ours.
+   */
+  async function pledgeOfCharge(charge: Stripe.Charge): Promise<{ pledgeId: string; invoiceId: string | null } | null> {
+    const piId = idOf(charge.payment_intent as string | null);
+    const known = await exists(
+      pledgeIdIn(charge.metadata) ?? (await pledgeIdByColumn('paymentIntentId', piId)) ?? (await pledgeIdOfCharge(db, charge.id)),
     );
+    if (known) return { pledgeId: known, invoiceId: null };
+    if (piId) {
+      const pi = await stripe.paymentIntents.retrieve(piId);
+      const fromIntent = await exists(pledgeIdIn(pi.metadata));
+      if (fromIntent) return { pledgeId: fromIntent, invoiceId: null };
+    }
+    const customerId = idOf(charge.customer as string | null);
+    if (!customerId) return null;
+    const [ours] = await db.select().from(paymentCustomers).where(eq(paymentCustomers.customerId, customerId));
+    if (!ours) return null;
+    const invoices = await stripe.invoices
+      .list({ customer: customerId, limit: 100, expand: ['data.payments'] })
+      .autoPagingToArray({ limit: 1000 });
+    for (const invoice of invoices) {
+      const paidBy = (invoice.payments?.data ?? []).some(
+        (p) =>
+          (piId && idOf(p.payment?.payment_intent as string | null) === piId) || idOf(p.payment?.charge as string | null) === charge.id,
+      );
+      if (!paidBy) continue;
+      const { subscriptionId, pledgeId } = subscriptionOfInvoice(invoice);
+      const found = await exists(pledgeId ?? (await pledgeIdByColumn('subscriptionId', subscriptionId)));
+      return found ? { pledgeId: found, invoiceId: invoice.id ?? null } : null;
+    }
+    return null;
+  }
+
+  /** What the reconciliation needs of a money event that matches no pledge. */
+  function unmatchedRow(event: Stripe.Event, obj: Stripe.Charge | Stripe.Refund | Stripe.Dispute): UnmatchedRow {
+    const base = {
+      eventId: event.id,
+      eventType: event.type,
+      objectType: obj.object,
+      objectId: obj.id,
+      currency: obj.currency ? obj.currency.toUpperCase() : null,
+      occurredAt: new Date(event.created * 1000),
+    };
+    if (obj.object === 'charge')
+      return {
+        ...base,
+        chargeId: obj.id,
+        paymentIntentId: idOf(obj.payment_intent as string | null),
+        customerId: idOf(obj.customer as string | null),
+        amountMinor: obj.amount_refunded,
+      };
+    return {
+      ...base,
+      chargeId: idOf(obj.charge as string | null),
+      paymentIntentId: idOf(obj.payment_intent as string | null),
+      customerId: null,
+      amountMinor: obj.amount,
+    };
   }
 
   async function exists(pledgeId: string | null) {
-    if (!pledgeId) return null;
+    // Another tool's reference (not a uuid) is simply not ours; it must not reach a uuid column.
+    if (!pledgeId || !uuidRe.test(pledgeId)) return null;
     const [row] = await db.select({ id: pledges.id }).from(pledges).where(eq(pledges.id, pledgeId));
     return row?.id ?? null;
   }
@@ -199,7 +252,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
     if (firstPaid) after.push(confirmationMail(pledge.id));
   }
 
-  type Handler = { pledgeId: string | null; run: (tx: Tx, pledge: PledgeRow | null, after: AfterCommit[]) => Promise<void> };
+  type Handler =
+    | { pledgeId: string | null; run: (tx: Tx, pledge: PledgeRow | null, after: AfterCommit[]) => Promise<void> }
+    | { unmatched: UnmatchedRow };
 
   /** Works out which pledge the event is about (outside the transaction) and what to do with it (inside). */
   async function route(event: Stripe.Event): Promise<Handler | null> {
@@ -207,9 +262,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       case 'checkout.session.completed':
       case 'checkout.session.async_payment_succeeded': {
         const s = event.data.object;
-        const pledgeId = await exists(
-          pledgeIdIn(s.metadata) ?? (s.client_reference_id && uuidRe.test(s.client_reference_id) ? s.client_reference_id : null),
-        );
+        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? asUuid(s.client_reference_id));
         if (!pledgeId) return null;
         return {
           pledgeId,
@@ -248,7 +301,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
 
       case 'checkout.session.expired': {
         const s = event.data.object;
-        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? s.client_reference_id ?? null);
+        const pledgeId = await exists(pledgeIdIn(s.metadata) ?? asUuid(s.client_reference_id));
         if (!pledgeId) return null;
         return {
           pledgeId,
@@ -303,13 +356,12 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
         const chargeId = obj.object === 'charge' ? obj.id : idOf(obj.charge as string | null);
         if (!chargeId) return null;
         const charge = obj.object === 'charge' ? obj : await stripe.charges.retrieve(chargeId);
-        const pledgeId = await exists(await pledgeIdForCharge(charge));
-        // A refund or dispute of a charge we have not linked yet (its payment event is still on the way).
-        if (!pledgeId) throw new RetryLater(`no pledge yet for charge ${chargeId}`);
+        const owner = await pledgeOfCharge(charge);
+        if (!owner) return { unmatched: unmatchedRow(event, obj) };
         return {
-          pledgeId,
+          pledgeId: owner.pledgeId,
           run: async (tx, pledge, after) => {
-            const facts = await processor.chargeFacts(chargeId);
+            const facts = await processor.chargeFacts(chargeId, owner.invoiceId);
             const refunds = await stripe.refunds.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 1000 });
             const disputes = event.type.startsWith('charge.dispute')
               ? await stripe.disputes.list({ charge: chargeId, limit: 100 }).autoPagingToArray({ limit: 100 })
@@ -333,8 +385,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
         const invoice = event.data.object;
         const { subscriptionId, pledgeId: fromMeta } = subscriptionOfInvoice(invoice);
         if (!subscriptionId) return null;
+        // Our subscriptions carry the pledge id from their checkout on: without it, the invoice is not ours.
         const pledgeId = await exists(fromMeta ?? (await pledgeIdByColumn('subscriptionId', subscriptionId)));
-        if (!pledgeId) throw new RetryLater(`no pledge yet for subscription ${subscriptionId}`);
+        if (!pledgeId) return null;
         return {
           pledgeId,
           run: async (tx, pledge, after) => {
@@ -405,7 +458,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       const fresh = await db.transaction(async (tx) => {
         const claimed = await tx.insert(processedEvents).values({ eventId: event.id, type: event.type }).onConflictDoNothing().returning();
         if (claimed.length === 0) return false;
-        if (handler) {
+        if (handler && 'unmatched' in handler) {
+          await tx.insert(processorEventUnmatched).values(handler.unmatched).onConflictDoNothing();
+        } else if (handler) {
           const pledge = handler.pledgeId ? await lockPledge(tx, handler.pledgeId) : null;
           await handler.run(tx, pledge ?? null, after);
         }
@@ -419,8 +474,19 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
         return true;
       });
       if (!fresh) return 'duplicate';
-      if (handler) deps.campaigns.invalidate();
-      return handler ? 'applied' : 'ignored';
+      if (!handler) {
+        deps.logger.info({ eventId: event.id, type: event.type }, 'processor event not ours or not acted on: acknowledged');
+        return 'ignored';
+      }
+      if ('unmatched' in handler) {
+        deps.logger.warn(
+          { eventId: event.id, type: event.type, objectId: handler.unmatched.objectId },
+          'money event matches no pledge: kept for reconciliation',
+        );
+        return 'unmatched';
+      }
+      deps.campaigns.invalidate();
+      return 'applied';
     },
   };
 }

@@ -20,11 +20,18 @@ export const isMissing = (err: unknown, param?: string) =>
   err.code === 'resource_missing' &&
   (!param || err.param === param || Boolean(err.param?.startsWith(param)));
 
-export function createProcessor({ db, stripe }: { db: Db; stripe: Stripe }) {
+/** Where the processor's ids are read and written: the pool, or the caller's transaction (one connection). */
+type Executor = Pick<Db, 'select' | 'insert' | 'update'>;
+
+export function createProcessor({ db: pool, stripe }: { db: Db; stripe: Stripe }) {
   return {
     stripe,
 
-    async customerFor(account: { id: string; email: string; displayName: string }, opts: { fresh?: boolean } = {}): Promise<string> {
+    async customerFor(
+      account: { id: string; email: string; displayName: string },
+      opts: { fresh?: boolean; db?: Executor } = {},
+    ): Promise<string> {
+      const db = opts.db ?? pool;
       if (!opts.fresh) {
         const [row] = await db.select().from(paymentCustomers).where(eq(paymentCustomers.accountId, account.id));
         if (row) return row.customerId;
@@ -40,7 +47,8 @@ export function createProcessor({ db, stripe }: { db: Db; stripe: Stripe }) {
       return customer.id;
     },
 
-    async productFor(campaign: typeof campaigns.$inferSelect, opts: { fresh?: boolean } = {}): Promise<string> {
+    async productFor(campaign: typeof campaigns.$inferSelect, opts: { fresh?: boolean; db?: Executor } = {}): Promise<string> {
+      const db = opts.db ?? pool;
       if (campaign.processorProductId && !opts.fresh) return campaign.processorProductId;
       const product = await stripe.products.create(
         { name: campaign.title, metadata: { campaign_id: campaign.id } },
@@ -55,8 +63,9 @@ export function createProcessor({ db, stripe }: { db: Db; stripe: Stripe }) {
       tier: typeof tiers.$inferSelect,
       currency: string,
       productId: string,
-      opts: { fresh?: boolean } = {},
+      opts: { fresh?: boolean; db?: Executor } = {},
     ): Promise<string> {
+      const db = opts.db ?? pool;
       if (tier.processorPriceId && !opts.fresh) return tier.processorPriceId;
       const price = await stripe.prices.create(
         {

@@ -1,12 +1,12 @@
 // Moves a pledge through its states from ledger facts, inside the caller's transaction. Every function is
 // idempotent: a replayed or reordered event finds the rows already there and changes nothing.
-import { and, eq, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import type { Db } from '../../db/client';
 import { pledges } from './pledges.tables';
 import { tiers } from '../campaigns/campaigns.tables';
 import { appendLedgerEntry, pledgeTotals } from '../ledger/ledger.repository';
-import type { PledgeState } from '../../../shared/schemas/campaign';
+import { moneyStateOf, nextPledgeState } from '../../../shared/pledge-states';
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type PledgeRow = typeof pledges.$inferSelect;
@@ -128,17 +128,15 @@ export async function releaseSlot(tx: Tx, pledge: PledgeRow): Promise<PledgeRow[
 }
 
 /**
- * Derives the state from the ledger: disputed > refunded > partly refunded > paid; without money it keeps
- * its own (started, failed, abandoned). Returns `firstPaid` when this call moved it to paid for the first
- * time and claimed the one confirmation e-mail.
+ * Derives the state from the ledger through the state machine (shared/pledge-states.ts): money outranks the
+ * states without money. Returns `firstPaid` when this call moved it to a money state for the first time and
+ * claimed the one confirmation e-mail.
  */
 export async function refreshPledgeState(tx: Tx, pledge: PledgeRow): Promise<{ pledge: PledgeRow; firstPaid: boolean }> {
   const totals = await pledgeTotals(tx, pledge.id);
-  if (totals.chargedMinor <= 0) return { pledge, firstPaid: false };
-  let state: PledgeState = 'paid';
-  if (totals.disputes > 0) state = 'disputed';
-  else if (totals.refundedMinor >= totals.chargedMinor) state = 'refunded';
-  else if (totals.refundedMinor > 0) state = 'partly_refunded';
+  const money = moneyStateOf(totals);
+  if (!money) return { pledge, firstPaid: false };
+  const state = nextPledgeState(pledge.state, { kind: 'money', state: money });
   const claimMail = pledge.confirmationSentAt === null;
   const [row] = await tx
     .update(pledges)
@@ -158,23 +156,27 @@ export async function refreshPledgeState(tx: Tx, pledge: PledgeRow): Promise<{ p
 
 /** A declined attempt: the pledge stays unpaid with the reason; the checkout may still be retried. */
 export async function markFailed(tx: Tx, pledge: PledgeRow, failure: { code: string | null; reason: string }) {
-  if (pledge.state !== 'started' && pledge.state !== 'failed') return pledge;
+  if (nextPledgeState(pledge.state, { kind: 'declined' }) !== 'failed') return pledge;
   const [row] = await tx
     .update(pledges)
     .set({ state: 'failed', failureCode: failure.code, failureReason: failure.reason, updatedAt: new Date() })
-    .where(and(eq(pledges.id, pledge.id)))
+    .where(eq(pledges.id, pledge.id))
     .returning();
   return row!;
 }
 
-/** The checkout closed without payment (expired or cancelled): the tier slot goes back. */
+/**
+ * The checkout closed without payment (expired or cancelled): final, so it outranks a decline whichever came
+ * first; the reason is the closing one, and the tier slot goes back.
+ */
 export async function markAbandoned(tx: Tx, pledge: PledgeRow, reason: string) {
-  if (pledge.state !== 'started' && pledge.state !== 'failed') return pledge;
+  if (pledge.state === 'abandoned' || nextPledgeState(pledge.state, { kind: 'closed' }) !== 'abandoned') return pledge;
   const [row] = await tx
     .update(pledges)
     .set({
-      state: pledge.state === 'failed' ? 'failed' : 'abandoned',
-      failureReason: pledge.state === 'failed' ? pledge.failureReason : reason,
+      state: 'abandoned',
+      failureCode: null,
+      failureReason: reason,
       slotState: await releaseSlot(tx, pledge),
       checkoutUrl: null,
       updatedAt: new Date(),

@@ -15,7 +15,9 @@ export function createPledgesRouter({ pledges }: { pledges: PledgesService }) {
     requireAuth,
     validated({ body: createPledgeSchema }, async (req, res, { body }) => {
       const result = await pledges.create({ account: req.user!, input: body });
-      res.status(result.replayed ? 200 : 201).json({ pledge: result.pledge, checkoutUrl: result.checkoutUrl });
+      // 202: the pledge stands and its checkout is still being opened by an earlier submit; GET it for the link.
+      const status = result.checkoutUrl === null ? 202 : result.replayed ? 200 : 201;
+      res.status(status).json({ pledge: result.pledge, checkoutUrl: result.checkoutUrl });
     }),
   );
 

@@ -6,13 +6,16 @@ import type { Config } from '../../config';
 import { pledges } from './pledges.tables';
 import { campaigns, tiers } from '../campaigns/campaigns.tables';
 import { ledgerEntries } from '../ledger/ledger.tables';
-import { lockPledge, markAbandoned, type PledgeRow } from './pledge-ledger';
+import { lockPledge, markAbandoned, type PledgeRow, type Tx } from './pledge-ledger';
 import { isMissing, processorUnavailable, type Processor } from '../payments/processor';
 import type { CampaignsService } from '../campaigns/campaigns.service';
 import { AppError, badRequest, conflict, notFound } from '../../errors';
 import type { CreatePledgeInput, PaymentView, PledgeView } from '../../../shared/schemas/campaign';
 
 type Account = { id: string; email: string; displayName: string };
+
+/** How often a repeated submit looks whether the first one has opened the checkout. */
+const CHECKOUT_POLL_MS = 40;
 
 export const pledgeNotFound = () => notFound('pledges.not_found', 'There is no such pledge in your account.');
 
@@ -79,6 +82,7 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
   }
 
   async function openCheckout(
+    exec: Tx,
     row: PledgeRow,
     account: Account,
     campaign: typeof campaigns.$inferSelect,
@@ -87,14 +91,18 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
     const metadata = { pledge_id: row.id, campaign_id: campaign.id, ...(tier ? { tier_id: tier.id } : {}) };
     const description = `${campaign.title}${tier ? ` — ${tier.title}` : ''}`;
     const build = async (fresh: { customer?: boolean; product?: boolean }): Promise<Stripe.Checkout.SessionCreateParams> => {
-      const customer = await processor.customerFor(account, { fresh: fresh.customer });
+      const customer = await processor.customerFor(account, { fresh: fresh.customer, db: exec });
       const product = await processor.productFor(fresh.product ? { ...campaign, processorProductId: null } : campaign, {
         fresh: fresh.product,
+        db: exec,
       });
       const currency = row.currency.toLowerCase();
       let lineItem: Stripe.Checkout.SessionCreateParams.LineItem;
       if (row.kind === 'monthly' && tier && row.amountMinor === tier.minAmountMinor) {
-        lineItem = { price: await processor.monthlyPriceFor(tier, row.currency, product, { fresh: fresh.product }), quantity: 1 };
+        lineItem = {
+          price: await processor.monthlyPriceFor(tier, row.currency, product, { fresh: fresh.product, db: exec }),
+          quantity: 1,
+        };
       } else {
         lineItem = {
           price_data: {
@@ -128,6 +136,67 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
     }
   }
 
+  /**
+   * The checkout of a pledge attempt, opened once. Whoever holds the pledge row's lock opens it (the processor
+   * call runs inside that transaction, on its one connection, with the attempt's idempotency key); every
+   * other submit of the attempt waits, without holding a connection, and then gets the same link. A submit
+   * that waited PLEDGE_CHECKOUT_WAIT_MS answers with the pledge and no link yet (202); the pledge's page has the link.
+   */
+  async function checkoutOf(
+    start: PledgeRow,
+    account: Account,
+    known?: { campaign: typeof campaigns.$inferSelect; tier: typeof tiers.$inferSelect | undefined },
+  ): Promise<{ pledge: PledgeView; checkoutUrl: string | null }> {
+    const deadline = Date.now() + config.PLEDGE_CHECKOUT_WAIT_MS;
+    for (;;) {
+      const outcome = await db.transaction(async (tx) => {
+        const [locked] = await tx.select().from(pledges).where(eq(pledges.id, start.id)).for('update', { skipLocked: true });
+        if (!locked) return { kind: 'busy' as const };
+        if (locked.checkoutUrl && (locked.state === 'started' || locked.state === 'failed')) return { kind: 'ready' as const, row: locked };
+        if (locked.state !== 'started' || locked.checkoutSessionId) return { kind: 'closed' as const };
+        const campaign = known?.campaign ?? (await tx.select().from(campaigns).where(eq(campaigns.id, locked.campaignId)))[0]!;
+        const tier = known?.tier ?? (locked.tierId ? (await tx.select().from(tiers).where(eq(tiers.id, locked.tierId)))[0] : undefined);
+        let session: Stripe.Checkout.Session;
+        try {
+          ({ session } = await openCheckout(tx, locked, account, campaign, tier));
+        } catch (err) {
+          deps.logger.warn({ err, pledgeId: locked.id }, 'checkout session could not be created');
+          await markAbandoned(tx, locked, 'The payment processor could not open a checkout.');
+          return { kind: 'failed' as const, err };
+        }
+        const [updated] = await tx
+          .update(pledges)
+          .set({
+            checkoutSessionId: session.id,
+            checkoutUrl: session.url,
+            processorCustomerId: typeof session.customer === 'string' ? session.customer : null,
+            updatedAt: new Date(),
+          })
+          .where(eq(pledges.id, locked.id))
+          .returning();
+        return { kind: 'ready' as const, row: updated! };
+      });
+      if (outcome.kind === 'ready') {
+        deps.campaigns.invalidate();
+        return { pledge: (await views([outcome.row]))[0]!, checkoutUrl: outcome.row.checkoutUrl };
+      }
+      if (outcome.kind === 'closed') throw conflict('pledges.attempt_closed', 'This pledge attempt is already closed; start a new one.');
+      if (outcome.kind === 'failed') {
+        deps.campaigns.invalidate();
+        const err = outcome.err;
+        if (err instanceof Stripe.errors.StripeError && err.statusCode && err.statusCode < 500 && err.type !== 'StripeConnectionError') {
+          throw new AppError(502, 'payments.checkout_refused', `The payment processor refused the checkout: ${err.message}`);
+        }
+        throw processorUnavailable(err);
+      }
+      if (Date.now() >= deadline) {
+        const [row] = await db.select().from(pledges).where(eq(pledges.id, start.id));
+        return { pledge: (await views([row!]))[0]!, checkoutUrl: null };
+      }
+      await new Promise((r) => setTimeout(r, CHECKOUT_POLL_MS));
+    }
+  }
+
   return {
     views,
 
@@ -137,15 +206,13 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
     }: {
       account: Account;
       input: CreatePledgeInput;
-    }): Promise<{ pledge: PledgeView; checkoutUrl: string; replayed: boolean }> {
+    }): Promise<{ pledge: PledgeView; checkoutUrl: string | null; replayed: boolean }> {
       const [existing] = await db.select().from(pledges).where(eq(pledges.idempotencyKey, input.attemptKey));
       if (existing) {
         if (existing.backerId !== account.id)
           throw conflict('pledges.attempt_key_taken', 'This attempt key belongs to another pledge; make a new one.');
-        if (existing.checkoutUrl && (existing.state === 'started' || existing.state === 'failed')) {
-          return { pledge: (await views([existing]))[0]!, checkoutUrl: existing.checkoutUrl, replayed: true };
-        }
-        throw conflict('pledges.attempt_closed', 'This pledge attempt is already closed; start a new one.');
+        // Submitted again, perhaps while the first submit is still opening the checkout: same pledge, same link.
+        return { ...(await checkoutOf(existing, account)), replayed: true };
       }
 
       const [campaign] = await db.select().from(campaigns).where(eq(campaigns.slug, input.campaignSlug));
@@ -206,32 +273,8 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
         return this.create({ account, input });
       }
 
-      let session: Stripe.Checkout.Session;
-      try {
-        ({ session } = await openCheckout(row, account, campaign, tier));
-      } catch (err) {
-        deps.logger.warn({ err, pledgeId: row.id }, 'checkout session could not be created');
-        await db.transaction(async (tx) => {
-          const locked = await lockPledge(tx, row.id);
-          if (locked) await markAbandoned(tx, locked, 'The payment processor could not open a checkout.');
-        });
-        if (err instanceof Stripe.errors.StripeError && err.statusCode && err.statusCode < 500 && err.type !== 'StripeConnectionError') {
-          throw new AppError(502, 'payments.checkout_refused', `The payment processor refused the checkout: ${err.message}`);
-        }
-        throw processorUnavailable(err);
-      }
-      const [updated] = await db
-        .update(pledges)
-        .set({
-          checkoutSessionId: session.id,
-          checkoutUrl: session.url,
-          processorCustomerId: typeof session.customer === 'string' ? session.customer : null,
-          updatedAt: new Date(),
-        })
-        .where(eq(pledges.id, row.id))
-        .returning();
-      deps.campaigns.invalidate();
-      return { pledge: (await views([updated!]))[0]!, checkoutUrl: session.url!, replayed: false };
+      const opened = await checkoutOf(row, account, { campaign, tier });
+      return { ...opened, replayed: false };
     },
 
     async get(accountId: string, pledgeId: string) {

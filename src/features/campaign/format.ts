@@ -25,3 +25,9 @@ export function minorToMajorText(amountMinor: number, exponent = 2): string {
   const frac = s.slice(s.length - exponent);
   return exponent === 0 || /^0+$/.test(frac) ? s.slice(0, s.length - exponent) : `${s.slice(0, s.length - exponent)}.${frac}`;
 }
+
+/** A stored UTC time as the datetime-local input shows it (minutes). */
+export const toLocalInput = (iso: string) => iso.slice(0, 16);
+
+/** The form shows minutes only: a time the user did not touch goes back as stored, seconds included. */
+export const fromLocalInput = (local: string, stored: string) => (local === toLocalInput(stored) ? stored : `${local}:00Z`);

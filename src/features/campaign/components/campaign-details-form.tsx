@@ -7,9 +7,7 @@ import { inputClasses, TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-client';
 import { errorMessage } from '@/lib/form-errors';
 import { useUpdateCampaign } from '../api/update-campaign';
-import { minorToMajorText, parseMajor } from '../format';
-
-const toLocalInput = (iso: string) => iso.slice(0, 16);
+import { fromLocalInput, minorToMajorText, parseMajor, toLocalInput } from '../format';
 
 export function CampaignDetailsForm({ campaign }: { campaign: CampaignView }) {
   const exp = currencyExponent(campaign.currency);
@@ -39,8 +37,8 @@ export function CampaignDetailsForm({ campaign }: { campaign: CampaignView }) {
         story: v.story,
         goalMinor,
         currency: v.currency,
-        startsAt: `${v.startsAt}:00Z`,
-        endsAt: `${v.endsAt}:00Z`,
+        startsAt: fromLocalInput(v.startsAt, campaign.startsAt),
+        endsAt: fromLocalInput(v.endsAt, campaign.endsAt),
       },
       { onError: (err) => isApiError(err) && setErrors(Object.fromEntries(err.details.map((d) => [d.path, d.message]))) },
     );

@@ -73,7 +73,7 @@ export function SpacecraftForm({ craft, onSaved }: { craft: Spacecraft | null; o
       <TextField label="Catalog number" {...form.register('catalogNumber')} error={err('catalogNumber')} />
       <TextField
         label="International designator"
-        hint="e.g. 25061C"
+        hint="e.g. 25951C"
         {...form.register('internationalDesignator')}
         error={err('internationalDesignator')}
       />

@@ -114,7 +114,7 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
             spellCheck={false}
             className="block w-full rounded-lg border border-foil-700 bg-night-950/60 px-3 py-2 font-mono text-xs text-foil-50 focus:border-amber-400"
             placeholder={
-              '1 99871U 25061C   26100.50000000  .00000251  00000-0  21652-2 0  9991\n2 99871  98.5185 140.2960 0002078  89.0691 271.5623 14.32664354 12044'
+              '1 99871U 25951C   26100.50000000  .00000251  00000-0  21652-2 0  9996\n2 99871  98.5185 140.2960 0002078  89.0691 271.5623 14.32664354 12045'
             }
           />
           <Button type="submit" variant="secondary" disabled={!pasted.trim() || !!sending}>
