@@ -12,7 +12,8 @@ import { estimateLifetime } from '../../../shared/orbit/lifetime';
 import type { SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
-import { fileNotFound, sailingPeriodNotFound, spacecraftNotFound } from './orbit.errors';
+import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
+import { overlapping, trimToFree } from '../../../shared/orbit/period-overlap';
 import { spacecraftView, type SpacecraftRow } from './spacecraft.repository';
 
 const DAY_MS = 86_400_000;
@@ -129,6 +130,11 @@ export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAre
   return usableFraction * c.sailAreaM2 + (1 - usableFraction) * c.dragAreaEdgeOnM2;
 }
 
+function isOverlapViolation(err: unknown): boolean {
+  const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } };
+  return (e.code ?? e.cause?.code) === '23P01' && (e.constraint ?? e.cause?.constraint) === 'sailing_periods_no_overlap';
+}
+
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
   const windowCache = new Map<string, WindowTrend>();
@@ -141,6 +147,26 @@ export function createOrbitService({ db }: { db: Db }) {
 
   async function periodsOf(spacecraftId: string) {
     return db.select().from(sailingPeriods).where(eq(sailingPeriods.spacecraftId, spacecraftId)).orderBy(asc(sailingPeriods.startAt));
+  }
+
+  /**
+   * Runs a save; when the database's exclusion constraint refuses it (also when another save got in first), answers
+   * a 409 naming the period in the way and the trim that would fit.
+   */
+  async function guardOverlap<T>(spacecraftId: string, ownId: string | null, input: SailingPeriodInput, save: () => Promise<T>) {
+    try {
+      return await save();
+    } catch (err) {
+      if (!isOverlapViolation(err)) throw err;
+      const requested = { startMs: Date.parse(input.startAt), endMs: Date.parse(input.endAt) };
+      const others = (await periodsOf(spacecraftId))
+        .filter((p) => p.id !== ownId)
+        .map((p) => ({ mode: p.mode, startMs: p.startAt.getTime(), endMs: p.endAt.getTime() }));
+      const first = overlapping(requested, others)[0];
+      // The other save may have been rolled back meanwhile: still refuse, naming what the constraint saw.
+      if (!first) throw sailingPeriodOverlap(requested, { mode: 'other', ...requested }, null);
+      throw sailingPeriodOverlap(requested, first, trimToFree(requested, others));
+    }
   }
 
   function historyFilter(spacecraftId: string, q: Pick<HistoryQuery, 'from' | 'to'>) {
@@ -404,56 +430,65 @@ export function createOrbitService({ db }: { db: Db }) {
 
     async createSailingPeriod(actorId: string | null, spacecraftId: string, input: SailingPeriodInput) {
       await craftOf(spacecraftId);
-      return db.transaction(async (tx) => {
-        const [row] = await tx
-          .insert(sailingPeriods)
-          .values({
-            spacecraftId,
-            startAt: new Date(input.startAt),
-            endAt: new Date(input.endAt),
-            mode: input.mode,
-            note: input.note,
-            createdBy: actorId,
-          })
-          .returning();
-        const view = sailingPeriodView(row!);
-        await recordAudit(tx, {
-          actorId,
-          action: 'sailing_period.created',
-          subjectType: 'sailing_period',
-          subjectId: row!.id,
-          after: view,
-        });
-        return view;
-      });
+      return guardOverlap(spacecraftId, null, input, () =>
+        db.transaction(async (tx) => {
+          const [row] = await tx
+            .insert(sailingPeriods)
+            .values({
+              spacecraftId,
+              startAt: new Date(input.startAt),
+              endAt: new Date(input.endAt),
+              mode: input.mode,
+              note: input.note,
+              createdBy: actorId,
+            })
+            .returning();
+          const view = sailingPeriodView(row!);
+          await recordAudit(tx, {
+            actorId,
+            action: 'sailing_period.created',
+            subjectType: 'sailing_period',
+            subjectId: row!.id,
+            after: view,
+          });
+          return view;
+        }),
+      );
     },
 
     async updateSailingPeriod(actorId: string | null, id: string, input: SailingPeriodInput) {
-      return db.transaction(async (tx) => {
-        const [before] = await tx.select().from(sailingPeriods).where(eq(sailingPeriods.id, id)).for('update');
-        if (!before) throw sailingPeriodNotFound();
-        const [row] = await tx
-          .update(sailingPeriods)
-          .set({
-            startAt: new Date(input.startAt),
-            endAt: new Date(input.endAt),
-            mode: input.mode,
-            note: input.note,
-            updatedAt: new Date(),
-          })
-          .where(eq(sailingPeriods.id, id))
-          .returning();
-        const view = sailingPeriodView(row!);
-        await recordAudit(tx, {
-          actorId,
-          action: 'sailing_period.updated',
-          subjectType: 'sailing_period',
-          subjectId: id,
-          before: sailingPeriodView(before),
-          after: view,
-        });
-        return view;
-      });
+      const [current] = await db
+        .select({ spacecraftId: sailingPeriods.spacecraftId })
+        .from(sailingPeriods)
+        .where(eq(sailingPeriods.id, id));
+      if (!current) throw sailingPeriodNotFound();
+      return guardOverlap(current.spacecraftId, id, input, () =>
+        db.transaction(async (tx) => {
+          const [before] = await tx.select().from(sailingPeriods).where(eq(sailingPeriods.id, id)).for('update');
+          if (!before) throw sailingPeriodNotFound();
+          const [row] = await tx
+            .update(sailingPeriods)
+            .set({
+              startAt: new Date(input.startAt),
+              endAt: new Date(input.endAt),
+              mode: input.mode,
+              note: input.note,
+              updatedAt: new Date(),
+            })
+            .where(eq(sailingPeriods.id, id))
+            .returning();
+          const view = sailingPeriodView(row!);
+          await recordAudit(tx, {
+            actorId,
+            action: 'sailing_period.updated',
+            subjectType: 'sailing_period',
+            subjectId: id,
+            before: sailingPeriodView(before),
+            after: view,
+          });
+          return view;
+        }),
+      );
     },
 
     async deleteSailingPeriod(actorId: string | null, id: string) {
