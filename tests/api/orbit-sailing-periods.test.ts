@@ -13,7 +13,10 @@ beforeAll(async () => {
 afterAll(async () => t.close());
 
 const post = (body: object) =>
-  engineer.post(`/api/orbit/spacecraft/${craftId}/sailing-periods`).set('x-csrf-token', engineer.csrf).send({ note: '', ...body });
+  engineer
+    .post(`/api/orbit/spacecraft/${craftId}/sailing-periods`)
+    .set('x-csrf-token', engineer.csrf)
+    .send({ note: '', ...body });
 
 describe('sailing periods cannot overlap', () => {
   it('refuses an edge-on period overlapping a raising one, names the raising period and offers the trim that fits', async () => {

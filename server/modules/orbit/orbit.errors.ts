@@ -5,6 +5,8 @@ import { formatUtcDateTime } from '../../../shared/dates';
 export const spacecraftNotFound = () => notFound('orbit.spacecraft_not_found', 'No spacecraft with this id.');
 export const spacecraftTaken = (what: 'slug' | 'catalog number') =>
   conflict(`orbit.spacecraft_${what === 'slug' ? 'slug' : 'catalog'}_taken`, `Another spacecraft already uses this ${what}.`);
+export const missionCraftRace = () =>
+  conflict('orbit.mission_craft_changed', 'Another craft was marked as the mission craft at the same moment. Reload and try again.');
 export const uploadNotFound = () => notFound('orbit.upload_not_found', 'No upload with this id.');
 export const uploadNotReady = (status: string) =>
   conflict('orbit.upload_not_ready', `This upload is ${status}; only a previewed upload can be imported or cancelled.`);

@@ -338,6 +338,9 @@ export function createPublicSnapshotsRouter({ module }: { module: OrbitModule })
 /** Anyone: the public orbit summary of a spacecraft. */
 export function createPublicOrbitRouter({ module }: { module: OrbitModule }) {
   const router = Router();
+  router.get('/', async (_req, res) => {
+    res.set('cache-control', 'public, max-age=60').json(await module.orbit.publicSummary(null));
+  });
   router.get(
     '/:slug',
     validated(

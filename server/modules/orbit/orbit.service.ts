@@ -341,7 +341,31 @@ export function createOrbitService({ db }: { db: Db }) {
         [craft.id],
       );
       const latest = latestRows[0];
-      if (!latest) return { spacecraft: spacecraftView(craft), comparison, model: null, caution: SAFETY_CAUTION };
+      const sailApplies = craft.sailAreaM2 > 0;
+      if (!latest)
+        return {
+          spacecraft: spacecraftView(craft),
+          sailApplies,
+          comparison: sailApplies ? comparison : null,
+          model: null,
+          lifetime: null,
+          caution: SAFETY_CAUTION,
+        };
+      if (!sailApplies) {
+        // A comparison object without a sail: no sail yield, no crossover; its lifetime is drag alone.
+        const dragOnly = estimateLifetime(
+          { epochMs: latest.epoch_ms, semiMajorAxisKm: latest.semi_major_axis_km, eccentricity: latest.eccentricity },
+          { massKg: craft.massKg, dragAreaM2: craft.dragAreaEdgeOnM2, dragCoefficient: craft.dragCoefficient },
+        );
+        return {
+          spacecraft: spacecraftView(craft),
+          sailApplies,
+          comparison: null,
+          model: null,
+          lifetime: dragOnly ? { ...dragOnly, basis: 'drag only, no sail' } : null,
+          caution: SAFETY_CAUTION,
+        };
+      }
       const altitudeKm = latest.mean_altitude_km;
       const betaDeg = betaAngleDeg({ epochMs: latest.epoch_ms, inclinationDeg: latest.inclination_deg, raanDeg: latest.raan_deg });
       const geometry = sailThrustGeometry({ altitudeKm, betaDeg, samples: 720 });
@@ -371,6 +395,7 @@ export function createOrbitService({ db }: { db: Db }) {
       );
       return {
         spacecraft: spacecraftView(craft),
+        sailApplies,
         comparison,
         model: {
           atEpochMs: latest.epoch_ms,
@@ -386,7 +411,7 @@ export function createOrbitService({ db }: { db: Db }) {
             `drag area while raising averaged over the orbit: ${raisingArea.toFixed(2)} m²; edge-on ${craft.dragAreaEdgeOnM2} m²`,
           ],
         },
-        lifetime: lifetime ? { ...lifetime, basis: 'sail edge-on (drag only)' } : null,
+        lifetime: lifetime ? { ...lifetime, basis: 'sail edge-on, drag only' } : null,
         caution: SAFETY_CAUTION,
       };
     },
@@ -506,8 +531,12 @@ export function createOrbitService({ db }: { db: Db }) {
     },
 
     /** The public orbit summary: latest apogee/perigee and the trend since sail deployment. */
-    async publicSummary(slug: string) {
-      const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.slug, slug));
+    async publicSummary(slug: string | null) {
+      // Without a handle: the mission's own craft.
+      const [craft] = await db
+        .select()
+        .from(spacecraft)
+        .where(slug === null ? eq(spacecraft.isMissionCraft, true) : eq(spacecraft.slug, slug));
       if (!craft) throw spacecraftNotFound();
       const { rows } = await pool.query<{
         epoch_ms: number;

@@ -14,6 +14,8 @@ export type Spacecraft = {
   dragAreaEdgeOnM2: number;
   launchDate: string | null;
   sailDeployedAt: string | null;
+  isMissionCraft: boolean;
+  hasSail: boolean;
   createdAt: string;
   updatedAt: string;
 };
@@ -108,7 +110,8 @@ type ModeSummary = {
 };
 export type SailYield = {
   spacecraft: Spacecraft;
-  comparison: {
+  sailApplies: boolean;
+  comparison: null | {
     raising: ModeSummary;
     off: ModeSummary;
     sailYieldMPerS2: number | null;
