@@ -47,42 +47,36 @@ async function paidPledgeRow(amountMinor: number, opts: { backer?: string | null
     })
     .returning();
   const ch = `ch_test_${crypto.randomUUID().slice(0, 8)}`;
-  await db
-    .insert(ledgerEntries)
-    .values({
-      kind: 'charge',
-      amountMinor,
+  await db.insert(ledgerEntries).values({
+    kind: 'charge',
+    amountMinor,
+    currency: 'USD',
+    campaignId: world.campaign.id,
+    pledgeId: p!.id,
+    processorObjectId: ch,
+    processorChargeId: ch,
+    occurredAt: new Date(),
+  });
+  await db.insert(ledgerEntries).values({
+    kind: 'fee',
+    amountMinor: -30,
+    currency: 'USD',
+    campaignId: world.campaign.id,
+    pledgeId: p!.id,
+    processorObjectId: `txn_${ch}`,
+    occurredAt: new Date(),
+  });
+  if (opts.refundMinor) {
+    await db.insert(ledgerEntries).values({
+      kind: 'refund',
+      amountMinor: -opts.refundMinor,
       currency: 'USD',
       campaignId: world.campaign.id,
       pledgeId: p!.id,
-      processorObjectId: ch,
+      processorObjectId: `re_${ch}`,
       processorChargeId: ch,
       occurredAt: new Date(),
     });
-  await db
-    .insert(ledgerEntries)
-    .values({
-      kind: 'fee',
-      amountMinor: -30,
-      currency: 'USD',
-      campaignId: world.campaign.id,
-      pledgeId: p!.id,
-      processorObjectId: `txn_${ch}`,
-      occurredAt: new Date(),
-    });
-  if (opts.refundMinor) {
-    await db
-      .insert(ledgerEntries)
-      .values({
-        kind: 'refund',
-        amountMinor: -opts.refundMinor,
-        currency: 'USD',
-        campaignId: world.campaign.id,
-        pledgeId: p!.id,
-        processorObjectId: `re_${ch}`,
-        processorChargeId: ch,
-        occurredAt: new Date(),
-      });
   }
   return p!;
 }

@@ -51,3 +51,8 @@ export function sci(value: number | null | undefined, digits = 2): string {
 }
 
 export const sailModeLabels = { raising: 'Raising', 'edge-on': 'Edge-on', tumbling: 'Tumbling', unknown: 'Unknown' } as const;
+
+/** "1 set", "2 sets", "1,198 sets". */
+export function countOf(n: number, one: string, many = `${one}s`): string {
+  return `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
+}

@@ -20,7 +20,14 @@ export type Spacecraft = {
   updatedAt: string;
 };
 
-export type UploadError = { line: number; columns?: [number, number]; field?: string; message: string; expected?: string };
+export type UploadError = {
+  line: number;
+  columns?: [number, number];
+  field?: string;
+  message: string;
+  expected?: string;
+  object?: { catalogNumber: string; name: string | null; internationalDesignator: string };
+};
 export type UploadStatus = 'parsing' | 'previewed' | 'importing' | 'imported' | 'cancelled' | 'failed';
 export type Upload = {
   id: string;
