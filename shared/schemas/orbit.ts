@@ -91,11 +91,21 @@ export const historyQuerySchema = z.object({
 });
 export type HistoryQuery = z.output<typeof historyQuerySchema>;
 
-export const trendQuerySchema = z.object({
-  /** The window for the rate lines; defaults to the last 30 days of the history. */
-  from: isoDateTime.optional(),
-  to: isoDateTime.optional(),
-});
+export const trendQuerySchema = z
+  .object({
+    /** The window for the rate lines; defaults to the last 30 days of the history. */
+    from: isoDateTime.optional(),
+    to: isoDateTime.optional(),
+    /** The chart's view; defaults to the whole history. */
+    viewFrom: isoDateTime.optional(),
+    viewTo: isoDateTime.optional(),
+    /** Pixel columns the chart has: the view comes reduced to min/max per column. */
+    columns: z.coerce.number().int().min(10).max(4000).default(1000),
+  })
+  .refine((q) => !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom), {
+    message: 'must be after the view start',
+    path: ['viewTo'],
+  });
 
 export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
 export const snapshotSeriesSchema = z.enum(snapshotSeriesKeys);

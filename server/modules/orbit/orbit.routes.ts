@@ -182,10 +182,15 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
     engineers,
     validated({ params: idParams, query: trendQuerySchema }, async (_req, res, { params, query }) => {
       res.json(
-        await orbit.getTrend(params.id, {
-          fromMs: query.from ? Date.parse(query.from) : undefined,
-          toMs: query.to ? Date.parse(query.to) : undefined,
-        }),
+        await orbit.getTrendView(
+          params.id,
+          { fromMs: query.from ? Date.parse(query.from) : undefined, toMs: query.to ? Date.parse(query.to) : undefined },
+          {
+            fromMs: query.viewFrom ? Date.parse(query.viewFrom) : undefined,
+            toMs: query.viewTo ? Date.parse(query.viewTo) : undefined,
+            columns: query.columns,
+          },
+        ),
       );
     }),
   );

@@ -4,6 +4,7 @@ import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
+import { reduceMinMax } from '../../../shared/charts/reduce';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { median } from '../../../shared/orbit/robust-stats';
 import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
@@ -19,6 +20,8 @@ import { spacecraftView, type SpacecraftRow } from './spacecraft.repository';
 const DAY_MS = 86_400_000;
 /** Default window of the rate lines: the last 30 days of the history. */
 export const DEFAULT_RATE_WINDOW_DAYS = 30;
+/** Outliers drawn in one view at most (they are rare; a flood of them would be its own finding). */
+const OUTLIERS_SHOWN = 5_000;
 
 export const SAFETY_CAUTION =
   'Estimates from simple models — not for collision or re-entry safety decisions; rely on official space-surveillance providers.';
@@ -312,10 +315,72 @@ export function createOrbitService({ db }: { db: Db }) {
       return lines.join('\r\n') + '\r\n';
     },
 
+    /** Every stored point (snapshots freeze from this). */
     async getTrend(spacecraftId: string, window: { fromMs?: number; toMs?: number }) {
       const craft = await craftOf(spacecraftId);
       const [trend, periods] = await Promise.all([loadTrend(craft, window), periodsOf(spacecraftId)]);
       return { spacecraft: spacecraftView(craft), ...trend, sailingPeriods: periods.map(sailingPeriodView) };
+    },
+
+    /**
+     * What the chart draws: the points of the view window reduced to min/max per pixel column (so a wider window
+     * comes at a lower resolution), the outliers in the view apart, and the rate window's fit as before.
+     */
+    async getTrendView(
+      spacecraftId: string,
+      window: { fromMs?: number; toMs?: number },
+      view: { fromMs?: number; toMs?: number; columns: number },
+    ) {
+      const full = await this.getTrend(spacecraftId, window);
+      const s = full.series;
+      const n = s.epochMs.length;
+      const firstMs = n ? s.epochMs[0]! : null,
+        lastMs = n ? s.epochMs[n - 1]! : null;
+      const fromMs = view.fromMs ?? firstMs ?? 0,
+        toMs = view.toMs ?? lastMs ?? 0;
+      const outlier = new Uint8Array(n);
+      for (const i of s.outlier) outlier[i] = 1;
+      const good = n - s.outlier.length;
+      const keys = ['apogeeKm', 'perigeeKm', 'meanAltitudeKm', 'semiMajorAxisKm', 'energyJPerKg'] as const;
+      const goodT = new Float64Array(good);
+      const goodV = keys.map(() => new Float64Array(good));
+      const outT: number[] = [];
+      const outV: number[][] = keys.map(() => []);
+      for (let i = 0, g = 0; i < n; i++) {
+        const t = s.epochMs[i]!;
+        if (outlier[i]) {
+          if (t >= fromMs && t <= toMs && outT.length < OUTLIERS_SHOWN) {
+            outT.push(t);
+            keys.forEach((k, j) => outV[j]!.push(s[k][i]!));
+          }
+          continue;
+        }
+        goodT[g] = t;
+        keys.forEach((k, j) => (goodV[j]![g] = s[k][i]!));
+        g++;
+      }
+      const r = reduceMinMax(goodT, goodV, fromMs, toMs, view.columns);
+      const pick = (vals: number[][]) => ({
+        apogeeKm: vals[0]!,
+        perigeeKm: vals[1]!,
+        meanAltitudeKm: vals[2]!,
+        semiMajorAxisKm: vals[3]!,
+        energyJPerKg: vals[4]!,
+      });
+      return {
+        spacecraft: full.spacecraft,
+        series: { epochMs: r.epochMs, ...pick(r.values) },
+        outliers: { epochMs: outT, ...pick(outV) },
+        view: { fromMs, toMs, columns: view.columns, reduced: r.reduced, pointsInView: r.pointsInView },
+        extent: { firstMs, lastMs, total: n },
+        window: full.window,
+        rates: full.rates,
+        intervals: full.intervals,
+        counts: full.counts,
+        spanDays: full.spanDays,
+        rateLines: full.rateLines,
+        sailingPeriods: full.sailingPeriods,
+      };
     },
 
     async getSailYield(spacecraftId: string) {

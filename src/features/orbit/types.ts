@@ -88,17 +88,14 @@ export type TrendRates = {
   energyJPerKgPerDay: number;
   alongTrackAccelMPerS2: number;
 };
+type TrendValues = { apogeeKm: number[]; perigeeKm: number[]; meanAltitudeKm: number[]; semiMajorAxisKm: number[]; energyJPerKg: number[] };
 export type Trend = {
   spacecraft: Spacecraft;
-  series: {
-    epochMs: number[];
-    apogeeKm: number[];
-    perigeeKm: number[];
-    meanAltitudeKm: number[];
-    semiMajorAxisKm: number[];
-    energyJPerKg: number[];
-    outlier: number[];
-  };
+  /** The view, reduced to min/max per pixel column when it holds more than two points per column. */
+  series: { epochMs: number[] } & TrendValues;
+  outliers: { epochMs: number[] } & TrendValues;
+  view: { fromMs: number; toMs: number; columns: number; reduced: boolean; pointsInView: number };
+  extent: { firstMs: number | null; lastMs: number | null; total: number };
   window: { fromMs: number; toMs: number; outlierEpochsMs: number[] };
   rates: TrendRates | null;
   intervals: { [K in keyof TrendRates]: [number, number] } | null;
