@@ -51,8 +51,7 @@ export function RatesPanel({ trend }: { trend: Trend }) {
           <p className="mt-2 text-sm text-foil-300">
             Equivalent along-track acceleration{' '}
             <span className="font-semibold tabular-nums text-foil-50">{sci(r.alongTrackAccelMPerS2)} m/s²</span> ·{' '}
-            {countOf(trend.counts.used, 'set')}
-            used, {trend.counts.outliers} outliers left out
+            {countOf(trend.counts.used, 'set')} used, {countOf(trend.counts.outliers, 'outlier')} left out
             {trend.counts.duplicatesRemoved ? `, ${trend.counts.duplicatesRemoved} duplicates` : ''}.
           </p>
         </>

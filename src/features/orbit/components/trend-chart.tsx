@@ -264,7 +264,7 @@ export function TrendChart({
           options={options}
           data={data}
           xRange={{ min: view.fromMs, max: view.toMs }}
-          className="trend-uplot h-[340px] w-full sm:h-[420px]"
+          className="trend-uplot h-[400px] w-full overflow-hidden sm:h-[480px]"
         />
       </div>
       <p id="trend-summary" className="mt-3 text-sm text-foil-300" data-testid="trend-summary">

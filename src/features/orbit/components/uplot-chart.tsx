@@ -2,6 +2,8 @@ import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 
+const LEGEND_PX = 56;
+
 /**
  * A thin React home for one uPlot canvas: created once per `options` identity, fed new data with setData (no
  * re-creation on zoom), resized with its box. uPlot owns the canvas; React owns nothing inside it.
@@ -30,10 +32,12 @@ export function UPlotChart({
   useEffect(() => {
     const el = box.current;
     if (!el) return;
-    const u = new uPlot({ ...options, width: Math.max(200, el.clientWidth), height: Math.max(200, el.clientHeight) }, dataRef.current, el);
+    // The box's height holds the plot and uPlot's legend (the hover read-out) below it.
+    const size = () => ({ width: Math.max(200, el.clientWidth), height: Math.max(160, el.clientHeight - LEGEND_PX) });
+    const u = new uPlot({ ...options, ...size() }, dataRef.current, el);
     plot.current = u;
     onCreateRef.current?.(u);
-    const ro = new ResizeObserver(() => u.setSize({ width: Math.max(200, el.clientWidth), height: Math.max(200, el.clientHeight) }));
+    const ro = new ResizeObserver(() => u.setSize(size()));
     ro.observe(el);
     return () => {
       ro.disconnect();
