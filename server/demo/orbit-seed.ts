@@ -32,6 +32,7 @@ export const orbitSeeder: Seeder = {
       dragAreaEdgeOnM2: TERN1.craft.dragAreaEdgeOnM2,
       launchDate: new Date(TERN1.startMs - 12 * DAY_MS).toISOString().slice(0, 10),
       sailDeployedAt: new Date(TERN1.startMs + TERN1.deploymentDay * DAY_MS).toISOString(),
+      isMissionCraft: true,
     });
     const history = simulateTern1();
     const orbit = createOrbitModule({ db });

@@ -139,7 +139,7 @@ export function ommFieldsToElementSet(
     sourceLine: recordLine,
   };
   const { line1, line2 } = writeTle(base);
-  const record: ElementSet = { ...base, line1, line2 };
+  const record: ElementSet = { ...base, line1, line2, catalogNumberLine: fieldLine('NORAD_CAT_ID') };
   if (name !== undefined) record.name = name;
   return { record, errors };
 }

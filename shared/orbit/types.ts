@@ -9,6 +9,8 @@ export type ParseError = {
   field?: string;
   message: string;
   expected?: string;
+  /** For a set of another object: what the file says about it, to record it as a spacecraft. */
+  object?: { catalogNumber: string; name: string | null; internationalDesignator: string };
 };
 
 export type Classification = 'U' | 'C' | 'S';
@@ -48,6 +50,8 @@ export type ElementSet = {
   revAtEpoch: number;
   /** 1-based line where the record starts in its input. */
   sourceLine: number;
+  /** 1-based line holding the catalog number, when not the record's first (an OMM's NORAD_CAT_ID line). */
+  catalogNumberLine?: number;
   /** TLE lines (for OMM, written by `writeTle` so SGP4 can run on them). */
   line1: string;
   line2: string;

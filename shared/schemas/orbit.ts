@@ -16,6 +16,13 @@ const optionalDateTime = z
   .optional()
   .transform((v) => (v ? v : null));
 
+/** A number field that may be left out or empty: then 0 (a form sends "", an API client may send nothing). */
+const zeroWhenAbsent = (inner: z.ZodNumber) =>
+  z.preprocess(
+    (v) => (v === undefined || v === null || (typeof v === 'string' && v.trim() === '') ? 0 : typeof v === 'string' ? Number(v) : v),
+    inner,
+  );
+
 export const spacecraftInputSchema = z.object({
   name: safeText().trim().min(1, { message: 'Give the craft a name' }).max(80),
   slug: safeText()
@@ -32,12 +39,22 @@ export const spacecraftInputSchema = z.object({
     .regex(/^(\d{5}[A-Z]{1,3})?$/, { message: 'must look like 25012A (year, launch number, piece) or be empty' })
     .default(''),
   massKg: z.coerce.number().gt(0, { message: 'must be more than 0 kg' }).max(10_000),
-  sailAreaM2: z.coerce.number().gt(0, { message: 'must be more than 0 m²' }).max(100_000),
-  sailReflectivity: z.coerce.number().min(0, { message: 'must be between 0 and 1' }).max(1, { message: 'must be between 0 and 1' }),
+  /** 0 (or left out) for a comparison object without a sail. */
+  sailAreaM2: zeroWhenAbsent(
+    z.number({ message: 'must be a number (0 for no sail)' }).min(0, { message: 'must be 0 m² (no sail) or more' }).max(100_000),
+  ),
+  sailReflectivity: zeroWhenAbsent(
+    z
+      .number({ message: 'must be between 0 and 1' })
+      .min(0, { message: 'must be between 0 and 1' })
+      .max(1, { message: 'must be between 0 and 1' }),
+  ),
   dragCoefficient: z.coerce.number().gt(0).max(10),
   dragAreaEdgeOnM2: z.coerce.number().gt(0, { message: 'must be more than 0 m²' }).max(100_000),
   launchDate: optionalDate,
   sailDeployedAt: optionalDateTime,
+  /** The mission's own craft (at most one): marking this one unmarks the other. */
+  isMissionCraft: z.boolean().default(false),
 });
 export type SpacecraftInput = z.output<typeof spacecraftInputSchema>;
 
@@ -80,11 +97,21 @@ export const historyQuerySchema = z.object({
 });
 export type HistoryQuery = z.output<typeof historyQuerySchema>;
 
-export const trendQuerySchema = z.object({
-  /** The window for the rate lines; defaults to the last 30 days of the history. */
-  from: isoDateTime.optional(),
-  to: isoDateTime.optional(),
-});
+export const trendQuerySchema = z
+  .object({
+    /** The window for the rate lines; defaults to the last 30 days of the history. */
+    from: isoDateTime.optional(),
+    to: isoDateTime.optional(),
+    /** The chart's view; defaults to the whole history. */
+    viewFrom: isoDateTime.optional(),
+    viewTo: isoDateTime.optional(),
+    /** Pixel columns the chart has: the view comes reduced to min/max per column. */
+    columns: z.coerce.number().int().min(10).max(4000).default(1000),
+  })
+  .refine((q) => !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom), {
+    message: 'must be after the view start',
+    path: ['viewTo'],
+  });
 
 export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
 export const snapshotSeriesSchema = z.enum(snapshotSeriesKeys);
@@ -97,7 +124,8 @@ export const snapshotAnnotationSchema = z.object({
 
 export const createSnapshotSchema = z
   .object({
-    spacecraftId: z.uuid(),
+    /** Left out: the mission craft. */
+    spacecraftId: z.uuid().optional(),
     title: safeText().trim().min(1, { message: 'Give the snapshot a title' }).max(120),
     caption: safeText({ multiline: true }).trim().max(1000).default(''),
     fromMs: z.number().finite(),

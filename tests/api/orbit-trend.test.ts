@@ -3,6 +3,7 @@ import type { Agent, TestApp } from '../setup/test-app';
 import { formatTleFile } from '../../shared/orbit/tle-write';
 import { parseElementSets } from '../../shared/orbit/parse-element-sets';
 import { computeTrend } from '../../shared/orbit/trends';
+import { reduceMinMax } from '../../shared/charts/reduce';
 import { compareSailingPeriods } from '../../shared/orbit/sailing-periods';
 import { deriveElementSet } from '../../shared/orbit/derived';
 import { simulateTern1, TERN1 } from '../../shared/orbit/simulate';
@@ -62,9 +63,12 @@ describe('the trend endpoint', () => {
   });
 
   it('returns every stored set as a series, with the SGP4-derived values of each', async () => {
-    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
+    // 1,198 sets in 4,000 columns: nothing to reduce; the outliers come apart from the line.
+    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ columns: 4000 }).expect(200);
     const s = res.body.series;
-    expect(s.epochMs).toHaveLength(history.sets.length - TERN1.duplicateDays.length);
+    expect(res.body.view.reduced).toBe(false);
+    expect(s.epochMs.length + res.body.outliers.epochMs.length).toBe(history.sets.length - TERN1.duplicateDays.length);
+    expect(res.body.extent.total).toBe(history.sets.length - TERN1.duplicateDays.length);
     const k = 500;
     const set = parsed.find((p) => p.epochMs === s.epochMs[k])!;
     const d = deriveElementSet(set);
@@ -72,14 +76,14 @@ describe('the trend endpoint', () => {
     expect(s.perigeeKm[k]).toBe(d.perigeeAltitudeKm);
     expect(s.energyJPerKg[k]).toBe(d.specificEnergyJPerKg);
     // Default window: the last 30 days of the history.
-    expect(res.body.window.toMs).toBe(s.epochMs[s.epochMs.length - 1]);
+    expect(res.body.window.toMs).toBe(res.body.extent.lastMs);
     expect(res.body.window.toMs - res.body.window.fromMs).toBe(30 * DAY);
     expect(res.body.sailingPeriods).toHaveLength(history.periods.length);
   });
 
   it('flags the injected bad fits as outliers and little else', async () => {
-    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
-    const flagged = new Set<number>(res.body.series.outlier.map((i: number) => res.body.series.epochMs[i]));
+    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ columns: 4000 }).expect(200);
+    const flagged = new Set<number>(res.body.outliers.epochMs);
     const injected = history.sets.filter((s) => s.outlier).map((s) => parsed.find((p) => Math.abs(p.epochMs - s.epochMs) < 1)!.epochMs);
     expect(injected).toHaveLength(TERN1.outlierDays.length);
     for (const ms of injected) expect(flagged.has(ms), new Date(ms).toISOString()).toBe(true);
@@ -90,15 +94,15 @@ describe('the trend endpoint', () => {
 describe('the sail-yield panel', () => {
   it('compares sailing periods as the engine does and gives the model, crossover, fractions and lifetime with its caution', async () => {
     const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/sail-yield`).expect(200);
-    const trend = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).expect(200);
-    const s = trend.body.series;
-    const outliers = new Set<number>(s.outlier);
-    const points = s.epochMs.map((ms: number, i: number) => ({
-      epochMs: ms,
-      specificEnergyJPerKg: s.energyJPerKg[i],
-      semiMajorAxisKm: s.semiMajorAxisKm[i],
-      outlier: outliers.has(i),
-    }));
+    const trend = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ columns: 4000 }).expect(200);
+    const pointsOf = (s: { epochMs: number[]; energyJPerKg: number[]; semiMajorAxisKm: number[] }, outlier: boolean) =>
+      s.epochMs.map((ms, i) => ({
+        epochMs: ms,
+        specificEnergyJPerKg: s.energyJPerKg[i]!,
+        semiMajorAxisKm: s.semiMajorAxisKm[i]!,
+        outlier,
+      }));
+    const points = [...pointsOf(trend.body.series, false), ...pointsOf(trend.body.outliers, true)].sort((a, b) => a.epochMs - b.epochMs);
     const engine = compareSailingPeriods(points, history.periods);
     expect(rel(res.body.comparison.sailYieldMPerS2, engine.sailYieldMPerS2!)).toBeLessThan(1e-12);
     expect(res.body.comparison.sailYieldMPerS2).toBeGreaterThan(0);
@@ -169,5 +173,69 @@ describe('the public orbit summary', () => {
   it('keeps the trend itself to engineers and admins', async () => {
     const outreach = await signedInAs(t, 'outreach');
     expect((await outreach.get(`/api/orbit/spacecraft/${craftId}/trend`)).status).toBe(403);
+  });
+});
+
+describe('the trend view for the chart', () => {
+  it('reduces a wide view to min and max per pixel column, keeping the envelope of every series', async () => {
+    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ columns: 50 }).expect(200);
+    const { rows } = await t.database.pool.query(
+      'select epoch_ms, apogee_altitude_km, perigee_altitude_km from element_sets where spacecraft_id = $1 and not outlier order by epoch_ms',
+      [craftId],
+    );
+    expect(res.body.view).toMatchObject({ columns: 50, reduced: true, pointsInView: rows.length });
+    expect(res.body.series.epochMs.length).toBeLessThanOrEqual(100);
+    expect(res.body.series.epochMs.length).toBeGreaterThan(50);
+    const max = (xs: number[]) => xs.reduce((a, b) => Math.max(a, b), -Infinity);
+    const min = (xs: number[]) => xs.reduce((a, b) => Math.min(a, b), Infinity);
+    expect(max(res.body.series.apogeeKm)).toBe(max(rows.map((r) => r.apogee_altitude_km)));
+    expect(min(res.body.series.perigeeKm)).toBe(min(rows.map((r) => r.perigee_altitude_km)));
+    // Outliers come apart from the line, every one of them in the view.
+    const { rows: bad } = await t.database.pool.query('select count(*)::int as n from element_sets where spacecraft_id = $1 and outlier', [
+      craftId,
+    ]);
+    expect(res.body.outliers.epochMs.length).toBe(bad[0].n);
+    expect(res.body.extent.total).toBe(rows.length + bad[0].n);
+  });
+
+  it('gives a zoomed view at full resolution', async () => {
+    const viewFrom = new Date(TERN1.startMs + 100 * DAY).toISOString(),
+      viewTo = new Date(TERN1.startMs + 110 * DAY).toISOString();
+    const res = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ viewFrom, viewTo, columns: 800 }).expect(200);
+    expect(res.body.view.reduced).toBe(false);
+    const { rows } = await t.database.pool.query(
+      'select epoch_ms from element_sets where spacecraft_id = $1 and not outlier and epoch_ms between $2 and $3 order by epoch_ms',
+      [craftId, Date.parse(viewFrom), Date.parse(viewTo)],
+    );
+    expect(res.body.series.epochMs).toEqual(rows.map((r) => r.epoch_ms));
+  });
+
+  it('draws the same series on screen as a snapshot frozen from the same window', async () => {
+    const fromMs = TERN1.startMs + 20 * DAY,
+      toMs = TERN1.startMs + 140 * DAY;
+    const snap = await engineer
+      .post('/api/orbit/snapshots')
+      .set('x-csrf-token', engineer.csrf)
+      .send({ spacecraftId: craftId, title: 'Same window', fromMs, toMs, series: ['apogee', 'perigee'] });
+    expect(snap.status, JSON.stringify(snap.body)).toBe(201);
+    const data = snap.body.snapshot.data;
+    for (const columns of [60, 4000]) {
+      const screen = await engineer
+        .get(`/api/orbit/spacecraft/${craftId}/trend`)
+        .query({ viewFrom: new Date(fromMs).toISOString(), viewTo: new Date(toMs).toISOString(), columns })
+        .expect(200);
+      const keep = data.points.outlier.map((o: boolean, i: number) => (o ? -1 : i)).filter((i: number) => i >= 0);
+      const frozen = reduceMinMax(
+        keep.map((i: number) => data.points.epochMs[i]),
+        [keep.map((i: number) => data.points.values.apogee[i]), keep.map((i: number) => data.points.values.perigee[i])],
+        fromMs,
+        toMs,
+        columns,
+      );
+      expect(screen.body.series.epochMs).toEqual(frozen.epochMs);
+      expect(screen.body.series.apogeeKm).toEqual(frozen.values[0]);
+      expect(screen.body.series.perigeeKm).toEqual(frozen.values[1]);
+      expect(screen.body.outliers.epochMs).toEqual(data.points.epochMs.filter((_: number, i: number) => data.points.outlier[i]));
+    }
   });
 });

@@ -242,6 +242,8 @@ export const rbacTable: Row[] = [
     engineer: 404,
     admin: 404,
   },
+  // Without a handle: the mission craft's summary (the RBAC database has no craft).
+  { route: 'GET /api/public/orbit', anon: 404, backer: 404, outreach: 404, engineer: 404, finance: 404, admin: 404 },
   {
     route: 'GET /api/public/orbit/:slug/latest-set',
     sample: '/api/public/orbit/tern-1/latest-set',

@@ -44,7 +44,7 @@ describe('the orbit desk in the browser', () => {
 
     await preview.getByRole('link', { name: 'See the trend' }).click();
     await page.getByRole('heading', { name: 'Orbit trend' }).waitFor();
-    await page.getByTestId('trend-chart').locator('.recharts-line-curve').first().waitFor();
+    await page.getByTestId('trend-chart').locator('canvas').first().waitFor();
     const rates = page.getByTestId('rates');
     await rates.waitFor();
     expect(await rates.innerText()).toMatch(/Apogee\s+[+-]\d+\.\d{3} km\/day/i);
@@ -68,6 +68,76 @@ describe('the orbit desk in the browser', () => {
     expect(problems).toEqual([]);
     await context.close();
   });
+
+  it('loads the trend of a large history and zooms on it', async () => {
+    const { page, context, problems } = await newPage(browser);
+    await signInAs(page, baseUrl, 'engineer@saltmarsh.example', DEMO_PASSWORD);
+    // A comparison object with 20,000 sets, recorded and uploaded through the API as the desk does.
+    const api = page.request;
+    const csrf = (await (await api.get(`${baseUrl}/api/auth/csrf`)).json()).csrfToken as string;
+    const craft = await api.post(`${baseUrl}/api/orbit/spacecraft`, {
+      headers: { 'x-csrf-token': csrf },
+      data: { name: 'Bulk reference', slug: 'bulk-ref', catalogNumber: '41010', massKg: 60, dragCoefficient: 2.2, dragAreaEdgeOnM2: 0.4 },
+    });
+    expect(craft.status()).toBe(201);
+    const craftId = (await craft.json()).spacecraft.id as string;
+    const many = simulateTern1({ days: 400 }).sets.filter((s) => !s.duplicate);
+    const sets = Array.from({ length: 20_000 }, (_, i) => {
+      const base = many[i % many.length]!;
+      return {
+        ...base,
+        catalogNumber: '41010',
+        catalogNumberInt: 41010,
+        epochMs: Date.UTC(2021, 0, 1) + i * 3_600_000,
+        elementSetNo: (i % 999) + 1,
+      };
+    });
+    const up = await api.post(`${baseUrl}/api/orbit/spacecraft/${craftId}/uploads`, {
+      headers: { 'x-csrf-token': csrf },
+      multipart: { file: { name: 'bulk.tle', mimeType: 'text/plain', buffer: Buffer.from(formatTleFile(sets)) } },
+    });
+    expect(up.status()).toBe(202);
+    const jobId = (await up.json()).upload.id as string;
+    const waitFor = async (status: string) =>
+      expect
+        .poll(async () => (await (await api.get(`${baseUrl}/api/orbit/uploads/${jobId}`)).json()).upload.status, { timeout: 60_000 })
+        .toBe(status);
+    await waitFor('previewed');
+    await api.post(`${baseUrl}/api/orbit/uploads/${jobId}/import`, { headers: { 'x-csrf-token': csrf }, data: {} });
+    await waitFor('imported');
+
+    await page.goto(`${baseUrl}/console/orbit`);
+    await page.getByLabel('Spacecraft').selectOption({ label: 'Bulk reference' });
+    const summary = page.getByTestId('trend-summary');
+    await expect
+      .poll(async () => summary.innerText(), { timeout: 30_000 })
+      .toMatch(/: (19|20),\d{3} element sets in view, drawn as the lowest and highest value/);
+    await page.getByTestId('sail-not-applicable').waitFor();
+    await shot(page, 'orbit-09-large-history-desktop');
+    // Drag across the middle of the plot: the view narrows and comes back at a finer resolution.
+    const plot = page.getByTestId('trend-chart').locator('.u-over');
+    const box = (await plot.boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.4, box.y + box.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(box.x + box.width * 0.45, box.y + box.height / 2, { steps: 5 });
+    await page.mouse.up();
+    await expect
+      .poll(async () => summary.innerText(), { timeout: 30_000 })
+      .toMatch(/^\d{4}-\d{2}-\d{2} to \d{4}-\d{2}-\d{2}: [\d,]+ element sets in view;/);
+    const zoomed = Number((await summary.innerText()).match(/: ([\d,]+) element sets in view/)![1]!.replace(/,/g, ''));
+    expect(zoomed).toBeGreaterThan(500);
+    expect(zoomed).toBeLessThan(2_000);
+    // The keyboard does the same: zoom out once, then back to the whole history.
+    await page.getByTestId('trend-chart').focus();
+    await page.keyboard.press('-');
+    await page.keyboard.press('Home');
+    await expect.poll(async () => summary.innerText()).toMatch(/: (19|20),\d{3} element sets in view, drawn/);
+    await page.getByRole('button', { name: 'Zoom in' }).click();
+    await expect.poll(async () => summary.innerText()).toMatch(/^[^:]+: (?!(19|20),\d{3} )[\d,]+ element sets in view/);
+    await shot(page, 'orbit-10-large-history-zoomed-desktop');
+    expect(problems).toEqual([]);
+    await context.close();
+  }, 180_000);
 
   it('fits a phone screen', async () => {
     const { page, context, problems } = await newPage(browser, { width: 390, height: 844 });

@@ -11,10 +11,10 @@ beforeAll(async () => {
 afterAll(async () => browser?.close());
 
 // What each role's console navigation shows; a backer has no console at all.
-const sections = ['Orbit desk', 'Dispatch desk', 'Books', 'People'];
+const sections = ['Orbit desk', 'Dispatch desk', 'Snapshot gallery', 'Books', 'People'];
 const expected: Record<string, string[]> = {
   backer: [],
-  outreach: ['Dispatch desk'],
+  outreach: ['Dispatch desk', 'Snapshot gallery'],
   engineer: ['Orbit desk'],
   finance: ['Books'],
   admin: sections,

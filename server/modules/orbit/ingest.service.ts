@@ -94,11 +94,15 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
   for (const r of parsed.records) {
     if (r.catalogNumberInt !== craft.catalogNumberInt) {
       ownInvalid++;
+      // Point at the catalog number itself: an OMM names it on its own line, a named TLE on the line after the name.
+      const tle = parsed.format === 'tle';
       errors.push({
-        line: r.sourceLine,
-        field: 'catalog number',
+        line: r.catalogNumberLine ?? (tle && r.name !== undefined ? r.sourceLine + 1 : r.sourceLine),
+        ...(tle ? { columns: [3, 7] as [number, number] } : {}),
+        field: tle ? 'catalog number' : 'NORAD_CAT_ID',
         message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`,
         expected: craft.catalogNumber,
+        object: { catalogNumber: r.catalogNumber, name: r.name ?? null, internationalDesignator: r.internationalDesignator },
       });
       continue;
     }
@@ -697,13 +701,19 @@ function plural(n: number, one: string, many = `${one}s`) {
 }
 
 export function previewMessage(fresh: number, duplicates: number, invalid: number): string {
-  if (fresh === 0 && duplicates > 0 && invalid === 0) return `Nothing new: all ${plural(duplicates, 'element set')} are already stored.`;
+  if (fresh === 0 && duplicates > 0 && invalid === 0)
+    return duplicates === 1
+      ? 'Nothing new: the one element set is already stored.'
+      : `Nothing new: all ${plural(duplicates, 'element set')} are already stored.`;
   if (fresh === 0 && duplicates === 0) return `No valid element sets: ${plural(invalid, 'invalid record')}. Nothing can be imported.`;
   return `${plural(fresh, 'new element set')} ready to import; ${plural(duplicates, 'duplicate')} and ${plural(invalid, 'invalid record')} will be skipped.`;
 }
 
 export function importMessage(imported: number, duplicates: number): string {
   if (imported === 0 && duplicates === 0) return 'Nothing imported: the file held no valid element sets.';
-  if (imported === 0) return `Nothing imported: all ${plural(duplicates, 'element set')} were already stored.`;
+  if (imported === 0)
+    return duplicates === 1
+      ? 'Nothing imported: the one element set was already stored.'
+      : `Nothing imported: all ${plural(duplicates, 'element set')} were already stored.`;
   return `Imported ${plural(imported, 'element set')}${duplicates ? `; skipped ${plural(duplicates, 'duplicate')}` : ''}.`;
 }

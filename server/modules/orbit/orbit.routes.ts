@@ -184,10 +184,15 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
     engineers,
     validated({ params: idParams, query: trendQuerySchema }, async (_req, res, { params, query }) => {
       res.json(
-        await orbit.getTrend(params.id, {
-          fromMs: query.from ? Date.parse(query.from) : undefined,
-          toMs: query.to ? Date.parse(query.to) : undefined,
-        }),
+        await orbit.getTrendView(
+          params.id,
+          { fromMs: query.from ? Date.parse(query.from) : undefined, toMs: query.to ? Date.parse(query.to) : undefined },
+          {
+            fromMs: query.viewFrom ? Date.parse(query.viewFrom) : undefined,
+            toMs: query.viewTo ? Date.parse(query.viewTo) : undefined,
+            columns: query.columns,
+          },
+        ),
       );
     }),
   );
@@ -340,6 +345,9 @@ export function createPublicSnapshotsRouter({ module }: { module: OrbitModule })
 /** Anyone: the public orbit summary of a spacecraft. */
 export function createPublicOrbitRouter({ module }: { module: OrbitModule }) {
   const router = Router();
+  router.get('/', async (_req, res) => {
+    res.set('cache-control', 'public, max-age=60').json(await module.orbit.publicSummary(null));
+  });
   router.get(
     '/:slug',
     validated(

@@ -5,6 +5,7 @@ import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit, recordChange } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
+import { reduceMinMax } from '../../../shared/charts/reduce';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { median } from '../../../shared/orbit/robust-stats';
 import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
@@ -13,12 +14,15 @@ import { estimateLifetime } from '../../../shared/orbit/lifetime';
 import type { SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
-import { fileNotFound, sailingPeriodNotFound, spacecraftNotFound } from './orbit.errors';
+import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
+import { overlapping, trimToFree } from '../../../shared/orbit/period-overlap';
 import { spacecraftView, type SpacecraftRow } from './spacecraft.repository';
 
 const DAY_MS = 86_400_000;
 /** Default window of the rate lines: the last 30 days of the history. */
 export const DEFAULT_RATE_WINDOW_DAYS = 30;
+/** Outliers drawn in one view at most (they are rare; a flood of them would be its own finding). */
+const OUTLIERS_SHOWN = 5_000;
 
 export const SAFETY_CAUTION =
   'Estimates from simple models — not for collision or re-entry safety decisions; rely on official space-surveillance providers.';
@@ -156,6 +160,10 @@ const historyCsvColumns: CsvColumn<HistoryCsvRow>[] = [
   { header: 'source_file', value: (r) => r.fileName },
   { header: 'source_line', value: (r) => r.sourceLine },
 ];
+function isOverlapViolation(err: unknown): boolean {
+  const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } };
+  return (e.code ?? e.cause?.code) === '23P01' && (e.constraint ?? e.cause?.constraint) === 'sailing_periods_no_overlap';
+}
 
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
@@ -169,6 +177,26 @@ export function createOrbitService({ db }: { db: Db }) {
 
   async function periodsOf(spacecraftId: string) {
     return db.select().from(sailingPeriods).where(eq(sailingPeriods.spacecraftId, spacecraftId)).orderBy(asc(sailingPeriods.startAt));
+  }
+
+  /**
+   * Runs a save; when the database's exclusion constraint refuses it (also when another save got in first), answers
+   * a 409 naming the period in the way and the trim that would fit.
+   */
+  async function guardOverlap<T>(spacecraftId: string, ownId: string | null, input: SailingPeriodInput, save: () => Promise<T>) {
+    try {
+      return await save();
+    } catch (err) {
+      if (!isOverlapViolation(err)) throw err;
+      const requested = { startMs: Date.parse(input.startAt), endMs: Date.parse(input.endAt) };
+      const others = (await periodsOf(spacecraftId))
+        .filter((p) => p.id !== ownId)
+        .map((p) => ({ mode: p.mode, startMs: p.startAt.getTime(), endMs: p.endAt.getTime() }));
+      const first = overlapping(requested, others)[0];
+      // The other save may have been rolled back meanwhile: still refuse, naming what the constraint saw.
+      if (!first) throw sailingPeriodOverlap(requested, { mode: 'other', ...requested }, null);
+      throw sailingPeriodOverlap(requested, first, trimToFree(requested, others));
+    }
   }
 
   function historyFilter(spacecraftId: string, q: Pick<HistoryQuery, 'from' | 'to'>) {
@@ -293,10 +321,72 @@ export function createOrbitService({ db }: { db: Db }) {
       return toCsv(rows, historyCsvColumns);
     },
 
+    /** Every stored point (snapshots freeze from this). */
     async getTrend(spacecraftId: string, window: { fromMs?: number; toMs?: number }) {
       const craft = await craftOf(spacecraftId);
       const [trend, periods] = await Promise.all([loadTrend(craft, window), periodsOf(spacecraftId)]);
       return { spacecraft: spacecraftView(craft), ...trend, sailingPeriods: periods.map(sailingPeriodView) };
+    },
+
+    /**
+     * What the chart draws: the points of the view window reduced to min/max per pixel column (so a wider window
+     * comes at a lower resolution), the outliers in the view apart, and the rate window's fit as before.
+     */
+    async getTrendView(
+      spacecraftId: string,
+      window: { fromMs?: number; toMs?: number },
+      view: { fromMs?: number; toMs?: number; columns: number },
+    ) {
+      const full = await this.getTrend(spacecraftId, window);
+      const s = full.series;
+      const n = s.epochMs.length;
+      const firstMs = n ? s.epochMs[0]! : null,
+        lastMs = n ? s.epochMs[n - 1]! : null;
+      const fromMs = view.fromMs ?? firstMs ?? 0,
+        toMs = view.toMs ?? lastMs ?? 0;
+      const outlier = new Uint8Array(n);
+      for (const i of s.outlier) outlier[i] = 1;
+      const good = n - s.outlier.length;
+      const keys = ['apogeeKm', 'perigeeKm', 'meanAltitudeKm', 'semiMajorAxisKm', 'energyJPerKg'] as const;
+      const goodT = new Float64Array(good);
+      const goodV = keys.map(() => new Float64Array(good));
+      const outT: number[] = [];
+      const outV: number[][] = keys.map(() => []);
+      for (let i = 0, g = 0; i < n; i++) {
+        const t = s.epochMs[i]!;
+        if (outlier[i]) {
+          if (t >= fromMs && t <= toMs && outT.length < OUTLIERS_SHOWN) {
+            outT.push(t);
+            keys.forEach((k, j) => outV[j]!.push(s[k][i]!));
+          }
+          continue;
+        }
+        goodT[g] = t;
+        keys.forEach((k, j) => (goodV[j]![g] = s[k][i]!));
+        g++;
+      }
+      const r = reduceMinMax(goodT, goodV, fromMs, toMs, view.columns);
+      const pick = (vals: number[][]) => ({
+        apogeeKm: vals[0]!,
+        perigeeKm: vals[1]!,
+        meanAltitudeKm: vals[2]!,
+        semiMajorAxisKm: vals[3]!,
+        energyJPerKg: vals[4]!,
+      });
+      return {
+        spacecraft: full.spacecraft,
+        series: { epochMs: r.epochMs, ...pick(r.values) },
+        outliers: { epochMs: outT, ...pick(outV) },
+        view: { fromMs, toMs, columns: view.columns, reduced: r.reduced, pointsInView: r.pointsInView },
+        extent: { firstMs, lastMs, total: n },
+        window: full.window,
+        rates: full.rates,
+        intervals: full.intervals,
+        counts: full.counts,
+        spanDays: full.spanDays,
+        rateLines: full.rateLines,
+        sailingPeriods: full.sailingPeriods,
+      };
     },
 
     async getSailYield(spacecraftId: string) {
@@ -322,7 +412,31 @@ export function createOrbitService({ db }: { db: Db }) {
         [craft.id],
       );
       const latest = latestRows[0];
-      if (!latest) return { spacecraft: spacecraftView(craft), comparison, model: null, caution: SAFETY_CAUTION };
+      const sailApplies = craft.sailAreaM2 > 0;
+      if (!latest)
+        return {
+          spacecraft: spacecraftView(craft),
+          sailApplies,
+          comparison: sailApplies ? comparison : null,
+          model: null,
+          lifetime: null,
+          caution: SAFETY_CAUTION,
+        };
+      if (!sailApplies) {
+        // A comparison object without a sail: no sail yield, no crossover; its lifetime is drag alone.
+        const dragOnly = estimateLifetime(
+          { epochMs: latest.epoch_ms, semiMajorAxisKm: latest.semi_major_axis_km, eccentricity: latest.eccentricity },
+          { massKg: craft.massKg, dragAreaM2: craft.dragAreaEdgeOnM2, dragCoefficient: craft.dragCoefficient },
+        );
+        return {
+          spacecraft: spacecraftView(craft),
+          sailApplies,
+          comparison: null,
+          model: null,
+          lifetime: dragOnly ? { ...dragOnly, basis: 'drag only, no sail' } : null,
+          caution: SAFETY_CAUTION,
+        };
+      }
       const altitudeKm = latest.mean_altitude_km;
       const betaDeg = betaAngleDeg({ epochMs: latest.epoch_ms, inclinationDeg: latest.inclination_deg, raanDeg: latest.raan_deg });
       const geometry = sailThrustGeometry({ altitudeKm, betaDeg, samples: 720 });
@@ -352,6 +466,7 @@ export function createOrbitService({ db }: { db: Db }) {
       );
       return {
         spacecraft: spacecraftView(craft),
+        sailApplies,
         comparison,
         model: {
           atEpochMs: latest.epoch_ms,
@@ -367,7 +482,7 @@ export function createOrbitService({ db }: { db: Db }) {
             `drag area while raising averaged over the orbit: ${raisingArea.toFixed(2)} m²; edge-on ${craft.dragAreaEdgeOnM2} m²`,
           ],
         },
-        lifetime: lifetime ? { ...lifetime, basis: 'sail edge-on (drag only)' } : null,
+        lifetime: lifetime ? { ...lifetime, basis: 'sail edge-on, drag only' } : null,
         caution: SAFETY_CAUTION,
       };
     },
@@ -411,56 +526,65 @@ export function createOrbitService({ db }: { db: Db }) {
 
     async createSailingPeriod(actorId: string | null, spacecraftId: string, input: SailingPeriodInput) {
       await craftOf(spacecraftId);
-      return db.transaction(async (tx) => {
-        const [row] = await tx
-          .insert(sailingPeriods)
-          .values({
-            spacecraftId,
-            startAt: new Date(input.startAt),
-            endAt: new Date(input.endAt),
-            mode: input.mode,
-            note: input.note,
-            createdBy: actorId,
-          })
-          .returning();
-        const view = sailingPeriodView(row!);
-        await recordAudit(tx, {
-          actorId,
-          action: 'sailing_period.created',
-          subjectType: 'sailing_period',
-          subjectId: row!.id,
-          after: view,
-        });
-        return view;
-      });
+      return guardOverlap(spacecraftId, null, input, () =>
+        db.transaction(async (tx) => {
+          const [row] = await tx
+            .insert(sailingPeriods)
+            .values({
+              spacecraftId,
+              startAt: new Date(input.startAt),
+              endAt: new Date(input.endAt),
+              mode: input.mode,
+              note: input.note,
+              createdBy: actorId,
+            })
+            .returning();
+          const view = sailingPeriodView(row!);
+          await recordAudit(tx, {
+            actorId,
+            action: 'sailing_period.created',
+            subjectType: 'sailing_period',
+            subjectId: row!.id,
+            after: view,
+          });
+          return view;
+        }),
+      );
     },
 
     async updateSailingPeriod(actorId: string | null, id: string, input: SailingPeriodInput) {
-      return db.transaction(async (tx) => {
-        const [before] = await tx.select().from(sailingPeriods).where(eq(sailingPeriods.id, id)).for('update');
-        if (!before) throw sailingPeriodNotFound();
-        const [row] = await tx
-          .update(sailingPeriods)
-          .set({
-            startAt: new Date(input.startAt),
-            endAt: new Date(input.endAt),
-            mode: input.mode,
-            note: input.note,
-            updatedAt: new Date(),
-          })
-          .where(eq(sailingPeriods.id, id))
-          .returning();
-        const view = sailingPeriodView(row!);
-        await recordChange(tx, {
-          actorId,
-          action: 'sailing_period.updated',
-          subjectType: 'sailing_period',
-          subjectId: id,
-          before: sailingPeriodView(before),
-          after: view,
-        });
-        return view;
-      });
+      const [current] = await db
+        .select({ spacecraftId: sailingPeriods.spacecraftId })
+        .from(sailingPeriods)
+        .where(eq(sailingPeriods.id, id));
+      if (!current) throw sailingPeriodNotFound();
+      return guardOverlap(current.spacecraftId, id, input, () =>
+        db.transaction(async (tx) => {
+          const [before] = await tx.select().from(sailingPeriods).where(eq(sailingPeriods.id, id)).for('update');
+          if (!before) throw sailingPeriodNotFound();
+          const [row] = await tx
+            .update(sailingPeriods)
+            .set({
+              startAt: new Date(input.startAt),
+              endAt: new Date(input.endAt),
+              mode: input.mode,
+              note: input.note,
+              updatedAt: new Date(),
+            })
+            .where(eq(sailingPeriods.id, id))
+            .returning();
+          const view = sailingPeriodView(row!);
+          await recordChange(tx, {
+            actorId,
+            action: 'sailing_period.updated',
+            subjectType: 'sailing_period',
+            subjectId: id,
+            before: sailingPeriodView(before),
+            after: view,
+          });
+          return view;
+        }),
+      );
     },
 
     async deleteSailingPeriod(actorId: string | null, id: string) {
@@ -478,8 +602,12 @@ export function createOrbitService({ db }: { db: Db }) {
     },
 
     /** The public orbit summary: latest apogee/perigee and the trend since sail deployment. */
-    async publicSummary(slug: string) {
-      const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.slug, slug));
+    async publicSummary(slug: string | null) {
+      // Without a handle: the mission's own craft.
+      const [craft] = await db
+        .select()
+        .from(spacecraft)
+        .where(slug === null ? eq(spacecraft.isMissionCraft, true) : eq(spacecraft.slug, slug));
       if (!craft) throw spacecraftNotFound();
       const { rows } = await pool.query<{
         epoch_ms: number;

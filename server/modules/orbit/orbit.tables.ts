@@ -35,10 +35,20 @@ export const spacecraft = pgTable(
     dragAreaEdgeOnM2: doublePrecision('drag_area_edge_on_m2').notNull(),
     launchDate: date('launch_date'),
     sailDeployedAt: timestamp('sail_deployed_at', { withTimezone: true }),
+    /** The mission's own craft: the desk, the public pages and snapshots default to it. At most one (index below). */
+    isMissionCraft: boolean('is_mission_craft').notNull().default(false),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [uniqueIndex('spacecraft_slug_key').on(t.slug), uniqueIndex('spacecraft_catalog_key').on(t.catalogNumberInt)],
+  (t) => [
+    uniqueIndex('spacecraft_slug_key').on(t.slug),
+    uniqueIndex('spacecraft_catalog_key').on(t.catalogNumberInt),
+    uniqueIndex('spacecraft_one_mission_craft')
+      .on(t.isMissionCraft)
+      .where(sql`${t.isMissionCraft}`),
+    // A comparison object may have no sail: area 0.
+    check('spacecraft_sail_area_not_negative', sql`${t.sailAreaM2} >= 0`),
+  ],
 );
 
 export const elementSetFiles = pgTable(

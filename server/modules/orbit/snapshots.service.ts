@@ -78,7 +78,11 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
   return {
     /** Freezes the chart as it is now: the points in the window, the periods, the rate lines, the notes. */
     async create(actorId: string, input: CreateSnapshotInput) {
-      const [craft] = await db.select().from(spacecraft).where(eq(spacecraft.id, input.spacecraftId));
+      // Without a craft named: the mission's own.
+      const [craft] = await db
+        .select()
+        .from(spacecraft)
+        .where(input.spacecraftId ? eq(spacecraft.id, input.spacecraftId) : eq(spacecraft.isMissionCraft, true));
       if (!craft) throw spacecraftNotFound();
       const rateFromMs = input.rateFromMs ?? input.fromMs;
       const rateToMs = input.rateToMs ?? input.toMs;

@@ -1,10 +1,10 @@
-import { asc, eq } from 'drizzle-orm';
+import { and, asc, desc, eq, ne } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { recordAudit, recordChange } from '../audit/audit.repository';
 import { parseCatalogNumber, formatCatalogNumber } from '../../../shared/orbit/catalog-number';
 import type { SpacecraftInput } from '../../../shared/schemas/orbit';
 import { spacecraft } from './orbit.tables';
-import { spacecraftNotFound, spacecraftTaken } from './orbit.errors';
+import { missionCraftRace, spacecraftNotFound, spacecraftTaken } from './orbit.errors';
 
 export type SpacecraftRow = typeof spacecraft.$inferSelect;
 
@@ -22,6 +22,8 @@ export function spacecraftView(row: SpacecraftRow) {
     dragAreaEdgeOnM2: row.dragAreaEdgeOnM2,
     launchDate: row.launchDate,
     sailDeployedAt: row.sailDeployedAt?.toISOString() ?? null,
+    isMissionCraft: row.isMissionCraft,
+    hasSail: row.sailAreaM2 > 0,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
   };
@@ -43,7 +45,18 @@ function toColumns(input: SpacecraftInput) {
     dragAreaEdgeOnM2: input.dragAreaEdgeOnM2,
     launchDate: input.launchDate,
     sailDeployedAt: input.sailDeployedAt ? new Date(input.sailDeployedAt) : null,
+    isMissionCraft: input.isMissionCraft,
   };
+}
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+/** Marking a craft as the mission's own unmarks the one marked before (the partial unique index holds the rule). */
+async function unmarkOthers(tx: Tx, keepId: string | null) {
+  await tx
+    .update(spacecraft)
+    .set({ isMissionCraft: false, updatedAt: new Date() })
+    .where(keepId ? and(eq(spacecraft.isMissionCraft, true), ne(spacecraft.id, keepId)) : eq(spacecraft.isMissionCraft, true));
 }
 
 function mapUnique(err: unknown): never {
@@ -52,13 +65,19 @@ function mapUnique(err: unknown): never {
   const constraint = e.constraint ?? e.cause?.constraint;
   if (code === '23505' && constraint === 'spacecraft_slug_key') throw spacecraftTaken('slug');
   if (code === '23505' && constraint === 'spacecraft_catalog_key') throw spacecraftTaken('catalog number');
+  if (code === '23505' && constraint === 'spacecraft_one_mission_craft') throw missionCraftRace();
   throw err;
 }
 
 export function createSpacecraftRepository({ db }: { db: Db }) {
   return {
+    /** The mission craft first, then the comparison objects by name. */
     async list() {
-      return db.select().from(spacecraft).orderBy(asc(spacecraft.name));
+      return db.select().from(spacecraft).orderBy(desc(spacecraft.isMissionCraft), asc(spacecraft.name));
+    },
+    async missionCraft() {
+      const [row] = await db.select().from(spacecraft).where(eq(spacecraft.isMissionCraft, true));
+      return row ?? null;
     },
     async get(id: string) {
       const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
@@ -72,7 +91,11 @@ export function createSpacecraftRepository({ db }: { db: Db }) {
     async create(actorId: string | null, input: SpacecraftInput) {
       try {
         return await db.transaction(async (tx) => {
-          const [row] = await tx.insert(spacecraft).values(toColumns(input)).returning();
+          // The first craft recorded is the mission's own unless another is marked later.
+          const [marked] = await tx.select({ id: spacecraft.id }).from(spacecraft).where(eq(spacecraft.isMissionCraft, true));
+          const values = { ...toColumns(input), isMissionCraft: input.isMissionCraft || !marked };
+          if (input.isMissionCraft) await unmarkOthers(tx, null);
+          const [row] = await tx.insert(spacecraft).values(values).returning();
           await recordAudit(tx, {
             actorId,
             action: 'spacecraft.created',
@@ -91,6 +114,7 @@ export function createSpacecraftRepository({ db }: { db: Db }) {
         return await db.transaction(async (tx) => {
           const [before] = await tx.select().from(spacecraft).where(eq(spacecraft.id, id)).for('update');
           if (!before) throw spacecraftNotFound();
+          if (input.isMissionCraft) await unmarkOthers(tx, id);
           const [row] = await tx
             .update(spacecraft)
             .set({ ...toColumns(input), updatedAt: new Date() })

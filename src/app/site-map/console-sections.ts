@@ -40,6 +40,15 @@ export const consoleSections: ConsoleSection[] = [
     ],
   },
   {
+    id: 'snapshot-gallery',
+    path: 'snapshot-gallery',
+    title: 'Snapshot gallery',
+    roles: ['outreach', 'admin'],
+    summary: 'Every chart the orbit desk has frozen, to pick from when writing a dispatch.',
+    duties: ['Browse snapshots by craft, open one, copy its public link or image link for a dispatch.'],
+    lazy: () => import('@/app/routes/console/snapshot-gallery'),
+  },
+  {
     id: 'campaign',
     path: 'campaign',
     title: 'Campaign desk',

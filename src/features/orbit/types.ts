@@ -14,11 +14,20 @@ export type Spacecraft = {
   dragAreaEdgeOnM2: number;
   launchDate: string | null;
   sailDeployedAt: string | null;
+  isMissionCraft: boolean;
+  hasSail: boolean;
   createdAt: string;
   updatedAt: string;
 };
 
-export type UploadError = { line: number; columns?: [number, number]; field?: string; message: string; expected?: string };
+export type UploadError = {
+  line: number;
+  columns?: [number, number];
+  field?: string;
+  message: string;
+  expected?: string;
+  object?: { catalogNumber: string; name: string | null; internationalDesignator: string };
+};
 export type UploadStatus = 'parsing' | 'previewed' | 'importing' | 'imported' | 'cancelled' | 'failed';
 export type Upload = {
   id: string;
@@ -79,17 +88,14 @@ export type TrendRates = {
   energyJPerKgPerDay: number;
   alongTrackAccelMPerS2: number;
 };
+type TrendValues = { apogeeKm: number[]; perigeeKm: number[]; meanAltitudeKm: number[]; semiMajorAxisKm: number[]; energyJPerKg: number[] };
 export type Trend = {
   spacecraft: Spacecraft;
-  series: {
-    epochMs: number[];
-    apogeeKm: number[];
-    perigeeKm: number[];
-    meanAltitudeKm: number[];
-    semiMajorAxisKm: number[];
-    energyJPerKg: number[];
-    outlier: number[];
-  };
+  /** The view, reduced to min/max per pixel column when it holds more than two points per column. */
+  series: { epochMs: number[] } & TrendValues;
+  outliers: { epochMs: number[] } & TrendValues;
+  view: { fromMs: number; toMs: number; columns: number; reduced: boolean; pointsInView: number };
+  extent: { firstMs: number | null; lastMs: number | null; total: number };
   window: { fromMs: number; toMs: number; outlierEpochsMs: number[] };
   rates: TrendRates | null;
   intervals: { [K in keyof TrendRates]: [number, number] } | null;
@@ -108,7 +114,8 @@ type ModeSummary = {
 };
 export type SailYield = {
   spacecraft: Spacecraft;
-  comparison: {
+  sailApplies: boolean;
+  comparison: null | {
     raising: ModeSummary;
     off: ModeSummary;
     sailYieldMPerS2: number | null;

@@ -3,18 +3,28 @@ import { api, withQuery } from '@/lib/api-client';
 import type { Trend } from '../types';
 import { orbitKeys } from './keys';
 
-export function getTrend({ spacecraftId, from, to, signal }: { spacecraftId: string; from?: string; to?: string; signal?: AbortSignal }) {
-  return api.get<Trend>(withQuery(`/api/orbit/spacecraft/${encodeURIComponent(spacecraftId)}/trend`, { from, to }), { signal });
+/** The rate window (from, to), the chart's view (viewFrom, viewTo) and its pixel columns. */
+export type TrendParams = { from?: string; to?: string; viewFrom?: string; viewTo?: string; columns?: number };
+
+export function getTrend({ spacecraftId, signal, ...params }: TrendParams & { spacecraftId: string; signal?: AbortSignal }) {
+  return api.get<Trend>(
+    withQuery(`/api/orbit/spacecraft/${encodeURIComponent(spacecraftId)}/trend`, {
+      ...params,
+      columns: params.columns === undefined ? undefined : String(params.columns),
+    }),
+    { signal },
+  );
 }
 
-export function getTrendQueryOptions(spacecraftId: string, window: { from?: string; to?: string }) {
+export function getTrendQueryOptions(spacecraftId: string, params: TrendParams) {
   return queryOptions({
-    queryKey: orbitKeys.trendWindow(spacecraftId, window),
-    queryFn: ({ signal }) => getTrend({ spacecraftId, ...window, signal }),
+    queryKey: orbitKeys.trendWindow(spacecraftId, params),
+    queryFn: ({ signal }) => getTrend({ spacecraftId, ...params, signal }),
+    // While a zoomed view loads, the chart keeps drawing the points it has at the new scale.
     placeholderData: keepPreviousData,
   });
 }
 
-export function useTrend(spacecraftId: string, window: { from?: string; to?: string }) {
-  return useQuery(getTrendQueryOptions(spacecraftId, window));
+export function useTrend(spacecraftId: string, params: TrendParams) {
+  return useQuery(getTrendQueryOptions(spacecraftId, params));
 }

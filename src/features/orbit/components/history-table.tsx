@@ -8,7 +8,7 @@ import { Table, TBody, THead, Td, Th, Tr } from '@/components/ui/table';
 import { TextField } from '@/components/ui/text-field';
 import { errorMessage } from '@/lib/form-errors';
 import { historyPath, useHistory } from '../api/get-history';
-import { formatUtcDateTime, fromDateInput } from '../format';
+import { countOf, formatUtcDateTime, fromDateInput } from '../format';
 import type { HistoryParams, HistoryRow, HistorySort } from '../types';
 
 const col = createColumnHelper<HistoryRow>();
@@ -159,7 +159,7 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
           </Table>
           <div className="flex flex-wrap items-center justify-between gap-3 text-sm text-foil-300">
             <span>
-              {q.data.total.toLocaleString('en-GB')} sets · page {q.data.page} of {q.data.pageCount}
+              {countOf(q.data.total, 'set')} · page {q.data.page} of {q.data.pageCount}
               {q.isFetching && ' · loading…'}
             </span>
             <div className="flex items-center gap-2">

@@ -23,7 +23,7 @@ export function OrbitDeskFrame({
   description?: ReactNode;
   actions?: ReactNode;
   requireCraft?: boolean;
-  children: (craft: Spacecraft | null) => ReactNode;
+  children: (craft: Spacecraft | null, choose: (id: string) => void) => ReactNode;
 }) {
   useDocumentTitle(`${title} · Orbit desk`);
   const { list, all, current, choose } = useCurrentSpacecraft();
@@ -51,7 +51,7 @@ export function OrbitDeskFrame({
           }
         />
       ) : (
-        children(current)
+        children(current, choose)
       )}
     </>
   );

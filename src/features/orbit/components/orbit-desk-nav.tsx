@@ -49,7 +49,7 @@ export function OrbitDeskNav({
           >
             {all.map((c) => (
               <option key={c.id} value={c.id}>
-                {c.name}
+                {c.isMissionCraft ? `${c.name} (mission craft)` : c.name}
               </option>
             ))}
           </select>

@@ -1,5 +1,5 @@
 import type { Trend } from '../types';
-import { formatUtcDate, sci, signed } from '../format';
+import { countOf, formatUtcDate, sci, signed } from '../format';
 
 function Rate({
   label,
@@ -50,8 +50,8 @@ export function RatesPanel({ trend }: { trend: Trend }) {
           </dl>
           <p className="mt-2 text-sm text-foil-300">
             Equivalent along-track acceleration{' '}
-            <span className="font-semibold tabular-nums text-foil-50">{sci(r.alongTrackAccelMPerS2)} m/s²</span> · {trend.counts.used} sets
-            used, {trend.counts.outliers} outliers left out
+            <span className="font-semibold tabular-nums text-foil-50">{sci(r.alongTrackAccelMPerS2)} m/s²</span> ·{' '}
+            {countOf(trend.counts.used, 'set')} used, {countOf(trend.counts.outliers, 'outlier')} left out
             {trend.counts.duplicatesRemoved ? `, ${trend.counts.duplicatesRemoved} duplicates` : ''}.
           </p>
         </>

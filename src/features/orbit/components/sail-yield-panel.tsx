@@ -4,8 +4,25 @@ import { Spinner } from '@/components/ui/spinner';
 import { errorMessage } from '@/lib/form-errors';
 import { useSailYield } from '../api/get-sail-yield';
 import { formatUtcDate, sci } from '../format';
+import type { SailYield } from '../types';
 
 const pct = (v: number) => `${(v * 100).toFixed(0)} %`;
+
+function LifetimeRow({ lifetime }: { lifetime: NonNullable<SailYield['lifetime']> }) {
+  return (
+    <dl className="mt-3 text-sm">
+      <dt className="text-foil-400">Lifetime estimate — {lifetime.basis}</dt>
+      <dd className="tabular-nums text-foil-100">
+        {[lifetime.low, lifetime.mean, lifetime.high]
+          .map(
+            (l) =>
+              `solar activity ${l.activity}: ${l.exceedsHorizon ? 'beyond 100 years' : l.reentryIso ? formatUtcDate(Date.parse(l.reentryIso)) : '—'}`,
+          )
+          .join(' · ')}
+      </dd>
+    </dl>
+  );
+}
 
 /** Measured sail yield (raising minus edge-on) against the model at the current altitude. */
 export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
@@ -19,6 +36,20 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
   if (q.isError) return <Alert title="Could not work out the sail yield">{errorMessage(q.error)}</Alert>;
   const { comparison: c, model, lifetime, caution } = q.data;
   const mean = model?.byActivity.find((b) => b.activity === 'mean');
+  if (!q.data.sailApplies || !c)
+    return (
+      <Card data-testid="sail-yield">
+        <CardHeader level={2} title="Sail yield" />
+        <p className="text-sm text-foil-200" data-testid="sail-not-applicable">
+          {q.data.spacecraft.name} has no sail (sail area 0 m²), so the sail yield, the crossover altitude and the sailing periods do not
+          apply to it. Its orbit decays by drag alone.
+        </p>
+        {lifetime && <LifetimeRow lifetime={lifetime} />}
+        <p className="mt-4 rounded-lg border border-amber-500/50 bg-amber-950/30 px-3 py-2 text-xs text-amber-100" role="note">
+          {caution}
+        </p>
+      </Card>
+    );
   return (
     <Card data-testid="sail-yield">
       <CardHeader
@@ -54,7 +85,10 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
               <dt className="text-foil-400">Crossover altitude (sail gain = drag loss)</dt>
               <dd className="tabular-nums text-foil-100">
                 {model.byActivity
-                  .map((b) => `${b.activity} ${b.crossoverAltitudeKm === null ? '—' : `${b.crossoverAltitudeKm.toFixed(0)} km`}`)
+                  .map(
+                    (b) =>
+                      `solar activity ${b.activity}: ${b.crossoverAltitudeKm === null ? '—' : `${b.crossoverAltitudeKm.toFixed(0)} km`}`,
+                  )
                   .join(' · ')}
               </dd>
             </div>
@@ -66,19 +100,7 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
             </div>
           </>
         )}
-        {lifetime && (
-          <div>
-            <dt className="text-foil-400">Lifetime ({lifetime.basis})</dt>
-            <dd className="tabular-nums text-foil-100">
-              {[lifetime.high, lifetime.mean, lifetime.low]
-                .map(
-                  (l) =>
-                    `${l.activity}: ${l.exceedsHorizon ? 'beyond 100 years' : l.reentryIso ? formatUtcDate(Date.parse(l.reentryIso)) : '—'}`,
-                )
-                .join(' · ')}
-            </dd>
-          </div>
-        )}
+        {lifetime && <LifetimeRow lifetime={lifetime} />}
       </dl>
       <p className="mt-4 rounded-lg border border-amber-500/50 bg-amber-950/30 px-3 py-2 text-xs text-amber-100" role="note">
         {caution}

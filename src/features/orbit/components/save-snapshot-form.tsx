@@ -65,11 +65,10 @@ export function SaveSnapshotForm({
         <TextField label="Note on the chart (optional)" value={noteText} onChange={(e) => setNoteText(e.target.value)} maxLength={200} />
         <TextField
           label="Note date"
-          type="date"
+          hint={`yyyy-mm-dd, UTC, ${toDateInput(view.fromMs)} to ${toDateInput(view.toMs)}`}
+          inputMode="numeric"
           value={noteDate}
           onChange={(e) => setNoteDate(e.target.value)}
-          min={toDateInput(view.fromMs)}
-          max={toDateInput(view.toMs)}
         />
       </div>
       <label className="flex items-center gap-2 text-sm text-foil-100">

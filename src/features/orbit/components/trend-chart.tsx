@@ -1,30 +1,16 @@
-import { useMemo, useState } from 'react';
-import {
-  Brush,
-  CartesianGrid,
-  ComposedChart,
-  Legend,
-  Line,
-  ReferenceArea,
-  ReferenceLine,
-  ResponsiveContainer,
-  Scatter,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from 'recharts';
+import { useMemo, useRef, type KeyboardEvent } from 'react';
+import type uPlot from 'uplot';
 import { CHART_COLORS, SAIL_MODE_STYLE, SERIES, type SnapshotSeriesKey } from '@shared/charts/snapshot-chart';
 import { Button } from '@/components/ui/button';
-import { formatUtcDate, formatUtcDateTime } from '../format';
+import { countOf, formatUtcDate, formatUtcDateTime } from '../format';
 import type { Trend } from '../types';
+import { UPlotChart } from './uplot-chart';
 
 export type RightAxis = 'none' | 'semiMajorAxis' | 'energy';
 export type ChartSelection = { left: ('apogee' | 'perigee' | 'meanAltitude')[]; right: RightAxis };
 export type Domain = { fromMs: number; toMs: number };
 
-type Row = Record<string, number | null> & { t: number };
-
-const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['series']> = {
+const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['outliers'] & keyof Trend['series']> = {
   apogee: 'apogeeKm',
   perigee: 'perigeeKm',
   meanAltitude: 'meanAltitudeKm',
@@ -32,21 +18,30 @@ const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['series']> = {
   energy: 'energyJPerKg',
 };
 
-function lowerBound(xs: number[], v: number) {
-  let lo = 0,
-    hi = xs.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (xs[mid]! < v) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
+const scaleOf = (k: SnapshotSeriesKey) => (SERIES[k].group === 'altitude' ? 'km' : 'right');
+
+/** Zoom around the middle of a view by `factor` (< 1 zooms in), kept inside the history. */
+export function zoomDomain(view: Domain, extent: Domain, factor: number): Domain | null {
+  const mid = (view.fromMs + view.toMs) / 2;
+  const half = Math.max(3_600_000, ((view.toMs - view.fromMs) * factor) / 2);
+  const fromMs = Math.max(extent.fromMs, mid - half),
+    toMs = Math.min(extent.toMs, mid + half);
+  return fromMs <= extent.fromMs && toMs >= extent.toMs ? null : { fromMs, toMs };
+}
+
+/** Pan by a fraction of the view's width (negative: earlier), kept inside the history. */
+export function panDomain(view: Domain, extent: Domain, fraction: number): Domain | null {
+  const w = view.toMs - view.fromMs;
+  let fromMs = view.fromMs + w * fraction;
+  fromMs = Math.min(Math.max(fromMs, extent.fromMs), extent.toMs - w);
+  return fromMs <= extent.fromMs && fromMs + w >= extent.toMs ? null : { fromMs, toMs: fromMs + w };
 }
 
 /**
- * The interactive trend: series from the stored history, sailing periods shaded, outliers ringed, rate lines
- * dashed over the rate window. Drag across the plot to zoom; the brush below pans and resizes the view.
- * Colours, labels and units come from the shared snapshot chart definition, so a snapshot looks the same.
+ * The interactive trend on one canvas (uPlot): the server sends the view reduced to min/max per pixel column, so
+ * drawing costs the same for 1,000 or 100,000 sets. Sailing periods shaded, outliers ringed, rate lines dashed
+ * over the rate window; drag across to zoom, buttons or arrow keys to pan and zoom, the legend reads out the
+ * values under the pointer, and a text summary says what is shown.
  */
 export function TrendChart({
   trend,
@@ -59,200 +54,231 @@ export function TrendChart({
   domain: Domain | null;
   onDomainChange: (d: Domain | null) => void;
 }) {
-  const keys: SnapshotSeriesKey[] = [...selection.left, ...(selection.right === 'none' ? [] : [selection.right])];
-  const rows = useMemo(() => {
-    const s = trend.series;
-    const outliers = new Set(s.outlier);
-    const out: Row[] = new Array(s.epochMs.length);
-    for (let i = 0; i < s.epochMs.length; i++) {
-      const row: Row = { t: s.epochMs[i]! };
-      const bad = outliers.has(i);
-      for (const k of Object.keys(KEY_OF) as SnapshotSeriesKey[]) {
-        const v = (s[KEY_OF[k]] as number[])[i]! * SERIES[k].scale;
-        row[k] = bad ? null : v;
-        row[`${k}Outlier`] = bad ? v : null;
-      }
-      out[i] = row;
-    }
-    return out;
-  }, [trend]);
-  const times = useMemo(() => rows.map((r) => r.t), [rows]);
-  const first = times[0] ?? 0,
-    last = times[times.length - 1] ?? 1;
-  const view = domain ?? { fromMs: first, toMs: last };
-  const [drag, setDrag] = useState<{ a: number; b: number } | null>(null);
-  const startIndex = Math.min(Math.max(0, lowerBound(times, view.fromMs)), Math.max(0, rows.length - 1));
-  const endIndex = Math.min(
-    Math.max(startIndex, lowerBound(times, view.toMs) - (times[lowerBound(times, view.toMs)] === view.toMs ? 0 : 1)),
-    rows.length - 1,
+  const keys: SnapshotSeriesKey[] = useMemo(
+    () => [...selection.left, ...(selection.right === 'none' ? [] : [selection.right])],
+    [selection],
   );
+  const extent: Domain = { fromMs: trend.extent.firstMs ?? 0, toMs: trend.extent.lastMs ?? 1 };
+  const view = domain ?? extent;
+  // Everything the draw hooks read, without re-creating the chart when it changes.
+  const live = useRef({ trend, keys });
+  live.current = { trend, keys };
+  const changeRef = useRef(onDomainChange);
+  changeRef.current = onDomainChange;
 
-  const labelOf = (v: unknown) => (typeof v === 'number' ? formatUtcDate(v) : String(v));
-  const activeLabel = (state: unknown) => {
-    const l = (state as { activeLabel?: unknown } | null)?.activeLabel;
-    const n = typeof l === 'string' ? Number(l) : l;
-    return typeof n === 'number' && Number.isFinite(n) ? n : null;
+  const data = useMemo<uPlot.AlignedData>(() => {
+    const s = trend.series;
+    return [s.epochMs, ...keys.map((k) => (SERIES[k].scale === 1 ? s[KEY_OF[k]] : s[KEY_OF[k]].map((v) => v * SERIES[k].scale)))];
+  }, [trend, keys]);
+
+  const options = useMemo<Omit<uPlot.Options, 'width' | 'height'>>(() => {
+    const right = selection.right;
+    const fmt = (k: SnapshotSeriesKey) => (_u: uPlot, v: number | null) =>
+      v === null || v === undefined ? '—' : v.toFixed(SERIES[k].decimals + 1);
+    const axisFont = '12px "Nunito Sans", system-ui, sans-serif';
+    const toX = (u: uPlot, ms: number) => u.valToPos(ms, 'x', true);
+    return {
+      ms: 1,
+      padding: [8, 8, 0, 0],
+      scales: { x: { time: true }, km: { auto: true }, right: { auto: true } },
+      axes: [
+        {
+          stroke: CHART_COLORS.axis,
+          grid: { stroke: CHART_COLORS.grid, dash: [3, 3], width: 1 },
+          ticks: { stroke: CHART_COLORS.grid },
+          font: axisFont,
+          values: (_u, splits) => splits.map((ms) => formatUtcDate(ms)),
+          space: 90,
+        },
+        {
+          scale: 'km',
+          label: 'km',
+          stroke: CHART_COLORS.axis,
+          grid: { stroke: CHART_COLORS.grid, dash: [3, 3], width: 1 },
+          ticks: { stroke: CHART_COLORS.grid },
+          font: axisFont,
+          labelFont: axisFont,
+          size: 56,
+        },
+        ...(right === 'none'
+          ? []
+          : [
+              {
+                scale: 'right',
+                side: 1,
+                label: SERIES[right].unit,
+                stroke: SERIES[right].color,
+                grid: { show: false },
+                font: axisFont,
+                labelFont: axisFont,
+                size: 70,
+                values: (_u: uPlot, splits: number[]) => splits.map((v) => (right === 'energy' ? v.toFixed(3) : v.toFixed(0))),
+              } satisfies uPlot.Axis,
+            ]),
+      ],
+      series: [
+        { label: 'Epoch (UTC)', value: (_u, v) => (v === null ? '—' : formatUtcDateTime(v)) },
+        ...keys.map((k) => ({
+          label: `${SERIES[k].label} (${SERIES[k].unit})`,
+          scale: scaleOf(k),
+          stroke: SERIES[k].color,
+          width: 1.6,
+          points: { show: false },
+          value: fmt(k),
+        })),
+      ],
+      legend: { live: true },
+      cursor: { drag: { x: true, y: false, setScale: false }, points: { size: 6 } },
+      hooks: {
+        drawClear: [
+          (u) => {
+            // Sailing periods under the lines.
+            const { ctx, bbox } = u;
+            ctx.save();
+            for (const p of live.current.trend.sailingPeriods) {
+              const x0 = Math.max(bbox.left, toX(u, Date.parse(p.startAt))),
+                x1 = Math.min(bbox.left + bbox.width, toX(u, Date.parse(p.endAt)));
+              if (x1 <= x0) continue;
+              ctx.globalAlpha = SAIL_MODE_STYLE[p.mode].opacity;
+              ctx.fillStyle = SAIL_MODE_STYLE[p.mode].color;
+              ctx.fillRect(x0, bbox.top, x1 - x0, bbox.height);
+            }
+            ctx.restore();
+          },
+        ],
+        draw: [
+          (u) => {
+            const { ctx, bbox } = u;
+            const { trend: t, keys: ks } = live.current;
+            ctx.save();
+            ctx.beginPath();
+            ctx.rect(bbox.left, bbox.top, bbox.width, bbox.height);
+            ctx.clip();
+            // The rate window: a dashed frame.
+            const wx0 = toX(u, t.window.fromMs),
+              wx1 = toX(u, t.window.toMs);
+            ctx.setLineDash([2 * devicePixelRatio, 4 * devicePixelRatio]);
+            ctx.strokeStyle = CHART_COLORS.axis;
+            ctx.lineWidth = devicePixelRatio;
+            ctx.strokeRect(wx0, bbox.top, wx1 - wx0, bbox.height);
+            // Rate lines, dashed, in each series' colour.
+            ctx.setLineDash([6 * devicePixelRatio, 4 * devicePixelRatio]);
+            ctx.lineWidth = 2.5 * devicePixelRatio;
+            for (const k of ks) {
+              const rl = t.rateLines?.[k];
+              if (!rl) continue;
+              ctx.strokeStyle = SERIES[k].color;
+              ctx.beginPath();
+              ctx.moveTo(toX(u, rl.fromMs), u.valToPos(rl.fromValue * SERIES[k].scale, scaleOf(k), true));
+              ctx.lineTo(toX(u, rl.toMs), u.valToPos(rl.toValue * SERIES[k].scale, scaleOf(k), true));
+              ctx.stroke();
+            }
+            // Outliers: rings, not joined to the line.
+            ctx.setLineDash([]);
+            ctx.lineWidth = 1.6 * devicePixelRatio;
+            ctx.strokeStyle = CHART_COLORS.outlier;
+            const r = 3.5 * devicePixelRatio;
+            for (const k of ks) {
+              const xs = t.outliers.epochMs,
+                ys = t.outliers[KEY_OF[k]];
+              ctx.beginPath();
+              for (let i = 0; i < xs.length; i++) {
+                const x = toX(u, xs[i]!),
+                  y = u.valToPos(ys[i]! * SERIES[k].scale, scaleOf(k), true);
+                ctx.moveTo(x + r, y);
+                ctx.arc(x, y, r, 0, 2 * Math.PI);
+              }
+              ctx.stroke();
+            }
+            ctx.restore();
+          },
+        ],
+        setSelect: [
+          (u) => {
+            if (u.select.width < 4) return;
+            const fromMs = u.posToVal(u.select.left, 'x'),
+              toMs = u.posToVal(u.select.left + u.select.width, 'x');
+            u.setSelect({ left: 0, top: 0, width: 0, height: 0 }, false);
+            if (toMs - fromMs > 3_600_000) changeRef.current({ fromMs, toMs });
+          },
+        ],
+      },
+    };
+  }, [keys, selection.right]);
+
+  const step = (d: Domain | null | undefined) => d !== undefined && onDomainChange(d);
+  const onKeyDown = (e: KeyboardEvent) => {
+    const moves: Record<string, () => Domain | null> = {
+      ArrowLeft: () => panDomain(view, extent, -0.25),
+      ArrowRight: () => panDomain(view, extent, 0.25),
+      '+': () => zoomDomain(view, extent, 0.5),
+      '=': () => zoomDomain(view, extent, 0.5),
+      '-': () => zoomDomain(view, extent, 2),
+      Home: () => null,
+    };
+    const m = moves[e.key];
+    if (!m) return;
+    e.preventDefault();
+    step(m());
   };
-  const rateLines = trend.rateLines;
+
+  const inView = trend.sailingPeriods.filter((p) => Date.parse(p.endAt) > view.fromMs && Date.parse(p.startAt) < view.toMs).length;
+  const first = (k: SnapshotSeriesKey) => trend.series[KEY_OF[k]][0];
+  const last = (k: SnapshotSeriesKey) => trend.series[KEY_OF[k]][trend.series.epochMs.length - 1];
 
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2 text-xs text-foil-400">
-        <span>Drag across the chart to zoom · the brush below pans</span>
-        {domain && (
-          <Button size="sm" variant="secondary" onClick={() => onDomainChange(null)}>
-            Show the whole history
+        <span id="trend-help">Drag across the chart to zoom · with the chart focused: ← → pan, + − zoom, Home for the whole history</span>
+        <div className="flex flex-wrap gap-1.5">
+          <Button size="sm" variant="ghost" aria-label="Earlier" onClick={() => step(panDomain(view, extent, -0.5))} disabled={!domain}>
+            ◀ Earlier
           </Button>
-        )}
+          <Button size="sm" variant="ghost" aria-label="Later" onClick={() => step(panDomain(view, extent, 0.5))} disabled={!domain}>
+            Later ▶
+          </Button>
+          <Button size="sm" variant="ghost" onClick={() => step(zoomDomain(view, extent, 0.5))}>
+            Zoom in
+          </Button>
+          <Button size="sm" variant="ghost" onClick={() => step(zoomDomain(view, extent, 2))} disabled={!domain}>
+            Zoom out
+          </Button>
+          {domain && (
+            <Button size="sm" variant="secondary" onClick={() => onDomainChange(null)}>
+              Show the whole history
+            </Button>
+          )}
+        </div>
       </div>
-      <div className="h-[340px] w-full sm:h-[420px]" data-testid="trend-chart">
-        <ResponsiveContainer width="100%" height="100%">
-          <ComposedChart
-            data={rows}
-            margin={{ top: 8, right: 8, bottom: 0, left: 0 }}
-            onMouseDown={(state) => {
-              const x = activeLabel(state);
-              if (x !== null) setDrag({ a: x, b: x });
-            }}
-            onMouseMove={(state) => {
-              const x = activeLabel(state);
-              if (drag && x !== null) setDrag({ a: drag.a, b: x });
-            }}
-            onMouseUp={() => {
-              if (drag && Math.abs(drag.b - drag.a) > 3_600_000)
-                onDomainChange({ fromMs: Math.min(drag.a, drag.b), toMs: Math.max(drag.a, drag.b) });
-              setDrag(null);
-            }}
-          >
-            <CartesianGrid stroke={CHART_COLORS.grid} strokeDasharray="3 3" />
-            <XAxis
-              dataKey="t"
-              type="number"
-              scale="time"
-              domain={[view.fromMs, view.toMs]}
-              allowDataOverflow
-              tickFormatter={labelOf}
-              stroke={CHART_COLORS.axis}
-              fontSize={12}
-              minTickGap={40}
-            />
-            <YAxis
-              yAxisId="left"
-              domain={['auto', 'auto']}
-              stroke={CHART_COLORS.axis}
-              fontSize={12}
-              width={56}
-              tickFormatter={(v: number) => v.toFixed(0)}
-              label={{ value: 'km', angle: -90, position: 'insideLeft', fill: CHART_COLORS.muted, fontSize: 12 }}
-            />
-            {selection.right !== 'none' && (
-              <YAxis
-                yAxisId="right"
-                orientation="right"
-                domain={['auto', 'auto']}
-                stroke={SERIES[selection.right].color}
-                fontSize={12}
-                width={64}
-                tickFormatter={(v: number) => (selection.right === 'energy' ? v.toFixed(3) : v.toFixed(0))}
-                label={{ value: SERIES[selection.right].unit, angle: 90, position: 'insideRight', fill: CHART_COLORS.muted, fontSize: 12 }}
-              />
-            )}
-            {trend.sailingPeriods.map((p) => (
-              <ReferenceArea
-                key={p.id}
-                yAxisId="left"
-                x1={Math.max(Date.parse(p.startAt), view.fromMs)}
-                x2={Math.min(Date.parse(p.endAt), view.toMs)}
-                fill={SAIL_MODE_STYLE[p.mode].color}
-                fillOpacity={SAIL_MODE_STYLE[p.mode].opacity}
-                ifOverflow="hidden"
-              />
-            ))}
-            <ReferenceArea
-              yAxisId="left"
-              x1={trend.window.fromMs}
-              x2={trend.window.toMs}
-              fill="none"
-              stroke={CHART_COLORS.axis}
-              strokeDasharray="2 4"
-              ifOverflow="hidden"
-            />
-            {keys.map((k) => (
-              <Line
-                key={k}
-                yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
-                dataKey={k}
-                name={SERIES[k].label}
-                stroke={SERIES[k].color}
-                dot={false}
-                strokeWidth={1.6}
-                isAnimationActive={false}
-                connectNulls
-              />
-            ))}
-            {keys.map((k) => (
-              <Scatter
-                key={`${k}-o`}
-                yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
-                dataKey={`${k}Outlier`}
-                name={`${SERIES[k].label} outlier`}
-                fill="none"
-                stroke={CHART_COLORS.outlier}
-                strokeWidth={1.6}
-                isAnimationActive={false}
-                legendType="none"
-              />
-            ))}
-            {rateLines &&
-              keys.map((k) => {
-                const rl = rateLines[k];
-                if (!rl) return null;
-                return (
-                  <ReferenceLine
-                    key={`${k}-rate`}
-                    yAxisId={SERIES[k].group === 'altitude' ? 'left' : 'right'}
-                    ifOverflow="hidden"
-                    segment={[
-                      { x: rl.fromMs, y: rl.fromValue * SERIES[k].scale },
-                      { x: rl.toMs, y: rl.toValue * SERIES[k].scale },
-                    ]}
-                    stroke={SERIES[k].color}
-                    strokeWidth={2.5}
-                    strokeDasharray="6 4"
-                  />
-                );
-              })}
-            {drag && <ReferenceArea yAxisId="left" x1={drag.a} x2={drag.b} fill={CHART_COLORS.text} fillOpacity={0.1} />}
-            <Tooltip
-              contentStyle={{
-                background: CHART_COLORS.background,
-                border: `1px solid ${CHART_COLORS.grid}`,
-                borderRadius: 8,
-                color: CHART_COLORS.text,
-              }}
-              labelFormatter={(v) => (typeof v === 'number' ? formatUtcDateTime(v) : String(v))}
-              formatter={(value, name) => [typeof value === 'number' ? value.toFixed(3) : String(value), name]}
-            />
-            <Legend wrapperStyle={{ fontSize: 12, color: CHART_COLORS.text }} />
-            <Brush
-              dataKey="t"
-              height={26}
-              stroke={CHART_COLORS.axis}
-              fill={CHART_COLORS.plot}
-              travellerWidth={10}
-              tickFormatter={labelOf}
-              startIndex={startIndex}
-              endIndex={Math.max(startIndex, endIndex)}
-              onChange={(r) => {
-                const { startIndex: s, endIndex: e } = r as { startIndex?: number; endIndex?: number };
-                if (s === undefined || e === undefined) return;
-                if (s === 0 && e === rows.length - 1) onDomainChange(null);
-                else onDomainChange({ fromMs: rows[s]!.t, toMs: rows[e]!.t });
-              }}
-            />
-          </ComposedChart>
-        </ResponsiveContainer>
+      <div
+        tabIndex={0}
+        role="group"
+        aria-roledescription="chart"
+        aria-label={`Orbit trend chart, ${formatUtcDate(view.fromMs)} to ${formatUtcDate(view.toMs)}`}
+        aria-describedby="trend-help trend-summary"
+        onKeyDown={onKeyDown}
+        className="rounded-lg focus-visible:outline-2 focus-visible:outline-amber-400"
+        data-testid="trend-chart"
+      >
+        <UPlotChart
+          options={options}
+          data={data}
+          xRange={{ min: view.fromMs, max: view.toMs }}
+          className="trend-uplot h-[400px] w-full overflow-hidden sm:h-[480px]"
+        />
       </div>
+      <p id="trend-summary" className="mt-3 text-sm text-foil-300" data-testid="trend-summary">
+        {formatUtcDate(view.fromMs)} to {formatUtcDate(view.toMs)}: {countOf(trend.view.pointsInView, 'element set')} in view
+        {trend.view.reduced ? `, drawn as the lowest and highest value in each of ${trend.view.columns} columns` : ''}
+        {keys
+          .filter((k) => first(k) !== undefined)
+          .map(
+            (k) =>
+              `; ${SERIES[k].label.toLowerCase()} ${((first(k) ?? 0) * SERIES[k].scale).toFixed(SERIES[k].decimals)} → ${((last(k) ?? 0) * SERIES[k].scale).toFixed(SERIES[k].decimals)} ${SERIES[k].unit}`,
+          )
+          .join('')}
+        ; {countOf(trend.outliers.epochMs.length, 'outlier')}; {countOf(inView, 'sailing period')} shaded.
+      </p>
       <ul className="mt-3 flex flex-wrap gap-x-4 gap-y-1 text-xs text-foil-300" aria-label="Shading">
         {(Object.keys(SAIL_MODE_STYLE) as (keyof typeof SAIL_MODE_STYLE)[]).map((m) => (
           <li key={m} className="flex items-center gap-1.5">

@@ -13,10 +13,24 @@ import { startUpload } from '../api/start-upload';
 import { useUpload } from '../api/get-upload';
 import { useFinishUpload } from '../api/finish-upload';
 import { orbitKeys } from '../api/keys';
-import { formatUtcDateTime } from '../format';
-import type { Spacecraft } from '../types';
+import { countOf, formatUtcDateTime } from '../format';
+import type { Spacecraft, Upload } from '../types';
 
 const kb = (n: number) => (n >= 1024 * 1024 ? `${(n / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(n / 1024))} KB`);
+
+/** The other objects an upload's errors name, once each. */
+function otherObjects(errors: Upload['errors']) {
+  const seen = new Map<string, NonNullable<Upload['errors'][number]['object']>>();
+  for (const e of errors) if (e.object && !seen.has(e.object.catalogNumber)) seen.set(e.object.catalogNumber, e.object);
+  return [...seen.values()];
+}
+
+const slugOf = (name: string) =>
+  name
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 40) || 'object';
 
 export function UploadPanel({ craft }: { craft: Spacecraft }) {
   const queryClient = useQueryClient();
@@ -221,6 +235,27 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
                   </TBody>
                 </Table>
               )}
+              {otherObjects(upload.errors).map((o) => (
+                <Alert key={o.catalogNumber} tone="info" className="mt-4" title={`Sets of another object: catalog ${o.catalogNumber}`}>
+                  <p>
+                    {o.name ? `“${o.name}”` : 'This object'} is not {craft.name}. Keep it on the desk as a comparison object, then upload
+                    the file again for it.
+                  </p>
+                  <Link
+                    className="mt-2 inline-block font-semibold text-amber-300 underline"
+                    to={`/console/orbit/spacecraft?${new URLSearchParams({
+                      add: '1',
+                      name: o.name ?? `Object ${o.catalogNumber}`,
+                      slug: slugOf(o.name ?? `object-${o.catalogNumber}`),
+                      catalogNumber: o.catalogNumber,
+                      internationalDesignator: o.internationalDesignator,
+                      sailAreaM2: '0',
+                    }).toString()}`}
+                  >
+                    Add this object as a spacecraft
+                  </Link>
+                </Alert>
+              ))}
               {upload.errors.length > 12 && (
                 <p className="mt-2 text-xs text-foil-400">…and more; {upload.counts.invalid} invalid records in all.</p>
               )}
@@ -233,7 +268,7 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
                 loading={finish.isPending}
                 disabled={upload.counts.new === 0 && upload.counts.duplicate === 0}
               >
-                {upload.counts.new > 0 ? `Import ${upload.counts.new.toLocaleString('en-GB')} new sets` : 'Import'}
+                {upload.counts.new > 0 ? `Import ${countOf(upload.counts.new, 'new set')}` : 'Import'}
               </Button>
               <Button variant="ghost" onClick={() => finish.mutate({ jobId: upload.id, action: 'cancel' })} disabled={finish.isPending}>
                 Cancel

@@ -13,28 +13,42 @@ import { RatesPanel } from '@/features/orbit/components/rates-panel';
 import { SailYieldPanel } from '@/features/orbit/components/sail-yield-panel';
 import { SaveSnapshotForm } from '@/features/orbit/components/save-snapshot-form';
 import { TrendChart, type ChartSelection, type Domain, type RightAxis } from '@/features/orbit/components/trend-chart';
-import { fromDateInput, toDateInput } from '@/features/orbit/format';
+import { DATE_HINT, fromDateInput, toDateInput } from '@/features/orbit/format';
 import type { Spacecraft } from '@/features/orbit/types';
 
 const LEFT = ['apogee', 'perigee', 'meanAltitude'] as const;
 
 function TrendView({ craft }: { craft: Spacecraft }) {
   const [rateWindow, setRateWindow] = useState<{ from?: string; to?: string }>({});
-  const trend = useTrend(craft.id, rateWindow);
   const [selection, setSelection] = useState<ChartSelection>({ left: ['apogee', 'perigee', 'meanAltitude'], right: 'none' });
   const [domain, setDomain] = useState<Domain | null>(null);
+  // One column per device pixel of the plot, in steps of 100 so a resize does not refetch for every pixel.
+  const [columns] = useState(() =>
+    Math.min(4000, Math.max(200, Math.ceil((Math.min(window.innerWidth, 1280) * (window.devicePixelRatio || 1)) / 100) * 100)),
+  );
+  const trend = useTrend(craft.id, {
+    ...rateWindow,
+    viewFrom: domain ? new Date(domain.fromMs).toISOString() : undefined,
+    viewTo: domain ? new Date(domain.toMs).toISOString() : undefined,
+    columns,
+  });
   const [fromInput, setFromInput] = useState('');
   const [toInput, setToInput] = useState('');
 
-  if (trend.isPending) return <Spinner label="Loading the trend…" />;
+  if (trend.isPending)
+    return (
+      <Card>
+        <div className="flex h-[340px] items-center justify-center sm:h-[420px]">
+          <Spinner label="Loading the trend of every stored element set…" />
+        </div>
+      </Card>
+    );
   if (trend.isError) return <Alert title="Could not load the trend">{errorMessage(trend.error)}</Alert>;
   const t = trend.data;
-  if (t.series.epochMs.length === 0) {
+  if (t.extent.total === 0) {
     return <EmptyState title="No element sets yet" description="Upload a file of element sets to see the orbit's trend." />;
   }
-  const first = t.series.epochMs[0]!,
-    last = t.series.epochMs[t.series.epochMs.length - 1]!;
-  const view = domain ?? { fromMs: first, toMs: last };
+  const view = domain ?? { fromMs: t.extent.firstMs!, toMs: t.extent.lastMs! };
   const series: SnapshotSeriesKey[] = [...selection.left, ...(selection.right === 'none' ? [] : [selection.right])];
   const applyWindow = (from: number, to: number) => {
     setRateWindow({ from: new Date(from).toISOString(), to: new Date(to).toISOString() });
@@ -96,11 +110,18 @@ function TrendView({ craft }: { craft: Spacecraft }) {
         >
           <TextField
             label="Rate window from"
-            type="date"
+            hint={DATE_HINT}
+            inputMode="numeric"
             value={fromInput || toDateInput(t.window.fromMs)}
             onChange={(e) => setFromInput(e.target.value)}
           />
-          <TextField label="to" type="date" value={toInput || toDateInput(t.window.toMs)} onChange={(e) => setToInput(e.target.value)} />
+          <TextField
+            label="to"
+            hint={DATE_HINT}
+            inputMode="numeric"
+            value={toInput || toDateInput(t.window.toMs)}
+            onChange={(e) => setToInput(e.target.value)}
+          />
           <Button type="submit" variant="secondary">
             Apply
           </Button>
