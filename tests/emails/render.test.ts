@@ -24,11 +24,24 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     updateCardUrl: 'http://127.0.0.1:3000/my-support/card',
     nextAttemptAt: '2031-03-04T10:15:00Z',
   },
+  dispatch: {
+    title: hostile,
+    bodyMarkdown: 'The sail **opened** on day 3. [Mission page](/campaign)',
+    excerpt: 'The sail opened on day 3.',
+    pageUrl: 'http://127.0.0.1:3000/dispatches/sail-opened-abc',
+    siteUrl: 'http://127.0.0.1:3000',
+    charts: [
+      { imageUrl: 'http://127.0.0.1:3000/api/files/charts/x.png', alt: 'Apogee rising 2 km', caption: 'After deploy', title: 'Apogee' },
+    ],
+    audienceLine: 'a backer',
+    unsubscribeUrl: 'http://127.0.0.1:3000/unsubscribe?token=abc',
+    choicesUrl: 'http://127.0.0.1:3000/my-support/email',
+  },
 };
 
 function urlOf(name: EmailName): string {
   const d = samples[name] as Record<string, unknown>;
-  return String(d.verifyUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl);
+  return String(d.verifyUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl ?? d.pageUrl);
 }
 
 describe('e-mail templates', () => {
