@@ -13,6 +13,7 @@ import type Stripe from 'stripe';
 import type { Db } from './db/client';
 import type { Config } from './config';
 import type { Mailer } from './lib/mailer';
+import type { JobSender } from './jobs/queue';
 import { mount } from './lib/routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { createAuthService } from './modules/auth/auth.service';
@@ -30,6 +31,8 @@ export type AppDeps = {
   mailer: Mailer;
   stripe: Stripe;
   logger?: Logger;
+  /** Puts background work on a queue (server/jobs); workers may run in other processes. */
+  jobs?: JobSender;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
 };

@@ -49,6 +49,17 @@ const configSchema = z.object({
   HERO_IMAGE_MAX_PIXELS: z.coerce.number().int().min(1).default(24_000_000),
   // Messages per batch call when a dispatch is e-mailed (the mail service takes at most 100).
   DISPATCH_BATCH_SIZE: z.coerce.number().int().min(1).max(100).default(100),
+  // Background jobs (server/jobs): how long a stopping worker waits for running jobs; old job rows.
+  JOBS_SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(1000).default(30_000),
+  JOB_ARCHIVE_AFTER_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(12 * 3600),
+  JOB_RETENTION_DAYS: z.coerce.number().int().min(1).default(7),
+  JOB_MAINTENANCE_INTERVAL_SECONDS: z.coerce.number().int().min(1).default(60),
+  // A previewed upload nobody imports or cancels releases its held text after this long.
+  UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
 });
 
 export type Config = z.infer<typeof configSchema>;
