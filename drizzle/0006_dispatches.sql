@@ -4,6 +4,7 @@ CREATE TABLE "dispatch_sends" (
 	"dispatch_id" uuid PRIMARY KEY NOT NULL,
 	"status" text DEFAULT 'pending' NOT NULL,
 	"recipient_count" integer,
+	"batch_count" integer,
 	"requested_by" uuid,
 	"created_at" timestamp with time zone DEFAULT now() NOT NULL,
 	"resolved_at" timestamp with time zone,

@@ -75,6 +75,8 @@ export const dispatchSends = pgTable(
     /** pending: waiting for the fan-out; sending: recipients queued; done: every row sent or failed. */
     status: text('status').notNull().default('pending'),
     recipientCount: integer('recipient_count'),
+    /** The mail-queue batch keys are `dispatch/<id>/<n>` for n below this. */
+    batchCount: integer('batch_count'),
     requestedBy: uuid('requested_by').references(() => accounts.id, { onDelete: 'set null' }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     resolvedAt: timestamp('resolved_at', { withTimezone: true }),
