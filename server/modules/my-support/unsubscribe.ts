@@ -32,8 +32,9 @@ const invalidLink = () =>
 export function verifyUnsubscribeToken(secret: string, token: string): { accountId: string; category: UnsubscribeCategory } {
   const [payload, sig, extra] = token.split('.');
   if (!payload || !sig || extra !== undefined) throw invalidLink();
-  const want = createHmac('sha256', keyFor(secret)).update(payload).digest().subarray(0, 18);
-  const got = Buffer.from(sig, 'base64url');
+  // Compared as text: base64url decoding forgives trailing junk, so decoded bytes could match a mangled token.
+  const want = Buffer.from(b64url(createHmac('sha256', keyFor(secret)).update(payload).digest().subarray(0, 18)));
+  const got = Buffer.from(sig);
   if (got.length !== want.length || !timingSafeEqual(got, want)) throw invalidLink();
   const [accountId, category] = Buffer.from(payload, 'base64url').toString('utf8').split('.');
   if (!accountId || !UNSUBSCRIBE_CATEGORIES.includes(category as UnsubscribeCategory)) throw invalidLink();
