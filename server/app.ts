@@ -29,12 +29,14 @@ import { createDispatchSending } from './modules/dispatches/dispatch-sending';
 import { createDispatchesRouter } from './modules/dispatches/dispatches.routes';
 import { createFilesRouter, createPublicDispatchesRouter } from './modules/dispatches/public-dispatches.routes';
 import { createEmailChoicesRouter } from './modules/my-support/email-choices.routes';
+import { createMailQueueRouter } from './modules/mail/mail.routes';
 
 export type AppDeps = {
   db: Db;
   pool: pg.Pool;
   config: Config;
-  mailer: Mailer;
+  /** Unused by the routes since every message goes through the mail queue; kept for callers that pass it. */
+  mailer?: Mailer;
   stripe: Stripe;
   logger?: Logger;
   /** Puts background work on a queue (server/jobs); workers may run in other processes. */
@@ -50,7 +52,7 @@ export type AppDeps = {
 const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook', '/api/email-choices/unsubscribe', '/api/email-choices/resubscribe']);
 
 export function createApp(deps: AppDeps): Express {
-  const { db, pool, config, mailer } = deps;
+  const { db, pool, config } = deps;
   const logger = deps.logger ?? pino({ level: config.LOG_LEVEL });
   const app = express();
   app.disable('x-powered-by');
@@ -104,13 +106,13 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
-  const auth = createAuthService({ db, config, mailer });
+  const auth = createAuthService({ db, config });
   const pp = createPassport({ config, auth });
   app.use(pp.initialize());
   app.use(pp.session());
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
-  const funding = createFunding({ db, pool, config, mailer, stripe: deps.stripe, logger });
+  const funding = createFunding({ db, pool, config, stripe: deps.stripe, logger });
   mount(app, '/api/payments', funding.webhookRouter);
   app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
 
@@ -124,6 +126,7 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/health', createHealthRouter({ db }));
   mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
   mount(app, '/api/account', createAccountRouter({ db }));
+  mount(app, '/api/admin/mail-queue', createMailQueueRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));
   mount(app, '/api/campaigns', funding.campaignsRouter);
   mount(app, '/api/pledges', funding.pledgesRouter);

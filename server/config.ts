@@ -58,6 +58,13 @@ const configSchema = z.object({
     .default(12 * 3600),
   JOB_RETENTION_DAYS: z.coerce.number().int().min(1).default(7),
   JOB_MAINTENANCE_INTERVAL_SECONDS: z.coerce.number().int().min(1).default(60),
+  // The mail queue (outbox): claim lease, attempts before a message is marked failed, poll for due retries.
+  MAIL_LEASE_SECONDS: z.coerce.number().int().min(5).default(120),
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
+  MAIL_POLL_MS: z.coerce.number().int().min(50).default(2000),
+  MAIL_MAX_BACKOFF_SECONDS: z.coerce.number().int().min(1).default(900),
+  MAIL_SEND_CONCURRENCY: z.coerce.number().int().min(1).max(50).default(4),
+  MAIL_QUEUE_KEEP_DAYS: z.coerce.number().int().min(1).default(90),
   // A previewed upload nobody imports or cancels releases its held text after this long.
   UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
 });

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { defineQueue, type JobContext } from './queue';
 
-const TASKS = ['tokens', 'rate-limits', 'sessions', 'uploads'] as const;
+const TASKS = ['tokens', 'rate-limits', 'sessions', 'uploads', 'mail'] as const;
 
 /** Clears what expires: one pass deletes a bounded number of rows per task, so a large backlog takes a few runs. */
 export const housekeepingQueue = defineQueue({
@@ -50,6 +50,12 @@ export async function runHousekeeping(ctx: Pick<JobContext, 'pool' | 'config'>, 
       // Finished jobs keep their summary, never the text.
       out.uploads += await del(
         `update orbit_ingest_jobs set content = null where content is not null and status in ('imported', 'cancelled', 'failed')`,
+      );
+    } else if (task === 'mail') {
+      // Sent messages are kept for MAIL_QUEUE_KEEP_DAYS (the admin's view of what went out); failed ones stay.
+      out.mail = await del(
+        `delete from mail_queue where id in (select id from mail_queue where state = 'sent' and sent_at < now() - make_interval(days => $1::int) limit ${LIMIT})`,
+        [config.MAIL_QUEUE_KEEP_DAYS],
       );
     }
   }

@@ -14,7 +14,8 @@
  * worker process (server/worker.ts); `npm run worker` runs workers alone, any number, on the same database.
  * The web app gets only a JobSender (`send`); `createApp({ …, jobs })`.
  *
- * Mail is not sent through a pg-boss job per message: rows in mail_queue are the outbox (see mail-queue.ts).
+ * Mail is not a pg-boss job per message: rows in mail_queue are the outbox (server/modules/mail/mail-queue.ts:
+ * queueMail(tx, …) inside the causing transaction); work() also starts the mail sender (mail-sender.ts).
  */
 import PgBoss from 'pg-boss';
 import type pg from 'pg';
@@ -25,6 +26,7 @@ import type { JobContext, JobSender, QueueDefinition, SendOptions } from './queu
 import { housekeepingQueue } from './housekeeping';
 import { dispatchPublishQueue } from './dispatch-publish';
 import { dispatchFanOutQueue } from './dispatch-fan-out';
+import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
@@ -48,6 +50,8 @@ export type CreateJobsOptions = {
   deps?: Record<string, unknown>;
   /** Queues to know (default: all). */
   queues?: QueueDefinition[];
+  /** Run the mail sender loop in work() (default true). */
+  mailSender?: boolean;
   /** This process runs workers: pg-boss's supervisor (expiry → retry, retention) and cron clock run here too. */
   worker?: boolean;
 };
@@ -148,6 +152,11 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
         );
       }
       if (q.schedule) await boss.schedule(q.name, q.schedule.cron, q.schema.parse(q.schedule.data) as object, { tz: 'UTC' });
+    }
+    if (opts.mailSender !== false) {
+      const sender = createMailSender(pool, mailSenderOptionsFrom(ctx), log.child({ part: 'mail' }));
+      await sender.start();
+      loops.push(sender);
     }
   }
 

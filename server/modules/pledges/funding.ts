@@ -17,11 +17,11 @@ import { createMySupportService } from '../my-support/my-support.service';
 import { createMySupportRouter } from '../my-support/my-support.routes';
 import { createLedgerRouter } from '../ledger/ledger.routes';
 
-export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer: Mailer; stripe: Stripe; logger: Logger }) {
-  const { db, pool, config, mailer, stripe, logger } = deps;
+export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer?: Mailer; stripe: Stripe; logger: Logger }) {
+  const { db, pool, config, stripe, logger } = deps;
   const campaigns = createCampaignsService({ db, pool, cacheMs: config.CAMPAIGN_CACHE_MS });
   const processor = createProcessor({ db, stripe });
-  const payments = createPaymentsService({ db, config, mailer, processor, campaigns, logger });
+  const payments = createPaymentsService({ db, config, processor, campaigns, logger });
   const pledges = createPledgesService({ db, config, processor, campaigns, logger });
   const mySupport = createMySupportService({ db, config, processor, pledges });
   return {
