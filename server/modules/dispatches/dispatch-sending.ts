@@ -92,6 +92,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         account.push(r.accountId);
       });
       const batchCount = Math.ceil(recipients.length / size);
+      // One parameter per column (a Postgres array), not one per value.
+      const arr = (a: string[], from: number) => sql.param(a.slice(from, from + 2000));
       let queued = 0;
       await db.transaction(async (tx) => {
         const [claimed] = await tx.select().from(dispatchSends).where(eq(dispatchSends.dispatchId, dispatchId)).for('update');
@@ -100,8 +102,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
           const r = await tx.execute(sql`
             insert into mail_queue (idempotency_key, template, to_address, data, category, headers, batch_key, account_id)
             select k, 'dispatch', t, d::jsonb, 'dispatch', h::jsonb, b, a::uuid
-              from unnest(${keys.slice(i, i + 2000)}::text[], ${to.slice(i, i + 2000)}::text[], ${data.slice(i, i + 2000)}::text[],
-                          ${headers.slice(i, i + 2000)}::text[], ${batch.slice(i, i + 2000)}::text[], ${account.slice(i, i + 2000)}::text[])
+              from unnest(${arr(keys, i)}::text[], ${arr(to, i)}::text[], ${arr(data, i)}::text[],
+                          ${arr(headers, i)}::text[], ${arr(batch, i)}::text[], ${arr(account, i)}::text[])
                    as x(k, t, d, h, b, a)
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;
@@ -171,7 +173,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         const r = await tx.execute<{ n: number }>(sql`
           with picked as (
             select id, (row_number() over (order by to_address) - 1) as rn from mail_queue
-             where batch_key = any(${keys}::text[]) and state = 'failed' and (${ids}::text[] is null or id::text = any(${ids}::text[]))),
+             where batch_key = any(${sql.param(keys)}::text[]) and state = 'failed'
+               and (${sql.param(ids)}::text[] is null or id::text = any(${sql.param(ids)}::text[]))),
           retried as (
             update mail_queue m set state = 'queued', attempts = 0, next_attempt_at = now(), lease_until = null, updated_at = now(),
                    batch_key = ${`dispatch/${dispatchId}/`} || (${n}::int + p.rn / ${size}::int)::text
