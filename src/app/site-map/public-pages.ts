@@ -14,4 +14,7 @@ export const publicPages: PublicPage[] = [
   { path: 'pledges/:id/thanks', lazy: () => import('@/app/routes/pledge-thanks') },
   { path: 'pledges/:id/cancelled', lazy: () => import('@/app/routes/pledge-cancelled') },
   { path: 'snapshots/:slug', lazy: () => import('@/app/routes/public-snapshot') },
+  { path: 'dispatches', lazy: () => import('@/app/routes/dispatches'), nav: { label: 'Dispatches', order: 30 } },
+  { path: 'dispatches/:slug', lazy: () => import('@/app/routes/dispatch') },
+  { path: 'unsubscribe', lazy: () => import('@/app/routes/unsubscribe') },
 ];
