@@ -1,4 +1,5 @@
 import { escapeHtml } from './escape';
+import { htmlToText, renderMarkdown } from '../server/lib/markdown';
 import { emailTheme as t } from './theme';
 
 /** One block of an e-mail body; the same blocks produce the HTML and the text part. */
@@ -6,7 +7,11 @@ export type EmailBlock =
   | { kind: 'paragraph'; text: string }
   | { kind: 'button'; label: string; url: string }
   | { kind: 'facts'; rows: Array<{ label: string; value: string }> }
-  | { kind: 'note'; text: string };
+  | { kind: 'note'; text: string }
+  /** Markdown written by staff, through the one sanitiser the web pages use; links made absolute against baseUrl. */
+  | { kind: 'markdown'; markdown: string; baseUrl: string }
+  /** An image by URL (batch mail carries no attachments), with its alt text, caption and an optional caution line. */
+  | { kind: 'image'; src: string; alt: string; caption?: string; caution?: string; width?: number };
 
 export interface EmailContent {
   subject: string;
@@ -16,6 +21,10 @@ export interface EmailContent {
   blocks: EmailBlock[];
   /** Why the reader receives this message; shown in the footer of both parts. */
   reason: string;
+  /** Non-transactional mail: a signed one-click link that stops this category. */
+  unsubscribeUrl?: string;
+  /** The reader's e-mail choices page. */
+  choicesUrl?: string;
 }
 
 function blockToMjml(block: EmailBlock): string {
@@ -37,7 +46,27 @@ function blockToMjml(block: EmailBlock): string {
             `<tr><th scope="row" style="text-align:left;color:${t.silverDeep};font-weight:400;padding:6px 12px 6px 0">${escapeHtml(row.label)}</th><td style="padding:6px 0;font-weight:700">${escapeHtml(row.value)}</td></tr>`,
         )
         .join('')}</mj-table>`;
+    case 'markdown':
+      return `<mj-text css-class="lk-md">${renderMarkdown(block.markdown, { baseUrl: block.baseUrl })}</mj-text>`;
+    case 'image':
+      return [
+        `<mj-image src="${escapeHtml(block.src)}" alt="${escapeHtml(block.alt)}" width="${block.width ?? 552}px" padding="8px 25px 4px" />`,
+        block.caption ? `<mj-text font-size="14px" color="${t.ink}" padding-top="2px">${escapeHtml(block.caption)}</mj-text>` : '',
+        block.caution
+          ? `<mj-text font-size="12px" color="${t.silverDeep}" padding-top="0" css-class="lk-caution">${escapeHtml(block.caution)}</mj-text>`
+          : '',
+      ]
+        .filter(Boolean)
+        .join('\n');
   }
+}
+
+function footerLinksMjml(content: EmailContent): string {
+  const links: string[] = [];
+  if (content.unsubscribeUrl)
+    links.push(`<a href="${escapeHtml(content.unsubscribeUrl)}" style="color:${t.night}">Unsubscribe from these e-mails</a>`);
+  if (content.choicesUrl) links.push(`<a href="${escapeHtml(content.choicesUrl)}" style="color:${t.night}">Your e-mail choices</a>`);
+  return links.length ? `<mj-text font-size="12px" color="${t.night}" padding-top="0">${links.join(' · ')}</mj-text>` : '';
 }
 
 export function layoutMjml(content: EmailContent): string {
@@ -65,6 +94,7 @@ export function layoutMjml(content: EmailContent): string {
     <mj-section background-color="${t.silver}" padding="16px 12px">
       <mj-column>
         <mj-text font-size="12px" line-height="1.5" color="${t.night}">${escapeHtml(content.reason)}</mj-text>
+        ${footerLinksMjml(content)}
         <mj-text font-size="12px" color="${t.nightSoft}" padding-top="0">Sent by Lightkeel on behalf of your mission team.</mj-text>
       </mj-column>
     </mj-section>
@@ -101,6 +131,15 @@ export function layoutText(content: EmailContent): string {
         // URLs stay on one line so they remain clickable in plain-text readers.
         parts.push(`${block.label}:`, block.url, '');
         break;
+      case 'markdown':
+        parts.push(htmlToText(renderMarkdown(block.markdown, { baseUrl: block.baseUrl })), '');
+        break;
+      case 'image':
+        parts.push(`[Chart: ${block.alt}]`, block.src);
+        if (block.caption) parts.push(wrap(block.caption));
+        if (block.caution) parts.push(wrap(block.caution));
+        parts.push('');
+        break;
       case 'facts': {
         const width = Math.max(...block.rows.map((r) => r.label.length));
         for (const row of block.rows) parts.push(`${`${row.label}:`.padEnd(width + 2)}${row.value}`);
@@ -109,6 +148,9 @@ export function layoutText(content: EmailContent): string {
       }
     }
   }
-  parts.push('--', wrap(content.reason), 'Sent by Lightkeel on behalf of your mission team.');
+  parts.push('--', wrap(content.reason));
+  if (content.unsubscribeUrl) parts.push('Unsubscribe from these e-mails:', content.unsubscribeUrl);
+  if (content.choicesUrl) parts.push('Your e-mail choices:', content.choicesUrl);
+  parts.push('Sent by Lightkeel on behalf of your mission team.');
   return `${parts.join('\n')}\n`;
 }

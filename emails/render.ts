@@ -1,4 +1,5 @@
 import mjml2html from 'mjml';
+import { escapeHtml } from './escape';
 import { layoutMjml, layoutText, type EmailContent } from './layout';
 import { emailDataSchemas, emailTemplates, type EmailData, type EmailName } from './templates';
 
@@ -39,8 +40,43 @@ export async function renderEmail(name: string, data: unknown): Promise<Rendered
       issues,
     );
   }
-  // The schema for `name` produced parsed.data, so it fits that template's builder.
-  const content = (emailTemplates[name] as (d: unknown) => EmailContent)(parsed.data);
+  const personal = PERSONAL_FIELDS[name];
+  if (personal) return renderPersonalised(name, parsed.data as Record<string, unknown>, personal);
+  return renderParsed(name, parsed.data);
+}
+
+// Fields that differ per recipient in otherwise identical mail (a dispatch to 10,000 readers differs only in
+// its unsubscribe link). Such mail is rendered once with placeholders, then each copy swaps in its own values:
+// mjml takes milliseconds per message, which would otherwise bound how fast a dispatch goes out.
+const PERSONAL_FIELDS: Partial<Record<EmailName, readonly string[]>> = { dispatch: ['unsubscribeUrl'] };
+const placeholder = (field: string) => `https://personal.invalid/lk-${field}-7f3a`;
+const shared = new Map<string, Promise<RenderedEmail>>();
+const SHARED_MAX = 16;
+
+async function renderPersonalised(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Promise<RenderedEmail> {
+  const generic = { ...data };
+  for (const f of fields) generic[f] = placeholder(f);
+  const key = `${name}\u0000${JSON.stringify(generic)}`;
+  let pending = shared.get(key);
+  if (!pending) {
+    pending = renderParsed(name, generic);
+    shared.set(key, pending);
+    pending.catch(() => shared.delete(key));
+    if (shared.size > SHARED_MAX) shared.delete(shared.keys().next().value!);
+  }
+  let { subject, html, text } = await pending;
+  for (const f of fields) {
+    const value = String(data[f]);
+    html = html.split(placeholder(f)).join(escapeHtml(value));
+    text = text.split(placeholder(f)).join(value);
+    subject = subject.split(placeholder(f)).join(value);
+  }
+  return { subject, html, text };
+}
+
+async function renderParsed(name: EmailName, data: unknown): Promise<RenderedEmail> {
+  // The schema for `name` produced the data, so it fits that template's builder.
+  const content = (emailTemplates[name] as (d: unknown) => EmailContent)(data);
   // mjml 5 renders asynchronously; strict validation throws on unknown tags or bad attributes.
   let result: Awaited<ReturnType<typeof mjml2html>>;
   try {

@@ -25,6 +25,12 @@ import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
 import { createFunding } from './composition/funding';
 import { createOpenDataRouter } from './modules/open-data/open-data.routes';
+import { createLocalDiskStorage, type FileStorage } from './lib/storage';
+import { createDispatchesService } from './modules/dispatches/dispatches.service';
+import { createDispatchSending } from './modules/dispatches/dispatch-sending';
+import { createDispatchesRouter } from './modules/dispatches/dispatches.routes';
+import { createFilesRouter, createPublicDispatchesRouter } from './modules/dispatches/public-dispatches.routes';
+import { createEmailChoicesRouter } from './modules/my-support/email-choices.routes';
 import { createMailQueueRouter } from './modules/mail/mail.routes';
 
 export type AppDeps = {
@@ -37,12 +43,15 @@ export type AppDeps = {
   logger?: Logger;
   /** Puts background work on a queue (server/jobs); workers may run in other processes. */
   jobs?: JobSender;
+  /** Where uploaded and generated files live (default: local disk under UPLOADS_DIR). */
+  storage?: FileStorage;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
 };
 
 // Paths whose POSTs are authenticated by a signature instead of a session (no CSRF token).
-const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook']);
+// The e-mail-choice links carry a signed token instead (RFC 8058 one-click POSTs come from mail clients).
+const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook', '/api/email-choices/unsubscribe', '/api/email-choices/resubscribe']);
 
 export function createApp(deps: AppDeps): Express {
   const { db, pool, config } = deps;
@@ -136,6 +145,14 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/public/orbit', createOpenDataRouter({ pool }));
   mount(app, '/api/public/orbit', createPublicOrbitRouter({ module: orbitDesk }));
   mount(app, '/api/public/snapshots', createPublicSnapshotsRouter({ module: orbitDesk }));
+
+  const storage = deps.storage ?? createLocalDiskStorage(config.UPLOADS_DIR);
+  const dispatches = createDispatchesService({ db, pool, config, storage, jobs: deps.jobs });
+  const sending = createDispatchSending({ db, pool, config });
+  mount(app, '/api/dispatches', createDispatchesRouter({ dispatches, sending, heroLimitBytes: config.HERO_IMAGE_MAX_BYTES }));
+  mount(app, '/api/public/dispatches', createPublicDispatchesRouter({ dispatches }));
+  mount(app, '/api/files', createFilesRouter({ dispatches }));
+  mount(app, '/api/email-choices', createEmailChoicesRouter({ db, config }));
 
   app.use('/api', notFoundApi);
 

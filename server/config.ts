@@ -51,6 +51,16 @@ const configSchema = z.object({
   STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
   // How long a public campaign read may be served from memory (progress is "consistent within seconds").
   CAMPAIGN_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
+  // Dispatch images: the local-disk storage folder, and the limits a hero image must keep.
+  UPLOADS_DIR: z.string().min(1).default('.data/uploads'),
+  HERO_IMAGE_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(5 * 1024 * 1024),
+  HERO_IMAGE_MAX_PIXELS: z.coerce.number().int().min(1).default(24_000_000),
+  // Messages per batch call when a dispatch is e-mailed (the mail service takes at most 100).
+  DISPATCH_BATCH_SIZE: z.coerce.number().int().min(1).max(100).default(100),
   // Background jobs (server/jobs): how long a stopping worker waits for running jobs; old job rows.
   JOBS_SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(1000).default(30_000),
   JOB_ARCHIVE_AFTER_SECONDS: z.coerce

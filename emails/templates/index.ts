@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { formatMoney } from '../../shared/money';
 import type { EmailContent } from '../layout';
+import { dispatchEmail, dispatchEmailSchema } from './dispatch';
 
 const text = z
   .string()
@@ -45,6 +46,7 @@ export const emailDataSchemas = {
     updateCardUrl: link,
     nextAttemptAt: z.union([z.date(), z.iso.datetime({ offset: true })]).optional(),
   }),
+  dispatch: dispatchEmailSchema,
 } as const;
 
 export type EmailName = keyof typeof emailDataSchemas;
@@ -168,4 +170,5 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
       reason: `You get this e-mail because you hold a monthly crew membership for ${d.campaignTitle}.`,
     };
   },
+  dispatch: dispatchEmail,
 };

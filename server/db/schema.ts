@@ -7,4 +7,5 @@ export * from '../modules/campaigns/campaigns.tables';
 export * from '../modules/pledges/pledges.tables';
 export * from '../modules/ledger/ledger.tables';
 export * from '../modules/payments/payments.tables';
+export * from '../modules/dispatches/dispatches.tables';
 export * from '../modules/mail/mail.tables';

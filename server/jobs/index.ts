@@ -25,13 +25,20 @@ import type { Config } from '../config';
 import type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 import { housekeepingQueue } from './housekeeping';
 import { accountMailQueue } from './account-mail';
+import { dispatchPublishQueue } from './dispatch-publish';
+import { dispatchFanOutQueue } from './dispatch-fan-out';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
 
 // Every queue the product has. Order does not matter.
-export const queues: QueueDefinition[] = [housekeepingQueue as QueueDefinition, accountMailQueue as QueueDefinition];
+export const queues: QueueDefinition[] = [
+  housekeepingQueue as QueueDefinition,
+  accountMailQueue as QueueDefinition,
+  dispatchPublishQueue as QueueDefinition,
+  dispatchFanOutQueue as QueueDefinition,
+];
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';

@@ -1,6 +1,9 @@
 // The one definition of a snapshot chart: frozen data → a geometry model (pure), which the server writes as SVG
 // (and PNG through resvg) and the web draws as React SVG with hover. Same scales, colours, labels everywhere.
 
+/** Travels with every rendered snapshot (web, SVG, PNG, e-mail): readers must not mistake estimates for safety data. */
+export const ORBIT_CAUTION = 'Orbit figures are estimates: not for collision or re-entry safety decisions.';
+
 export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
 export type SnapshotSeriesKey = (typeof snapshotSeriesKeys)[number];
 export type SnapshotSailMode = 'raising' | 'edge-on' | 'tumbling' | 'unknown';
@@ -33,6 +36,21 @@ export const SERIES: Record<
   // Stored in J/kg; drawn in MJ/kg so the axis reads well.
   energy: { label: 'Orbital energy', unit: 'MJ/kg', group: 'energy', color: '#e58fd4', scale: 1e-6, decimals: 4 },
 };
+
+/** What each line means, in plain words for backers (the public snapshot page lists the ones shown). */
+export const SERIES_EXPLAINED: Record<SnapshotSeriesKey, string> = {
+  apogee: 'Apogee is the highest point of the orbit above the ground. When the sail pushes the craft along its path, the apogee climbs.',
+  perigee:
+    'Perigee is the lowest point of the orbit. Near the bottom of the orbit the air is thickest, so a falling perigee means more drag.',
+  meanAltitude: 'Mean altitude is the average height of the orbit above the ground: half-way between apogee and perigee.',
+  semiMajorAxis:
+    'Semi-major axis is the size of the orbit measured from the centre of the Earth. It grows when the orbit gains energy and shrinks when drag takes energy away.',
+  energy:
+    'Orbital energy is how much energy each kilogram of the craft has in its orbit. A rising line means the sail is winning against air drag; a falling line means drag is winning.',
+};
+
+export const SAIL_PERIODS_EXPLAINED =
+  'Shaded bands mark sailing periods: when the team set the sail to raise the orbit, turned it edge-on to the Sun, or when it was tumbling.';
 
 const GROUP_LABEL: Record<AxisGroup, string> = {
   altitude: 'Altitude (km)',
@@ -155,6 +173,8 @@ export type ChartModel = {
   title: string;
   subtitle: string;
   captionLines: string[];
+  /** One line under the caption on every rendering: ORBIT_CAUTION. */
+  caution: string;
   plot: { x: number; y: number; w: number; h: number };
   xTicks: { x: number; label: string }[];
   axes: { side: 'left' | 'right'; label: string; ticks: { y: number; label: string }[] }[];
@@ -180,7 +200,8 @@ export function buildSnapshotChart(
   const modes = [...new Set(data.sailingPeriods.filter((p) => p.endMs > data.fromMs && p.startMs < data.toMs).map((p) => p.mode))];
   const legendRows = Math.ceil((series.length + modes.length + 1) / 3);
   const top = 64;
-  const bottom = 44 + legendRows * 20 + captionLines.length * 18 + 12;
+  // The caution line takes 18 px under the caption.
+  const bottom = 44 + legendRows * 20 + captionLines.length * 18 + 18 + 12;
   const left = 72;
   const right = groups.length > 1 ? 80 : 28;
   const plot = { x: left, y: top, w: Math.max(50, width - left - right), h: Math.max(50, height - top - bottom) };
@@ -298,6 +319,7 @@ export function buildSnapshotChart(
     title: opts.title ?? `${data.spacecraftName} orbit`,
     subtitle: `${data.spacecraftName} · ${formatDateUtc(from)} – ${formatDateUtc(to)} (UTC)${data.rateWindow ? ` · rates over ${formatDateUtc(data.rateWindow.fromMs)} – ${formatDateUtc(data.rateWindow.toMs)}` : ''}`,
     captionLines,
+    caution: ORBIT_CAUTION,
     plot,
     xTicks: timeTicks(from, to, Math.max(3, Math.floor(plot.w / 110))).map((t) => ({ x: xOf(t.ms), label: t.label })),
     axes,
@@ -406,6 +428,7 @@ export function snapshotSvg(model: ChartModel): string {
     o.push(`<text x="24" y="${cy}" fill="${c.muted}" font-size="12.5">${esc(line)}</text>`);
     cy += 18;
   }
+  o.push(`<text x="24" y="${cy}" fill="${c.axis}" font-size="11.5" font-style="italic" data-role="caution">${esc(model.caution)}</text>`);
   o.push('</svg>');
   return o.join('\n');
 }

@@ -30,11 +30,24 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     resetUrl: 'http://127.0.0.1:3000/forgot-password',
   },
   'password-changed': { displayName: hostile, changedAt: '2031-05-06T07:08:00Z', resetUrl: 'http://127.0.0.1:3000/forgot-password' },
+  dispatch: {
+    title: hostile,
+    bodyMarkdown: 'The sail **opened** on day 3. [Mission page](/campaign)',
+    excerpt: 'The sail opened on day 3.',
+    pageUrl: 'http://127.0.0.1:3000/dispatches/sail-opened-abc',
+    siteUrl: 'http://127.0.0.1:3000',
+    charts: [
+      { imageUrl: 'http://127.0.0.1:3000/api/files/charts/x.png', alt: 'Apogee rising 2 km', caption: 'After deploy', title: 'Apogee' },
+    ],
+    audienceLine: 'a backer',
+    unsubscribeUrl: 'http://127.0.0.1:3000/unsubscribe?token=abc',
+    choicesUrl: 'http://127.0.0.1:3000/my-support/email',
+  },
 };
 
 function urlOf(name: EmailName): string {
   const d = samples[name] as Record<string, unknown>;
-  return String(d.verifyUrl ?? d.signInUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl);
+  return String(d.verifyUrl ?? d.signInUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl ?? d.pageUrl);
 }
 
 describe('e-mail templates', () => {

@@ -1,4 +1,5 @@
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
+import { ORBIT_CAUTION, SAIL_PERIODS_EXPLAINED, SERIES, SERIES_EXPLAINED } from '@shared/charts/snapshot-chart';
 import { Alert } from '@/components/ui/alert';
 import { Card } from '@/components/ui/card';
 import { Spinner } from '@/components/ui/spinner';
@@ -9,7 +10,7 @@ import { NotFoundPage } from './not-found';
 import { usePublicSnapshot } from '@/features/orbit/api/snapshots';
 import { SnapshotChartView } from '@/features/orbit/components/snapshot-chart-view';
 
-/** A published snapshot at its stable link. */
+/** A published snapshot at its stable link, with what its lines mean and the way back to the mission. */
 export function Component() {
   const { slug = '' } = useParams();
   const q = usePublicSnapshot(slug);
@@ -34,6 +35,29 @@ export function Component() {
               SVG
             </a>
           </p>
+          <section aria-labelledby="reading-the-chart" className="mt-6 space-y-3 text-foil-100">
+            <h2 id="reading-the-chart" className="text-lg font-bold">
+              Reading this chart
+            </h2>
+            <ul className="list-disc space-y-2 pl-5">
+              {q.data.snapshot.data.series.map((s) => (
+                <li key={s}>
+                  <span className="font-semibold" style={{ color: SERIES[s].color }}>
+                    {SERIES[s].label}
+                  </span>{' '}
+                  ({SERIES[s].unit}): {SERIES_EXPLAINED[s]}
+                </li>
+              ))}
+              {q.data.snapshot.data.sailingPeriods.length > 0 && <li>{SAIL_PERIODS_EXPLAINED}</li>}
+              <li>Dashed lines show the average rate of change over the marked window, per day.</li>
+            </ul>
+            <p className="text-sm italic text-foil-300">{ORBIT_CAUTION}</p>
+            <p>
+              <Link className="font-semibold text-amber-300 underline" to="/">
+                Back to the {q.data.snapshot.data.spacecraftName} mission
+              </Link>
+            </p>
+          </section>
         </Card>
       )}
     </div>

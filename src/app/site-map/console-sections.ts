@@ -38,6 +38,8 @@ export const consoleSections: ConsoleSection[] = [
       'Choose each dispatch’s audience: everyone, backers, chosen tiers or crew members.',
       'Embed snapshots from the orbit desk so backers see what the sail is doing.',
     ],
+    lazy: () => import('@/app/routes/console/dispatches/list'),
+    children: [{ path: ':id', lazy: () => import('@/app/routes/console/dispatches/edit') }],
   },
   {
     id: 'snapshot-gallery',

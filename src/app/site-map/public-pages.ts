@@ -14,6 +14,9 @@ export const publicPages: PublicPage[] = [
   { path: 'pledges/:id/thanks', lazy: () => import('@/app/routes/pledge-thanks') },
   { path: 'pledges/:id/cancelled', lazy: () => import('@/app/routes/pledge-cancelled') },
   { path: 'snapshots/:slug', lazy: () => import('@/app/routes/public-snapshot') },
-  { path: 'where-it-is-now', lazy: () => import('@/app/routes/where-it-is-now'), nav: { label: 'Where it is now', order: 30 } },
-  { path: 'sky-watch', lazy: () => import('@/app/routes/sky-watch'), nav: { label: 'Sky watch', order: 40 } },
+  { path: 'dispatches', lazy: () => import('@/app/routes/dispatches'), nav: { label: 'Dispatches', order: 30 } },
+  { path: 'dispatches/:slug', lazy: () => import('@/app/routes/dispatch') },
+  { path: 'unsubscribe', lazy: () => import('@/app/routes/unsubscribe') },
+  { path: 'where-it-is-now', lazy: () => import('@/app/routes/where-it-is-now'), nav: { label: 'Where it is now', order: 40 } },
+  { path: 'sky-watch', lazy: () => import('@/app/routes/sky-watch'), nav: { label: 'Sky watch', order: 50 } },
 ];

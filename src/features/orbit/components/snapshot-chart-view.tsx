@@ -152,6 +152,9 @@ export function SnapshotChartView({ data, title, caption }: { data: SnapshotData
             {line}
           </text>
         ))}
+        <text x={24} y={ly + 26 + m.captionLines.length * 18} fill={c.axis} fontSize={11.5} fontStyle="italic" data-role="caution">
+          {m.caution}
+        </text>
         {hover && hover[0] && (
           <g pointerEvents="none">
             <line x1={hover[0].x} x2={hover[0].x} y1={plot.y} y2={plot.y + plot.h} stroke={c.text} strokeOpacity={0.5} />
