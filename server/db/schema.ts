@@ -7,3 +7,4 @@ export * from '../modules/campaigns/campaigns.tables';
 export * from '../modules/pledges/pledges.tables';
 export * from '../modules/ledger/ledger.tables';
 export * from '../modules/payments/payments.tables';
+export * from '../modules/books/books.tables';

@@ -24,6 +24,14 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     updateCardUrl: 'http://127.0.0.1:3000/my-support/card',
     nextAttemptAt: '2031-03-04T10:15:00Z',
   },
+  'refund-issued': {
+    displayName: hostile,
+    campaignTitle: hostileTitle,
+    amountMinor: 1250,
+    currency: 'USD',
+    reason: 'Backer asked',
+    receiptUrl: 'http://127.0.0.1:3000/my-support/receipts/9',
+  },
 };
 
 function urlOf(name: EmailName): string {

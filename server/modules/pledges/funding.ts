@@ -16,6 +16,7 @@ import { createPledgesRouter } from './pledges.routes';
 import { createMySupportService } from '../my-support/my-support.service';
 import { createMySupportRouter } from '../my-support/my-support.routes';
 import { createLedgerRouter } from '../ledger/ledger.routes';
+import { createBooks } from '../books/books.routes';
 
 export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer: Mailer; stripe: Stripe; logger: Logger }) {
   const { db, pool, config, mailer, stripe, logger } = deps;
@@ -24,8 +25,12 @@ export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mai
   const payments = createPaymentsService({ db, config, mailer, processor, campaigns, logger });
   const pledges = createPledgesService({ db, config, processor, campaigns, logger });
   const mySupport = createMySupportService({ db, config, processor, pledges });
+  const books = createBooks({ db, config, mailer, processor, logger });
   return {
-    services: { campaigns, payments, pledges, mySupport },
+    services: { campaigns, payments, pledges, mySupport, books: books.services },
+    booksRouter: books.router,
+    receiptsRouter: books.receiptsRouter,
+    publicAccountsRouter: books.publicRouter,
     webhookRouter: createPaymentsWebhookRouter({ payments, stripe, config }),
     campaignsRouter: createCampaignsRouter({ campaigns }),
     pledgesRouter: createPledgesRouter({ pledges }),
