@@ -5,7 +5,7 @@ import { desc, eq, ilike, or, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
 import type { Mailer } from '../../lib/mailer';
-import type { Processor } from '../payments/processor';
+import { processorUnavailable, type Processor } from '../payments/processor';
 import { validated } from '../../middleware/validate';
 import { requireAuth, requireRole } from '../../middleware/auth';
 import {
@@ -95,16 +95,19 @@ export function createBooks(deps: { db: Db; config: Config; mailer: Mailer; proc
     '/pledges/:id/refunds',
     validated({ params: idParams, body: createRefundSchema }, async (req, res, { params, body }) => {
       const refund = await refunds.create(params.id, body, req.user!.id);
-      res
-        .status(201)
-        .json({
-          refund: { id: refund.id, status: refund.status, processorRefundId: refund.processorRefundId, amountMinor: refund.amountMinor },
-        });
+      res.status(201).json({
+        refund: { id: refund.id, status: refund.status, processorRefundId: refund.processorRefundId, amountMinor: refund.amountMinor },
+      });
     }),
   );
 
   router.get('/disputes', async (_req, res) => {
-    const list = await deps.processor.stripe.disputes.list({ limit: 100 }).autoPagingToArray({ limit: 1000 });
+    const list = await deps.processor.stripe.disputes
+      .list({ limit: 100 })
+      .autoPagingToArray({ limit: 1000 })
+      .catch((err: unknown) => {
+        throw processorUnavailable(err);
+      });
     const chargeIds = list.map((d) => (typeof d.charge === 'string' ? d.charge : d.charge.id));
     const linked = chargeIds.length
       ? await db.execute<{ charge: string; pledge_id: string }>(
