@@ -13,6 +13,7 @@ import type Stripe from 'stripe';
 import type { Db } from './db/client';
 import type { Config } from './config';
 import type { Mailer } from './lib/mailer';
+import type { JobSender } from './jobs/queue';
 import { mount } from './lib/routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { createAuthService } from './modules/auth/auth.service';
@@ -22,14 +23,18 @@ import { createAccountRouter, createAdminRouter } from './modules/accounts/accou
 import { createHealthRouter } from './modules/health/health.routes';
 import { createOrbitModule, createOrbitRouter, createPublicOrbitRouter, createPublicSnapshotsRouter } from './modules/orbit/orbit.routes';
 import { createFunding } from './modules/pledges/funding';
+import { createMailQueueRouter } from './modules/mail/mail.routes';
 
 export type AppDeps = {
   db: Db;
   pool: pg.Pool;
   config: Config;
-  mailer: Mailer;
+  /** Unused by the routes since every message goes through the mail queue; kept for callers that pass it. */
+  mailer?: Mailer;
   stripe: Stripe;
   logger?: Logger;
+  /** Puts background work on a queue (server/jobs); workers may run in other processes. */
+  jobs?: JobSender;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
 };
@@ -38,7 +43,7 @@ export type AppDeps = {
 const CSRF_EXEMPT = new Set<string>(['/api/payments/webhook']);
 
 export function createApp(deps: AppDeps): Express {
-  const { db, pool, config, mailer } = deps;
+  const { db, pool, config } = deps;
   const logger = deps.logger ?? pino({ level: config.LOG_LEVEL });
   const app = express();
   app.disable('x-powered-by');
@@ -92,13 +97,13 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
-  const auth = createAuthService({ db, config, mailer });
+  const auth = createAuthService({ db, config });
   const pp = createPassport({ config, auth });
   app.use(pp.initialize());
   app.use(pp.session());
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
-  const funding = createFunding({ db, pool, config, mailer, stripe: deps.stripe, logger });
+  const funding = createFunding({ db, pool, config, stripe: deps.stripe, logger });
   mount(app, '/api/payments', funding.webhookRouter);
   app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
 
@@ -112,6 +117,7 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/health', createHealthRouter({ db }));
   mount(app, '/api/auth', createAuthRouter({ db, auth, pp, config, generateCsrfToken: generateToken }));
   mount(app, '/api/account', createAccountRouter({ db }));
+  mount(app, '/api/admin/mail-queue', createMailQueueRouter({ db }));
   mount(app, '/api/admin', createAdminRouter({ db }));
   mount(app, '/api/campaigns', funding.campaignsRouter);
   mount(app, '/api/pledges', funding.pledgesRouter);

@@ -39,6 +39,24 @@ const configSchema = z.object({
   STRIPE_API_BASE_URL: z.union([z.url(), z.literal('')]).default('http://127.0.0.1:4030'),
   // How long a public campaign read may be served from memory (progress is "consistent within seconds").
   CAMPAIGN_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
+  // Background jobs (server/jobs): how long a stopping worker waits for running jobs; old job rows.
+  JOBS_SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(1000).default(30_000),
+  JOB_ARCHIVE_AFTER_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(12 * 3600),
+  JOB_RETENTION_DAYS: z.coerce.number().int().min(1).default(7),
+  JOB_MAINTENANCE_INTERVAL_SECONDS: z.coerce.number().int().min(1).default(60),
+  // The mail queue (outbox): claim lease, attempts before a message is marked failed, poll for due retries.
+  MAIL_LEASE_SECONDS: z.coerce.number().int().min(5).default(120),
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
+  MAIL_POLL_MS: z.coerce.number().int().min(50).default(2000),
+  MAIL_MAX_BACKOFF_SECONDS: z.coerce.number().int().min(1).default(900),
+  MAIL_SEND_CONCURRENCY: z.coerce.number().int().min(1).max(50).default(4),
+  MAIL_QUEUE_KEEP_DAYS: z.coerce.number().int().min(1).default(90),
+  // A previewed upload nobody imports or cancels releases its held text after this long.
+  UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -24,6 +24,10 @@ export interface MailFaults {
   rateLimitNext?: number;
   /** The next n API requests answer 500 internal_server_error. */
   failNext?: number;
+  /** Every API request waits this long (ms) before it is handled: a slow service. */
+  delayMs?: number;
+  /** Seconds announced in retry-after for injected 429s. */
+  retryAfterSeconds?: number;
 }
 
 export interface MailFake {
@@ -66,11 +70,18 @@ function countOf(value: unknown, field: string): number | undefined {
   return value;
 }
 
+function msOf(value: unknown, field: string): number | undefined {
+  if (value === undefined) return undefined;
+  if (typeof value !== 'number' || !Number.isInteger(value) || value < 0 || value > 60_000) {
+    throw new ApiError(400, 'validation_error', `\`${field}\` must be an integer from 0 to 60000 (milliseconds).`);
+  }
+  return value;
+}
+
 export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFake> {
   const apiKey = opts.apiKey ?? 're_lightkeel_local';
-  const retryAfterSeconds = opts.retryAfterSeconds ?? 1;
   let store: StoredMessage[] = loadState(opts.statePath); // oldest first
-  const faultState = { rateLimitNext: 0, failNext: 0 };
+  const faultState = { rateLimitNext: 0, failNext: 0, delayMs: 0, retryAfterSeconds: opts.retryAfterSeconds ?? 1 };
   const idempotency = new Map<string, { hash: string; body: unknown; at: number }>();
 
   function persist(): void {
@@ -117,7 +128,9 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
     }
     next();
   };
-  const injectFaults = (_req: Request, _res: Response, next: NextFunction) => {
+  const injectFaults = async (_req: Request, _res: Response, next: NextFunction) => {
+    if (faultState.delayMs > 0) await new Promise((r) => setTimeout(r, faultState.delayMs));
+    const retryAfterSeconds = faultState.retryAfterSeconds;
     if (faultState.rateLimitNext > 0) {
       faultState.rateLimitNext -= 1;
       return next(
@@ -237,7 +250,9 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
     const body = (req.body ?? {}) as Record<string, unknown>;
     const rateLimitNext = countOf(body.rateLimitNext, 'rateLimitNext');
     const failNext = countOf(body.failNext, 'failNext');
-    setFaults({ rateLimitNext, failNext });
+    const delayMs = msOf(body.delayMs, 'delayMs');
+    const retryAfterSeconds = countOf(body.retryAfterSeconds, 'retryAfterSeconds');
+    setFaults({ rateLimitNext, failNext, delayMs, retryAfterSeconds });
     res.json({ ...faultState });
   });
   app.get('/_fake/faults', (_req, res) => {
@@ -301,6 +316,8 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   function setFaults(f: MailFaults): void {
     if (f.rateLimitNext !== undefined) faultState.rateLimitNext = countOf(f.rateLimitNext, 'rateLimitNext') ?? 0;
     if (f.failNext !== undefined) faultState.failNext = countOf(f.failNext, 'failNext') ?? 0;
+    if (f.delayMs !== undefined) faultState.delayMs = msOf(f.delayMs, 'delayMs') ?? 0;
+    if (f.retryAfterSeconds !== undefined) faultState.retryAfterSeconds = countOf(f.retryAfterSeconds, 'retryAfterSeconds') ?? 1;
   }
   function clear(): void {
     store = [];

@@ -1,5 +1,6 @@
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
+import PgBoss from 'pg-boss';
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
 
@@ -9,6 +10,16 @@ export async function migrateDatabase(url: string) {
   const pool = new pg.Pool({ connectionString: url, max: 1 });
   try {
     await migrate(drizzle(pool), { migrationsFolder });
+    // The job system's own tables (schema "pgboss"), created or upgraded by pg-boss itself (it takes an
+    // advisory lock, so concurrent starts are safe). Installing them here keeps every process's start cheap.
+    const boss = new PgBoss({
+      db: { executeSql: (text, values) => pool.query(text, values) },
+      schema: 'pgboss',
+      supervise: false,
+      schedule: false,
+    });
+    await boss.start();
+    await boss.stop({ graceful: false, close: false });
   } finally {
     await pool.end();
   }

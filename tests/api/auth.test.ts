@@ -41,6 +41,7 @@ describe('sign-up and sign-in', () => {
 
   it('sends a verification mail whose link verifies the address once', async () => {
     const { agent } = await signUp('sandpiper@example.org');
+    await t.flushMail();
     const mail = t.mail.messages().find((m) => [m.to].flat().includes('sandpiper@example.org'));
     expect(mail?.subject).toMatch(/confirm|verify/i);
     const token = /verify-email\?token=([\w-]+)/.exec(String(mail?.html))?.[1];
@@ -144,6 +145,7 @@ describe('password reset through the mail fake', () => {
     const agent = agentFor(t.app);
     await agent.token();
     await agent.post('/api/auth/request-password-reset').set('x-csrf-token', agent.csrf).send({ email: 'godwit@example.org' }).expect(202);
+    await t.flushMail();
     const mail = t.mail
       .messages()
       .filter((m) => [m.to].flat().includes('godwit@example.org'))
@@ -170,6 +172,7 @@ describe('password reset through the mail fake', () => {
     const agent = agentFor(t.app);
     await agent.token();
     await agent.post('/api/auth/request-password-reset').set('x-csrf-token', agent.csrf).send({ email: 'knot@example.org' }).expect(202);
+    await t.flushMail();
     const mail = t.mail.messages().find((m) => [m.to].flat().includes('knot@example.org') && /reset/i.test(m.subject));
     const token = /reset-password\?token=([\w-]+)/.exec(String(mail!.html))?.[1];
     await t.database.db.execute(sql`update auth_tokens set expires_at = now() - interval '1 minute' where purpose = 'reset-password'`);
@@ -186,6 +189,7 @@ describe('password reset through the mail fake', () => {
     const agent = agentFor(t.app);
     await agent.token();
     await agent.post('/api/auth/request-password-reset').set('x-csrf-token', agent.csrf).send({ email: 'ghost@example.org' }).expect(202);
+    await t.flushMail();
     expect(t.mail.messages().length).toBe(before);
   });
 });

@@ -58,6 +58,7 @@ describe('refunds', () => {
     ]);
     expect(rs[1]!.replacesReceiptId).toBe(rs[0]!.id);
     // The backer was told twice, the audit has both requests and the refused race was not recorded.
+    await w.t.flushMail();
     const mails = w.t.mail.messages().filter((m: { subject: string }) => /refund/i.test(m.subject));
     expect(mails).toHaveLength(2);
     const audits = await w.t.database.db.select().from(auditLog).where(eq(auditLog.action, 'books.refund_requested'));

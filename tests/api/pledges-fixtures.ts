@@ -166,6 +166,7 @@ export async function ledgerOf(w: World, pledgeId: string) {
 
 export async function counts(w: World) {
   const db = w.t.database.db;
+  await w.t.flushMail();
   return { ledger: await db.$count(ledgerEntries), events: await db.$count(processedEvents), mails: w.t.mail.messages().length };
 }
 

@@ -74,14 +74,16 @@ describe('crew memberships (monthly tiers)', () => {
     const { pledgeId, membership } = await subscribe(agent);
     const row = await pledgeRow(w, pledgeId);
     w.fake.customers.failRenewals(row.processorCustomerId!, true, 'insufficient_funds');
-    const renewalMails = () =>
-      w.t.mail.messages().filter((m) => [m.to].flat().includes('finance@saltmarsh.example') && /could not be renewed/.test(m.subject));
-    expect(renewalMails()).toHaveLength(0);
+    const renewalMails = async () =>
+      (await w.t.flushMail(), w.t.mail.messages()).filter(
+        (m) => [m.to].flat().includes('finance@saltmarsh.example') && /could not be renewed/.test(m.subject),
+      );
+    expect(await renewalMails()).toHaveLength(0);
 
     await w.fake.clock.advance(31 * DAY);
     await settle(w);
 
-    const failed = renewalMails();
+    const failed = await renewalMails();
     expect(failed).toHaveLength(1);
     expect(String(failed[0]!.html)).toContain(`${w.baseUrl}/my-support/memberships/${membership.id}/card`);
     expect(String(failed[0]!.html)).toMatch(/try again on/i);

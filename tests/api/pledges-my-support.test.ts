@@ -86,6 +86,7 @@ describe('my support', () => {
     await agent.put('/api/my-support/email-preferences').set('x-csrf-token', agent.csrf).send({ dispatches: 'no' }).expect(400);
     const { id } = await paidPledge(w, agent, { amountMinor: 1500 });
     expect((await pledgeRow(w, id)).state).toBe('paid');
+    await w.t.flushMail();
     expect(w.t.mail.messages().filter((m) => [m.to].flat().includes('godwit@example.org') && /Thank you/.test(m.subject))).toHaveLength(0);
   });
 

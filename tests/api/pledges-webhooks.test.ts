@@ -115,6 +115,7 @@ describe('webhook signatures', () => {
 
 describe('events out of order', () => {
   it('ends paid with one charge when the payment event comes before the checkout event, and the rest arrive newest first', async () => {
+    await w.t.flushMail();
     const mailsBefore = w.t.mail.messages().length;
     const { id, session, pi } = await paidWithoutWebhooks({ tierId: w.tier.patch.id, amountMinor: 7000 });
     const all = w.fake.state().collections.event.filter((e) => e.data?.object?.id === session.id || e.data?.object?.id === pi);
@@ -135,6 +136,7 @@ describe('events out of order', () => {
       ['charge', 7000],
       ['fee', -233],
     ]);
+    await w.t.flushMail();
     expect(w.t.mail.messages().length - mailsBefore).toBe(1);
   });
 

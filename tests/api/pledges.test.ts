@@ -34,6 +34,7 @@ describe('a one-time pledge through the hosted checkout', () => {
     expect(ledger[0]!.processorObjectId).toMatch(/^ch_/);
     expect(ledger[1]!.processorObjectId).toMatch(/^txn_/);
 
+    await w.t.flushMail();
     const mails = w.t.mail.messages().filter((m) => /Thank you for backing/.test(m.subject));
     expect(mails).toHaveLength(1);
     expect([mails[0]!.to].flat()).toEqual(['backer@saltmarsh.example']);

@@ -36,6 +36,8 @@ export const rbacTable: Row[] = [
   { route: 'POST /api/admin/accounts/:id/roles', sample: `/api/admin/accounts/${someId}/roles`, ...adminOnly, admin: 400 },
   { route: 'DELETE /api/admin/accounts/:id/roles/:role', sample: `/api/admin/accounts/${someId}/roles/finance`, ...adminOnly, admin: 404 },
   { route: 'GET /api/admin/audit', ...adminOnly, admin: 200 },
+  { route: 'GET /api/admin/mail-queue', ...adminOnly, admin: 200 },
+  { route: 'POST /api/admin/mail-queue/:id/retry', sample: `/api/admin/mail-queue/${someId}/retry`, ...adminOnly, admin: 404 },
   // Pledges and memberships (issue 5). No campaign exists in the RBAC database, hence the 404s.
   { route: 'POST /api/payments/webhook', anon: 400, backer: 400, outreach: 400, engineer: 400, finance: 400, admin: 400 },
   { route: 'GET /api/campaigns', ...everyone, anon: 200, backer: 200 },

@@ -1,5 +1,7 @@
 // The browser suite runs the whole product as `npm start` does — throwaway PostgreSQL, migrations, demo
 // seed, local fakes, the built client served by the API — on free loopback ports.
+import pino from 'pino';
+import { createJobs } from '../../server/jobs';
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -54,10 +56,15 @@ export default async function setup(project: TestProject) {
   const build = spawnSync(path.join('node_modules', '.bin', 'vite'), ['build', '--logLevel', 'error'], { stdio: 'inherit' });
   if (build.status !== 0) throw new Error('vite build failed');
 
+  // One process plays web and worker here: the jobs (and the mail sender) run beside the app.
+  const jobs = createJobs({ pool, db, config, logger: pino({ level: 'silent' }), worker: true });
+  await jobs.start();
+  await jobs.work();
   const app = createApp({
     db,
     pool,
     config,
+    jobs,
     mailer: createMailerFromConfig(config),
     stripe: createStripeFromConfig(config),
     clientDir: defaultClientDir,
@@ -71,6 +78,7 @@ export default async function setup(project: TestProject) {
 
   return async () => {
     await new Promise((r) => server.close(r));
+    await jobs.stop();
     await pool.end();
     await fakes.close();
     cluster.stop();

@@ -5,12 +5,16 @@ import { createApp } from '../../server/app';
 import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
 import { createTestDatabase, type TestDatabase } from './test-db';
 import { createMailFake } from '../../fakes/mail/server';
+import { createMailSender, mailSenderOptionsFrom } from '../../server/jobs/mail-sender';
+import pino from 'pino';
 
 export type TestApp = {
   app: Express;
   config: Config;
   database: TestDatabase;
   mail: Awaited<ReturnType<typeof createMailFake>>;
+  /** Sends what the mail queue holds now (what a worker does), through the SDK to the mail fake. */
+  flushMail: () => Promise<number>;
   /** Builds another app instance on the same database (e.g. to test a restart). */
   rebuild: () => Express;
   close: () => Promise<void>;
@@ -38,11 +42,13 @@ export async function createTestApp(env: Record<string, string> = {}, opts: { ke
       stripe: createStripeFromConfig(config),
     });
   const app = build();
+  const sender = createMailSender(database.pool, mailSenderOptionsFrom({ config, deps: {} }), pino({ level: 'silent' }));
   return {
     app,
     config,
     database,
     mail,
+    flushMail: () => sender.drain(),
     rebuild: build,
     close: async () => {
       if (!opts.keepMail) await mail.close();

@@ -3,7 +3,7 @@ import { and, eq, gt, isNull } from 'drizzle-orm';
 import { hash, verify, type Algorithm } from '@node-rs/argon2';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
-import type { Mailer } from '../../lib/mailer';
+import { queueMail, type DbOrTx } from '../mail/mail-queue';
 import { accounts, authTokens, identities } from '../accounts/accounts.tables';
 import { createAccountsRepository } from '../accounts/accounts.repository';
 import { recordAudit } from '../audit/audit.repository';
@@ -19,15 +19,18 @@ export const invalidCredentials = () => new AppError(401, 'auth.invalid_credenti
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
-export function createAuthService({ db, config, mailer }: { db: Db; config: Config; mailer: Mailer }) {
+export function createAuthService({ db, config }: { db: Db; config: Config }) {
   const repo = createAccountsRepository({ db });
   // Verifying against a real hash when the e-mail is unknown keeps the answer time the same.
   const dummyHash = hash('not-a-real-password-lightkeel', ARGON2);
 
-  async function issueToken(accountId: string, purpose: 'verify-email' | 'reset-password', ttlMs: number) {
+  async function issueToken(tx: DbOrTx, accountId: string, purpose: 'verify-email' | 'reset-password', ttlMs: number) {
     const token = randomBytes(32).toString('base64url');
-    await db.insert(authTokens).values({ accountId, purpose, tokenHash: sha256(token), expiresAt: new Date(Date.now() + ttlMs) });
-    return token;
+    const [row] = await tx
+      .insert(authTokens)
+      .values({ accountId, purpose, tokenHash: sha256(token), expiresAt: new Date(Date.now() + ttlMs) })
+      .returning({ id: authTokens.id });
+    return { token, tokenId: row!.id };
   }
 
   async function consumeToken(token: string, purpose: string) {
@@ -49,12 +52,21 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
     });
   }
 
-  async function sendVerification(account: { id: string; email: string; displayName: string }) {
-    const token = await issueToken(account.id, 'verify-email', VERIFY_HOURS * 3600_000);
-    await mailer.send('verify-email', account.email, {
-      displayName: account.displayName,
-      verifyUrl: `${config.PUBLIC_URL}/verify-email?token=${token}`,
-    });
+  /** Issues a verification token and queues its mail, both in `tx` (or a transaction of their own). */
+  async function sendVerification(account: { id: string; email: string; displayName: string }, tx?: DbOrTx) {
+    const run = async (t: DbOrTx) => {
+      const { token, tokenId } = await issueToken(t, account.id, 'verify-email', VERIFY_HOURS * 3600_000);
+      await queueMail(t, {
+        template: 'verify-email',
+        to: account.email,
+        category: 'transactional',
+        accountId: account.id,
+        idempotencyKey: `verify-email/${tokenId}`,
+        data: { displayName: account.displayName, verifyUrl: `${config.PUBLIC_URL}/verify-email?token=${token}` },
+      });
+    };
+    if (tx) await run(tx);
+    else await db.transaction(run);
   }
 
   return {
@@ -71,9 +83,9 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
           subjectId: row.id,
           after: { email: row.email, via: 'password' },
         });
+        await sendVerification(row, tx);
         return row;
       });
-      await sendVerification(account).catch(() => undefined); // the account stands; the mail can be re-sent
       return account;
     },
 
@@ -135,11 +147,20 @@ export function createAuthService({ db, config, mailer }: { db: Db; config: Conf
     async requestPasswordReset(email: string) {
       const account = await repo.findByEmail(email);
       if (!account) return;
-      const token = await issueToken(account.id, 'reset-password', RESET_MINUTES * 60_000);
-      await mailer.send('password-reset', account.email, {
-        displayName: account.displayName,
-        resetUrl: `${config.PUBLIC_URL}/reset-password?token=${token}`,
-        expiresInMinutes: RESET_MINUTES,
+      await db.transaction(async (tx) => {
+        const { token, tokenId } = await issueToken(tx, account.id, 'reset-password', RESET_MINUTES * 60_000);
+        await queueMail(tx, {
+          template: 'password-reset',
+          to: account.email,
+          category: 'transactional',
+          accountId: account.id,
+          idempotencyKey: `password-reset/${tokenId}`,
+          data: {
+            displayName: account.displayName,
+            resetUrl: `${config.PUBLIC_URL}/reset-password?token=${token}`,
+            expiresInMinutes: RESET_MINUTES,
+          },
+        });
       });
     },
 

@@ -4,7 +4,6 @@ import type { Logger } from 'pino';
 import { desc, eq, ilike, or, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
-import type { Mailer } from '../../lib/mailer';
 import { processorUnavailable, type Processor } from '../payments/processor';
 import { validated } from '../../middleware/validate';
 import { requireAuth, requireRole } from '../../middleware/auth';
@@ -35,7 +34,7 @@ function sendFile(res: Response, body: Buffer | string, type: string, filename: 
   res.send(body);
 }
 
-export function createBooks(deps: { db: Db; config: Config; mailer: Mailer; processor: Processor; logger: Logger }) {
+export function createBooks(deps: { db: Db; config: Config; processor: Processor; logger: Logger }) {
   const { db } = deps;
   const refunds = createRefundsService(deps);
   const reconciliation = createReconciliationService(deps);

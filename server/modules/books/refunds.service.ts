@@ -5,7 +5,7 @@ import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { Logger } from 'pino';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
-import type { Mailer } from '../../lib/mailer';
+import { queueMail } from '../mail/mail-queue';
 import type { Processor } from '../payments/processor';
 import { refundRequests } from './books.tables';
 import { ledgerEntries } from '../ledger/ledger.tables';
@@ -13,7 +13,7 @@ import { pledges } from '../pledges/pledges.tables';
 import { campaigns } from '../campaigns/campaigns.tables';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit } from '../audit/audit.repository';
-import { lockPledge } from '../pledges/pledge-ledger';
+import { lockPledge, type Tx } from '../pledges/pledge-ledger';
 import { AppError, conflict, notFound } from '../../errors';
 import type { CreateRefundInput, RefundReason } from '../../../shared/schemas/books';
 import { receipts } from './books.tables';
@@ -31,7 +31,7 @@ export const refundReasonLabel: Record<RefundReason, string> = {
   fraudulent: 'The payment was not made by the card holder',
 };
 
-export function createRefundsService(deps: { db: Db; config: Config; mailer: Mailer; processor: Processor; logger: Logger }) {
+export function createRefundsService(deps: { db: Db; config: Config; processor: Processor; logger: Logger }) {
   const { db, processor } = deps;
 
   /** What is still refundable on a charge: paid − refunded in the ledger − requested refunds not yet in it. */
@@ -60,10 +60,12 @@ export function createRefundsService(deps: { db: Db; config: Config; mailer: Mai
     return { charge, refundedMinor, pendingMinor, remainingMinor: charge.amountMinor - refundedMinor - pendingMinor };
   }
 
-  async function sendMail(requestId: string) {
-    const [row] = await db
+  /** Queues the backer's e-mail in the caller's transaction (the outbox): it leaves only if the refund is recorded. */
+  async function queueRefundMail(tx: Tx, requestId: string) {
+    const [row] = await tx
       .select({
         r: refundRequests,
+        accountId: accounts.id,
         email: accounts.email,
         name: accounts.displayName,
         deletedAt: accounts.deletedAt,
@@ -75,14 +77,17 @@ export function createRefundsService(deps: { db: Db; config: Config; mailer: Mai
       .leftJoin(accounts, eq(accounts.id, pledges.backerId))
       .where(eq(refundRequests.id, requestId));
     if (!row?.email || row.deletedAt) return;
-    const [charge] = await db
+    const [charge] = await tx
       .select({ id: ledgerEntries.id })
       .from(ledgerEntries)
       .where(and(eq(ledgerEntries.processorObjectId, row.r.processorChargeId), eq(ledgerEntries.kind, 'charge')));
-    await deps.mailer.send(
-      'refund-issued',
-      row.email,
-      {
+    await queueMail(tx, {
+      template: 'refund-issued',
+      to: row.email,
+      category: 'transactional',
+      accountId: row.accountId,
+      idempotencyKey: `refund-issued/${requestId}`,
+      data: {
         displayName: row.name ?? 'backer',
         campaignTitle: row.title,
         amountMinor: row.r.amountMinor,
@@ -90,8 +95,7 @@ export function createRefundsService(deps: { db: Db; config: Config; mailer: Mai
         reason: refundReasonLabel[row.r.reason as RefundReason] ?? row.r.reason,
         receiptUrl: `${deps.config.PUBLIC_URL}/my-support/receipts/${charge?.id ?? ''}`,
       },
-      { idempotencyKey: `refund-issued/${requestId}` },
-    );
+    });
   }
 
   return {
@@ -178,13 +182,15 @@ export function createRefundsService(deps: { db: Db; config: Config; mailer: Mai
         });
         throw new AppError(502, 'books.refund_refused', `The processor did not make the refund: ${message}`);
       }
-      const [sent] = await db
-        .update(refundRequests)
-        .set({ status: 'sent', processorRefundId: refundId })
-        .where(eq(refundRequests.id, request.id))
-        .returning();
-      await sendMail(request.id).catch((err: unknown) => deps.logger.error({ err, requestId: request.id }, 'refund e-mail failed'));
-      return sent!;
+      return db.transaction(async (tx) => {
+        const [sent] = await tx
+          .update(refundRequests)
+          .set({ status: 'sent', processorRefundId: refundId })
+          .where(eq(refundRequests.id, request.id))
+          .returning();
+        await queueRefundMail(tx, request.id);
+        return sent!;
+      });
     },
 
     /** A pledge as finance sees it: its ledger rows, refunds (pending until the ledger has them) and receipts. */

@@ -6,7 +6,7 @@ import type Stripe from 'stripe';
 import type { Logger } from 'pino';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
-import type { Mailer } from '../../lib/mailer';
+import { MailQueueDataError, queueMail } from '../mail/mail-queue';
 import { processedEvents } from './payments.tables';
 import { pledges, memberships } from '../pledges/pledges.tables';
 import { campaigns, tiers } from '../campaigns/campaigns.tables';
@@ -31,7 +31,8 @@ import type { CampaignsService } from '../campaigns/campaigns.service';
 /** The event cannot be applied yet (what it refers to has not arrived); answering non-2xx makes the processor retry. */
 export class RetryLater extends Error {}
 
-type AfterCommit = () => Promise<void>;
+/** Mail written to the outbox inside the event's transaction, after its handler ran (see mail-queue.ts). */
+type AfterCommit = (tx: Tx) => Promise<void>;
 type Outcome = 'applied' | 'duplicate' | 'ignored';
 
 const uuidRe = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -54,15 +55,8 @@ function periodEndOf(sub: Stripe.Subscription): Date | null {
   return typeof end === 'number' ? new Date(end * 1000) : null;
 }
 
-export function createPaymentsService(deps: {
-  db: Db;
-  config: Config;
-  mailer: Mailer;
-  processor: Processor;
-  campaigns: CampaignsService;
-  logger: Logger;
-}) {
-  const { db, config, mailer, processor } = deps;
+export function createPaymentsService(deps: { db: Db; config: Config; processor: Processor; campaigns: CampaignsService; logger: Logger }) {
+  const { db, config, processor } = deps;
   const stripe = processor.stripe;
 
   async function pledgeIdByColumn(column: 'paymentIntentId' | 'subscriptionId', value: string | null) {
@@ -130,61 +124,70 @@ export function createPaymentsService(deps: {
     return row!;
   }
 
-  async function wantsMail(accountId: string, kind: 'receipts' | 'membership') {
-    const [prefs] = await db.select().from(emailPreferences).where(eq(emailPreferences.accountId, accountId));
+  async function wantsMail(tx: Tx, accountId: string, kind: 'receipts' | 'membership') {
+    const [prefs] = await tx.select().from(emailPreferences).where(eq(emailPreferences.accountId, accountId));
     return prefs ? prefs[kind] : true;
   }
 
   function confirmationMail(pledgeId: string): AfterCommit {
-    return async () => {
-      const [row] = await db
+    return async (tx) => {
+      const [row] = await tx
         .select({ pledge: pledges, account: accounts, campaignTitle: campaigns.title, tierTitle: tiers.title })
         .from(pledges)
         .innerJoin(campaigns, eq(campaigns.id, pledges.campaignId))
         .leftJoin(tiers, eq(tiers.id, pledges.tierId))
         .leftJoin(accounts, eq(accounts.id, pledges.backerId))
         .where(eq(pledges.id, pledgeId));
-      if (!row?.account || row.account.deletedAt || !(await wantsMail(row.account.id, 'receipts'))) return;
-      const [charge] = await db
+      if (!row?.account || row.account.deletedAt || !(await wantsMail(tx, row.account.id, 'receipts'))) return;
+      const [charge] = await tx
         .select({ id: ledgerEntries.id, amountMinor: ledgerEntries.amountMinor, currency: ledgerEntries.currency })
         .from(ledgerEntries)
         .where(and(eq(ledgerEntries.pledgeId, pledgeId), eq(ledgerEntries.kind, 'charge')))
         .orderBy(ledgerEntries.occurredAt, ledgerEntries.id)
         .limit(1);
       if (!charge) return;
-      try {
-        await mailer.send('pledge-confirmation', row.account.email, {
+      // The pledge's confirmationSentAt claim (pledge-ledger.ts) and this row commit together.
+      await queueMail(tx, {
+        template: 'pledge-confirmation',
+        to: row.account.email,
+        category: 'transactional',
+        accountId: row.account.id,
+        idempotencyKey: `pledge-confirmation/${pledgeId}`,
+        data: {
           displayName: row.account.displayName,
           campaignTitle: row.campaignTitle,
           ...(row.tierTitle ? { tierTitle: row.tierTitle } : {}),
           amountMinor: charge.amountMinor,
           currency: charge.currency,
           receiptUrl: `${config.PUBLIC_URL}/my-support/receipts/${charge.id}`,
-        });
-      } catch (err) {
-        // Give the claim back so a later event of this pledge can try again.
-        await db.update(pledges).set({ confirmationSentAt: null }).where(eq(pledges.id, pledgeId));
-        throw err;
-      }
+        },
+      });
     };
   }
 
   function renewalFailedMail(pledgeId: string, membershipId: string, invoice: Stripe.Invoice): AfterCommit {
-    return async () => {
-      const [row] = await db
+    return async (tx) => {
+      const [row] = await tx
         .select({ account: accounts, campaignTitle: campaigns.title })
         .from(pledges)
         .innerJoin(campaigns, eq(campaigns.id, pledges.campaignId))
         .leftJoin(accounts, eq(accounts.id, pledges.backerId))
         .where(eq(pledges.id, pledgeId));
-      if (!row?.account || row.account.deletedAt || !(await wantsMail(row.account.id, 'membership'))) return;
-      await mailer.send('renewal-failed', row.account.email, {
-        displayName: row.account.displayName,
-        campaignTitle: row.campaignTitle,
-        amountMinor: invoice.amount_due,
-        currency: invoice.currency.toUpperCase(),
-        updateCardUrl: `${config.PUBLIC_URL}/my-support/memberships/${membershipId}/card`,
-        ...(invoice.next_payment_attempt ? { nextAttemptAt: new Date(invoice.next_payment_attempt * 1000) } : {}),
+      if (!row?.account || row.account.deletedAt || !(await wantsMail(tx, row.account.id, 'membership'))) return;
+      await queueMail(tx, {
+        template: 'renewal-failed',
+        to: row.account.email,
+        category: 'transactional',
+        accountId: row.account.id,
+        idempotencyKey: `renewal-failed/${invoice.id}`,
+        data: {
+          displayName: row.account.displayName,
+          campaignTitle: row.campaignTitle,
+          amountMinor: invoice.amount_due,
+          currency: invoice.currency.toUpperCase(),
+          updateCardUrl: `${config.PUBLIC_URL}/my-support/memberships/${membershipId}/card`,
+          ...(invoice.next_payment_attempt ? { nextAttemptAt: new Date(invoice.next_payment_attempt * 1000) } : {}),
+        },
       });
     };
   }
@@ -408,13 +411,17 @@ export function createPaymentsService(deps: {
           const pledge = handler.pledgeId ? await lockPledge(tx, handler.pledgeId) : null;
           await handler.run(tx, pledge ?? null, after);
         }
+        for (const fn of after) {
+          // Data a template refuses is logged, never a reason to refuse the payment fact (nothing was written).
+          await fn(tx).catch((err: unknown) => {
+            if (!(err instanceof MailQueueDataError)) throw err;
+            deps.logger.error({ err, eventId: event.id }, 'mail for a payment event refused by its template');
+          });
+        }
         return true;
       });
       if (!fresh) return 'duplicate';
       if (handler) deps.campaigns.invalidate();
-      for (const fn of after) {
-        await fn().catch((err: unknown) => deps.logger.error({ err, eventId: event.id }, 'mail after a payment event failed'));
-      }
       return handler ? 'applied' : 'ignored';
     },
   };

@@ -18,14 +18,14 @@ import { createMySupportRouter } from '../my-support/my-support.routes';
 import { createLedgerRouter } from '../ledger/ledger.routes';
 import { createBooks } from '../books/books.routes';
 
-export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer: Mailer; stripe: Stripe; logger: Logger }) {
-  const { db, pool, config, mailer, stripe, logger } = deps;
+export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer?: Mailer; stripe: Stripe; logger: Logger }) {
+  const { db, pool, config, stripe, logger } = deps;
   const campaigns = createCampaignsService({ db, pool, cacheMs: config.CAMPAIGN_CACHE_MS });
   const processor = createProcessor({ db, stripe });
-  const payments = createPaymentsService({ db, config, mailer, processor, campaigns, logger });
+  const payments = createPaymentsService({ db, config, processor, campaigns, logger });
   const pledges = createPledgesService({ db, config, processor, campaigns, logger });
   const mySupport = createMySupportService({ db, config, processor, pledges });
-  const books = createBooks({ db, config, mailer, processor, logger });
+  const books = createBooks({ db, config, processor, logger });
   return {
     services: { campaigns, payments, pledges, mySupport, books: books.services },
     booksRouter: books.router,

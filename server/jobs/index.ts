@@ -1,0 +1,165 @@
+/**
+ * Background work: pg-boss queues and their workers, in one place.
+ *
+ *   const jobs = createJobs({ pool, db, config, logger, deps, worker: true|false });
+ *   await jobs.start();              // every process: connects, creates the queues (idempotent)
+ *   await jobs.send('housekeeping', { task: 'tokens' }, { singletonKey: 'x' });   // any process, e.g. a route
+ *   await jobs.work();               // worker processes only: registers every queue's workers and schedules
+ *   await jobs.stop();               // stops fetching, waits for running jobs (up to JOBS_SHUTDOWN_TIMEOUT_MS)
+ *
+ * Each queue is one file in server/jobs/ (see queue.ts): name, zod payload schema (checked on send and on
+ * work), retries/expiry, optional cron schedule, handler. List a new queue in `queues` below.
+ * A job whose process dies stays `active` until its expiry, then pg-boss's supervisor (run by any worker)
+ * hands it out again while retries remain: handlers are idempotent. `npm start` runs the web app and one
+ * worker process (server/worker.ts); `npm run worker` runs workers alone, any number, on the same database.
+ * The web app gets only a JobSender (`send`); `createApp({ …, jobs })`.
+ *
+ * Mail is not a pg-boss job per message: rows in mail_queue are the outbox (server/modules/mail/mail-queue.ts:
+ * queueMail(tx, …) inside the causing transaction); work() also starts the mail sender (mail-sender.ts).
+ */
+import PgBoss from 'pg-boss';
+import type pg from 'pg';
+import type { Logger } from 'pino';
+import type { Db } from '../db/client';
+import type { Config } from '../config';
+import type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
+import { housekeepingQueue } from './housekeeping';
+import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
+
+export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
+export { defineQueue } from './queue';
+
+// Every queue the product has. Order does not matter.
+export const queues: QueueDefinition[] = [housekeepingQueue as QueueDefinition];
+
+/** pg-boss's own schema; its tables live beside ours in the same database. */
+export const JOBS_SCHEMA = 'pgboss';
+
+export type CreateJobsOptions = {
+  pool: pg.Pool;
+  db: Db;
+  config: Config;
+  logger: Logger;
+  /** Extra dependencies handed to handlers as ctx.deps (tests inject clients and switches here). */
+  deps?: Record<string, unknown>;
+  /** Queues to know (default: all). */
+  queues?: QueueDefinition[];
+  /** Run the mail sender loop in work() (default true). */
+  mailSender?: boolean;
+  /** This process runs workers: pg-boss's supervisor (expiry → retry, retention) and cron clock run here too. */
+  worker?: boolean;
+};
+
+export type Jobs = JobSender & {
+  boss: PgBoss;
+  start(): Promise<void>;
+  /** Registers the workers and schedules; returns when they are polling. */
+  work(): Promise<void>;
+  /** Graceful: stop fetching, wait for running jobs (bounded), release nothing it does not own. */
+  stop(): Promise<void>;
+  /** Background loops started by work() (e.g. the mail sender) that stop() must also wait for. */
+  addLoop(loop: { stop: () => Promise<void> }): void;
+};
+
+/** pg-boss over our pool (no second pool per process): it runs plain parameterised SQL. */
+function bossDb(pool: pg.Pool): PgBoss.Db {
+  return { executeSql: (text, values) => pool.query(text, values) };
+}
+
+export function bossOptions(config: Config): PgBoss.ConstructorOptions {
+  return {
+    schema: JOBS_SCHEMA,
+    // Old job rows: completed jobs move to the archive after this, and archived ones are deleted after
+    // JOB_RETENTION_DAYS (pg-boss's own maintenance, run by the supervisor in worker processes).
+    archiveCompletedAfterSeconds: config.JOB_ARCHIVE_AFTER_SECONDS,
+    archiveFailedAfterSeconds: config.JOB_ARCHIVE_AFTER_SECONDS,
+    deleteAfterDays: config.JOB_RETENTION_DAYS,
+    maintenanceIntervalSeconds: config.JOB_MAINTENANCE_INTERVAL_SECONDS,
+  };
+}
+
+export function createJobs(opts: CreateJobsOptions): Jobs {
+  const { pool, db, config, logger } = opts;
+  const list = opts.queues ?? queues;
+  const byName = new Map(list.map((q) => [q.name, q]));
+  const log = logger.child({ part: 'jobs' });
+  let working = false;
+  const loops: Array<{ stop: () => Promise<void> }> = [];
+
+  const boss = new PgBoss({
+    ...bossOptions(config),
+    db: bossDb(pool),
+    // Web processes only send: the supervisor (expiry, retention) and the cron clock run in workers.
+    supervise: opts.worker === true,
+    schedule: opts.worker === true,
+  });
+  boss.on('error', (err) => log.error({ err }, 'job system error'));
+
+  const sender: JobSender = {
+    async send(queue, payload, options) {
+      const q = byName.get(queue);
+      if (!q) throw new Error(`unknown queue "${queue}"`);
+      const data = q.schema.parse(payload) as object;
+      return boss.send(queue, data, options ?? {});
+    },
+  };
+
+  const ctx: JobContext = { db, pool, config, logger: log, jobs: sender, deps: opts.deps ?? {} };
+
+  async function start() {
+    await boss.start();
+    for (const q of list) {
+      const existing = await boss.getQueue(q.name);
+      if (!existing) await boss.createQueue(q.name, { name: q.name, ...q.options });
+      else if (q.options) await boss.updateQueue(q.name, { name: q.name, ...q.options });
+    }
+  }
+
+  async function work() {
+    if (!opts.worker) throw new Error('createJobs({ worker: true }) is needed to run workers');
+    if (working) return;
+    working = true;
+    for (const q of list) {
+      const concurrency = q.work?.concurrency ?? 1;
+      for (let i = 0; i < concurrency; i++) {
+        await boss.work<unknown>(
+          q.name,
+          { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: q.work?.pollingIntervalSeconds ?? 2 },
+          async (batch) => {
+            for (const job of batch) {
+              const parsed = q.schema.safeParse(job.data);
+              if (!parsed.success) {
+                // A payload no handler can use is not retried: it fails at once, with the reason stored.
+                log.error({ queue: q.name, jobId: job.id, issues: parsed.error.issues }, 'job payload refused');
+                throw new Error(`payload refused: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+              }
+              const started = Date.now();
+              try {
+                await q.handler(parsed.data, { id: job.id, ctx, retryCount: job.retryCount });
+                log.debug({ queue: q.name, jobId: job.id, ms: Date.now() - started }, 'job done');
+              } catch (err) {
+                log.warn({ err, queue: q.name, jobId: job.id, retryCount: job.retryCount }, 'job failed');
+                throw err;
+              }
+            }
+          },
+        );
+      }
+      if (q.schedule) await boss.schedule(q.name, q.schedule.cron, q.schema.parse(q.schedule.data) as object, { tz: 'UTC' });
+    }
+    if (opts.mailSender !== false) {
+      const sender = createMailSender(pool, mailSenderOptionsFrom(ctx), log.child({ part: 'mail' }));
+      await sender.start();
+      loops.push(sender);
+    }
+  }
+
+  async function stop() {
+    const timeout = config.JOBS_SHUTDOWN_TIMEOUT_MS;
+    await Promise.all(loops.map((l) => l.stop().catch((err: unknown) => log.error({ err }, 'loop stop failed'))));
+    // graceful + wait: resolves once the running jobs have finished (or the timeout failed them for a retry).
+    await boss.stop({ graceful: true, wait: true, timeout, close: false });
+  }
+
+  return { boss, send: sender.send, start, work, stop, addLoop: (l) => void loops.push(l) };
+}

@@ -1,0 +1,260 @@
+import { Resend } from 'resend';
+import type pg from 'pg';
+import { renderEmail } from '../../emails/render';
+import { MAIL_QUEUE_CHANNEL } from '../modules/mail/mail-queue';
+import type { JobContext } from './queue';
+
+/**
+ * The mail sender: drains mail_queue (the outbox) through the resend SDK. Not a pg-boss job per message —
+ * the rows are the queue. A worker claims due rows with FOR UPDATE SKIP LOCKED and a lease (state `sending`,
+ * lease_until); a row whose worker died is claimed again once its lease has passed, and the service sees the
+ * same Idempotency-Key (the row's key, or the batch key), so it answers with the first message's id instead of
+ * sending it twice. 429/5xx/no answer → back to `queued` with a backoff that honours Retry-After; any other
+ * refusal → `failed`. The service's answer is stored on the row. Woken by NOTIFY (sent by queueMail on commit)
+ * and by a poll for due retries and expired leases.
+ */
+
+type Row = {
+  id: string;
+  idempotency_key: string;
+  template: string;
+  to_address: string;
+  data: Record<string, unknown>;
+  headers: Record<string, string>;
+  batch_key: string | null;
+  attempts: number;
+};
+
+export type MailSenderOptions = {
+  resend: Resend;
+  from: string;
+  leaseSeconds: number;
+  maxAttempts: number;
+  pollMs: number;
+  /** Longest backoff between attempts (seconds). */
+  maxBackoffSeconds: number;
+  /** Rows sent at once by one worker (single messages in parallel). */
+  concurrency: number;
+};
+
+export type Answer = { status: number | null; name: string; message: string; retryAfterSeconds?: number } | { id: string };
+
+const retryable = (status: number | null) => status === null || status === 429 || status >= 500;
+
+export function backoffSeconds(attempt: number, retryAfterSeconds: number | undefined, maxSeconds: number): number {
+  // Exponential from 5 s (5, 10, 20 …), capped; a Retry-After from the service is a floor.
+  const exp = Math.min(maxSeconds, 5 * 2 ** Math.max(0, attempt - 1));
+  return Math.max(exp, Math.min(retryAfterSeconds ?? 0, maxSeconds));
+}
+
+function retryAfterOf(headers: Record<string, string> | null | undefined): number | undefined {
+  const raw = headers?.['retry-after'];
+  if (raw === undefined) return undefined;
+  const n = Number(raw);
+  if (Number.isFinite(n) && n >= 0) return n;
+  const at = Date.parse(raw);
+  return Number.isFinite(at) ? Math.max(0, (at - Date.now()) / 1000) : undefined;
+}
+
+export function mailSenderOptionsFrom(ctx: Pick<JobContext, 'config' | 'deps'>): MailSenderOptions {
+  const { config } = ctx;
+  const resend = (ctx.deps.resend as Resend | undefined) ?? new Resend(config.RESEND_API_KEY, { baseUrl: config.RESEND_BASE_URL });
+  return {
+    resend,
+    from: config.MAIL_FROM,
+    leaseSeconds: config.MAIL_LEASE_SECONDS,
+    maxAttempts: config.MAIL_MAX_ATTEMPTS,
+    pollMs: config.MAIL_POLL_MS,
+    maxBackoffSeconds: config.MAIL_MAX_BACKOFF_SECONDS,
+    concurrency: config.MAIL_SEND_CONCURRENCY,
+  };
+}
+
+const CLAIMABLE = `((state = 'queued' and next_attempt_at <= now()) or (state = 'sending' and lease_until < now()))`;
+
+export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: JobContext['logger']) {
+  /** Claims due single messages (up to `limit`). */
+  async function claimSingles(limit: number): Promise<Row[]> {
+    const { rows } = await pool.query<Row>(
+      `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
+        where id in (select id from mail_queue where batch_key is null and ${CLAIMABLE}
+                      order by next_attempt_at limit $2 for update skip locked)
+        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts`,
+      [opts.leaseSeconds, limit],
+    );
+    return rows;
+  }
+
+  /** Claims every due row of one batch (the unit the service's batch key covers). */
+  async function claimBatch(): Promise<Row[]> {
+    const { rows } = await pool.query<Row>(
+      `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
+        where batch_key = (select batch_key from mail_queue where batch_key is not null and ${CLAIMABLE}
+                            order by next_attempt_at limit 1 for update skip locked)
+          and ${CLAIMABLE}
+        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts`,
+      [opts.leaseSeconds],
+    );
+    return rows.sort((a, b) => a.idempotency_key.localeCompare(b.idempotency_key));
+  }
+
+  async function settle(rows: Row[], answer: Answer, ids?: string[]) {
+    if ('id' in answer || ids) {
+      await pool.query(
+        `update mail_queue m set state = 'sent', provider_id = k.pid, last_answer = jsonb_build_object('id', k.pid),
+                sent_at = now(), lease_until = null, updated_at = now()
+           from unnest($1::uuid[], $2::text[]) as k(id, pid) where m.id = k.id`,
+        [rows.map((r) => r.id), ids ?? rows.map(() => (answer as { id: string }).id)],
+      );
+      return;
+    }
+    const attempts = Math.max(...rows.map((r) => r.attempts));
+    const again = retryable(answer.status) && attempts < opts.maxAttempts;
+    const wait = backoffSeconds(attempts, answer.retryAfterSeconds, opts.maxBackoffSeconds);
+    await pool.query(
+      `update mail_queue set state = $2::mail_state, last_answer = $3::jsonb, lease_until = null, updated_at = now(),
+              next_attempt_at = case when $2::mail_state = 'queued' then now() + make_interval(secs => $4::float8) else next_attempt_at end
+        where id = any($1::uuid[])`,
+      [rows.map((r) => r.id), again ? 'queued' : 'failed', JSON.stringify(answer), wait],
+    );
+    if (!again) log.warn({ ids: rows.map((r) => r.id), answer }, 'mail failed for good');
+  }
+
+  async function payloadOf(row: Row) {
+    const rendered = await renderEmail(row.template, row.data);
+    return {
+      from: opts.from,
+      to: row.to_address,
+      subject: rendered.subject,
+      html: rendered.html,
+      text: rendered.text,
+      headers: Object.keys(row.headers ?? {}).length ? row.headers : undefined,
+      tags: [{ name: 'template', value: row.template.replace(/[^A-Za-z0-9_-]/g, '_') }],
+    };
+  }
+
+  async function sendOne(row: Row) {
+    let payload;
+    try {
+      payload = await payloadOf(row);
+    } catch (err) {
+      // A template that cannot render will not render on a retry either.
+      await pool.query(
+        `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = $1`,
+        [row.id, JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],
+      );
+      return;
+    }
+    let answer: Answer;
+    try {
+      const { data, error, headers } = await opts.resend.emails.send(payload, { idempotencyKey: row.idempotency_key });
+      answer = data
+        ? { id: data.id }
+        : {
+            status: error?.statusCode ?? null,
+            name: error?.name ?? 'unknown_error',
+            message: error?.message ?? 'no message',
+            retryAfterSeconds: retryAfterOf(headers),
+          };
+    } catch (err) {
+      answer = { status: null, name: 'network_error', message: (err as Error).message };
+    }
+    await settle([row], answer);
+  }
+
+  async function sendBatch(rows: Row[]) {
+    const payloads = [];
+    try {
+      for (const r of rows) payloads.push(await payloadOf(r));
+    } catch (err) {
+      await pool.query(
+        `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = any($1::uuid[])`,
+        [rows.map((r) => r.id), JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],
+      );
+      return;
+    }
+    let answer: Answer;
+    let ids: string[] | undefined;
+    try {
+      const { data, error, headers } = await opts.resend.batch.send(payloads, {
+        idempotencyKey: rows[0]!.batch_key!,
+        batchValidation: 'strict',
+      });
+      if (data && data.data.length === rows.length) {
+        ids = data.data.map((d) => d.id);
+        answer = { id: ids[0]! };
+      } else {
+        answer = {
+          status: error?.statusCode ?? null,
+          name: error?.name ?? 'unknown_error',
+          message: error?.message ?? 'no message',
+          retryAfterSeconds: retryAfterOf(headers),
+        };
+      }
+    } catch (err) {
+      answer = { status: null, name: 'network_error', message: (err as Error).message };
+    }
+    await settle(rows, answer, ids);
+  }
+
+  /** One pass: claims and sends until nothing is due. Returns how many rows it handled. */
+  async function drain(): Promise<number> {
+    let handled = 0;
+    for (;;) {
+      const singles = await claimSingles(opts.concurrency);
+      for (const r of singles) inFlight.add(r.id);
+      await Promise.all(singles.map((r) => sendOne(r).finally(() => inFlight.delete(r.id))));
+      const batch = await claimBatch();
+      if (batch.length) await sendBatch(batch);
+      handled += singles.length + batch.length;
+      if (!singles.length && !batch.length) return handled;
+    }
+  }
+
+  const inFlight = new Set<string>();
+  let running: Promise<unknown> | null = null;
+  let pending = false;
+  let stopped = false;
+  let timer: NodeJS.Timeout | null = null;
+  let listener: pg.PoolClient | null = null;
+
+  function kick() {
+    if (stopped) return;
+    if (running) {
+      pending = true;
+      return;
+    }
+    running = drain()
+      .catch((err: unknown) => log.error({ err }, 'mail sender pass failed'))
+      .finally(() => {
+        running = null;
+        if (pending) {
+          pending = false;
+          kick();
+        }
+      });
+  }
+
+  return {
+    drain,
+    async start() {
+      listener = await pool.connect();
+      listener.on('notification', () => kick());
+      listener.on('error', (err) => log.warn({ err }, 'mail sender listen connection lost; polling only'));
+      await listener.query(`listen ${MAIL_QUEUE_CHANNEL}`);
+      timer = setInterval(kick, opts.pollMs);
+      kick();
+    },
+    /** Stops claiming; waits for the messages being sent. */
+    async stop() {
+      stopped = true;
+      if (timer) clearInterval(timer);
+      await running;
+      if (listener) {
+        await listener.query(`unlisten ${MAIL_QUEUE_CHANNEL}`).catch(() => undefined);
+        listener.release();
+        listener = null;
+      }
+    },
+  };
+}

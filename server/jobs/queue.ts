@@ -1,0 +1,45 @@
+import type PgBoss from 'pg-boss';
+import type { z } from 'zod';
+import type pg from 'pg';
+import type { Logger } from 'pino';
+import type { Db } from '../db/client';
+import type { Config } from '../config';
+
+/** What a job handler gets: the process's shared dependencies (one per worker process). */
+export type JobContext = {
+  db: Db;
+  pool: pg.Pool;
+  config: Config;
+  logger: Logger;
+  /** Enqueue follow-up work from a handler. */
+  jobs: JobSender;
+  /** Extra dependencies a queue may need (tests inject clients here); see CreateJobsOptions.deps. */
+  deps: Record<string, unknown>;
+};
+
+export type SendOptions = PgBoss.SendOptions;
+
+/** The only thing a web process needs: put work on a queue. */
+export interface JobSender {
+  send(queue: string, payload: unknown, options?: SendOptions): Promise<string | null>;
+}
+
+/**
+ * One queue: its name, its payload schema (checked when sent and again when worked), its pg-boss options
+ * (retries, expiry, policy), optional cron schedules, and the handler that does one job.
+ * A handler must be idempotent (a unique key per effect): pg-boss may hand a job out again after a crash.
+ */
+export type QueueDefinition<S extends z.ZodType = z.ZodType> = {
+  name: string;
+  schema: S;
+  options?: Omit<PgBoss.Queue, 'name'>;
+  /** How often an idle worker polls (seconds, ≥ 0.5) and how many jobs it may run at once in this process. */
+  work?: { pollingIntervalSeconds?: number; concurrency?: number };
+  /** A cron schedule (UTC; pg-boss keeps one per queue, so every worker may declare it — it fires once). */
+  schedule?: { cron: string; data: z.input<S> };
+  handler: (payload: z.output<S>, meta: { id: string; ctx: JobContext; retryCount: number }) => Promise<unknown>;
+};
+
+export function defineQueue<S extends z.ZodType>(q: QueueDefinition<S>): QueueDefinition<S> {
+  return q;
+}

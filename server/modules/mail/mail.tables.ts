@@ -1,0 +1,48 @@
+import { pgTable, uuid, text, timestamp, integer, jsonb, index, pgEnum } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { accounts } from '../accounts/accounts.tables';
+
+export const mailStateEnum = pgEnum('mail_state', ['queued', 'sending', 'sent', 'failed']);
+export const mailCategoryEnum = pgEnum('mail_category', ['transactional', 'dispatch']);
+
+/**
+ * The outbox: one row per message the product sends, written in the same transaction as the change that
+ * causes it (queueMail), sent by a worker (server/jobs/mail-sender.ts). The idempotency key is unique here and
+ * is sent to the mail service, so a row sent twice (a worker died after the service accepted it) is one message.
+ */
+export const mailQueue = pgTable(
+  'mail_queue',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    idempotencyKey: text('idempotency_key').notNull().unique(),
+    template: text('template').notNull(),
+    toAddress: text('to_address').notNull(),
+    /** The template's data (checked by its schema when queued). */
+    data: jsonb('data').notNull(),
+    category: mailCategoryEnum('category').notNull(),
+    /** Extra message headers (List-Unsubscribe …). */
+    headers: jsonb('headers')
+      .$type<Record<string, string>>()
+      .notNull()
+      .default(sql`'{}'::jsonb`),
+    /** Rows with one batch key go to the service in one batch call, under that key. */
+    batchKey: text('batch_key'),
+    accountId: uuid('account_id').references(() => accounts.id, { onDelete: 'set null' }),
+    state: mailStateEnum('state').notNull().default('queued'),
+    attempts: integer('attempts').notNull().default(0),
+    nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+    /** While `sending`: the claim expires at this time, then another worker may take the row. */
+    leaseUntil: timestamp('lease_until', { withTimezone: true }),
+    providerId: text('provider_id'),
+    /** The service's last answer: { status, name, message } or { id }. */
+    lastAnswer: jsonb('last_answer'),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('mail_queue_due_idx').on(t.state, t.nextAttemptAt),
+    index('mail_queue_batch_idx').on(t.batchKey),
+    index('mail_queue_created_idx').on(t.createdAt),
+  ],
+);

@@ -1,0 +1,220 @@
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import pino from 'pino';
+import { Resend } from 'resend';
+import { sql } from 'drizzle-orm';
+import { loadConfig, type Config } from '../../server/config';
+import { createMailSender, mailSenderOptionsFrom, backoffSeconds } from '../../server/jobs/mail-sender';
+import { queueMail, MailQueueDataError } from '../../server/modules/mail/mail-queue';
+import { mailQueue } from '../../server/modules/mail/mail.tables';
+import { createMailFake, type MailFake } from '../../fakes/mail/server';
+import { createTestDatabase, type TestDatabase } from '../setup/test-db';
+
+const logger = pino({ level: 'silent' });
+let database: TestDatabase;
+let fake: MailFake;
+let config: Config;
+
+const verifyData = (n: number) => ({ displayName: `Backer ${n}`, verifyUrl: `https://lightkeel.example/verify-email?token=t${n}` });
+
+async function enqueue(n: number, extra: { batchKey?: string } = {}) {
+  await database.db.transaction(async (tx) => {
+    await queueMail(tx, {
+      template: 'verify-email',
+      to: `backer${n}@example.org`,
+      data: verifyData(n),
+      category: 'transactional',
+      idempotencyKey: `test/${n}`,
+      ...extra,
+    });
+  });
+}
+
+const rows = () => database.db.select().from(mailQueue).orderBy(mailQueue.idempotencyKey);
+const sender = (over: Partial<Config> = {}, resend?: Resend) =>
+  createMailSender(database.pool, mailSenderOptionsFrom({ config: { ...config, ...over }, deps: resend ? { resend } : {} }), logger);
+const delivered = (to: string) => fake.messages().filter((m) => m.to.includes(to));
+
+beforeAll(async () => {
+  database = await createTestDatabase();
+  fake = await createMailFake({ port: 0, apiKey: 're_queue_test' });
+  config = loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: database.url,
+    RESEND_API_KEY: 're_queue_test',
+    RESEND_BASE_URL: fake.url,
+    MAIL_LEASE_SECONDS: '5',
+  });
+});
+afterAll(async () => {
+  await fake.close();
+  await database.drop();
+});
+beforeEach(async () => {
+  fake.clear();
+  fake.faults.set({ rateLimitNext: 0, failNext: 0, delayMs: 0, retryAfterSeconds: 1 });
+  await database.db.delete(mailQueue);
+});
+
+describe('the mail queue (outbox)', () => {
+  it('writes the message with the transaction that causes it, and not at all when that transaction rolls back', async () => {
+    await expect(
+      database.db.transaction(async (tx) => {
+        await queueMail(tx, {
+          template: 'verify-email',
+          to: 'a@example.org',
+          data: verifyData(1),
+          category: 'transactional',
+          idempotencyKey: 'rb/1',
+        });
+        throw new Error('the causing change failed');
+      }),
+    ).rejects.toThrow('the causing change failed');
+    expect(await rows()).toHaveLength(0);
+    await enqueue(1);
+    await enqueue(1); // same key: one row
+    expect((await rows()).map((r) => [r.idempotencyKey, r.state])).toEqual([['test/1', 'queued']]);
+  });
+
+  it('refuses data the template would refuse, before anything is written', async () => {
+    await expect(
+      queueMail(database.db, {
+        template: 'verify-email',
+        to: 'a@example.org',
+        data: { displayName: 'x', verifyUrl: 'javascript:alert(1)' },
+        category: 'transactional',
+        idempotencyKey: 'bad/1',
+      }),
+    ).rejects.toBeInstanceOf(MailQueueDataError);
+    expect(await rows()).toHaveLength(0);
+  });
+
+  it('keeps mail while the service answers 500 or is down, and delivers it once after', async () => {
+    await enqueue(1);
+    await enqueue(2);
+    fake.faults.set({ failNext: 10 });
+    await sender().drain();
+    let r = await rows();
+    expect(r.map((x) => x.state)).toEqual(['queued', 'queued']);
+    expect(r[0]!.lastAnswer).toMatchObject({ status: 500, name: 'internal_server_error' });
+    expect(r[0]!.attempts).toBe(1);
+
+    // Down: nothing listens at the address.
+    await database.db.execute(sql`update mail_queue set next_attempt_at = now()`);
+    const down = sender({ RESEND_BASE_URL: 'http://127.0.0.1:9' } as Partial<Config>);
+    await down.drain();
+    r = await rows();
+    expect(r.map((x) => x.state)).toEqual(['queued', 'queued']);
+    expect((r[0]!.lastAnswer as { status: number | null }).status).toBeNull();
+    expect(r[0]!.attempts).toBe(2);
+    expect(fake.messages()).toHaveLength(0);
+
+    // The service is back: a due retry goes out, once each.
+    fake.faults.set({ failNext: 0 });
+    await database.db.execute(sql`update mail_queue set next_attempt_at = now()`);
+    await sender().drain();
+    r = await rows();
+    expect(r.map((x) => x.state)).toEqual(['sent', 'sent']);
+    expect(r[0]!.providerId).toBe(delivered('backer1@example.org')[0]!.id);
+    expect(delivered('backer1@example.org')).toHaveLength(1);
+    expect(delivered('backer2@example.org')).toHaveLength(1);
+  });
+
+  it('honours Retry-After on a 429: the row waits at least that long', async () => {
+    fake.faults.set({ rateLimitNext: 1, retryAfterSeconds: 40 });
+    await enqueue(3);
+    await sender().drain();
+    const [row] = await rows();
+    expect(row!.state).toBe('queued');
+    expect(row!.lastAnswer).toMatchObject({ status: 429, name: 'rate_limit_exceeded', retryAfterSeconds: 40 });
+    const waitS = (row!.nextAttemptAt.getTime() - row!.updatedAt.getTime()) / 1000;
+    expect(waitS).toBeGreaterThanOrEqual(39.9);
+    expect(waitS).toBeLessThan(41);
+    // Not due yet: a pass sends nothing.
+    await sender().drain();
+    expect(fake.messages()).toHaveLength(0);
+  });
+
+  it('backs off exponentially from 5 s, capped, with Retry-After as a floor', () => {
+    expect([1, 2, 3, 4].map((a) => backoffSeconds(a, undefined, 900))).toEqual([5, 10, 20, 40]);
+    expect(backoffSeconds(12, undefined, 900)).toBe(900);
+    expect(backoffSeconds(1, 30, 900)).toBe(30);
+    expect(backoffSeconds(1, 5000, 900)).toBe(900);
+  });
+
+  it('marks a message failed, with the service answer, when the service refuses it for good', async () => {
+    await database.db.transaction(async (tx) => {
+      await queueMail(tx, {
+        template: 'verify-email',
+        to: 'not an address',
+        data: verifyData(4),
+        category: 'transactional',
+        idempotencyKey: 'bad-to/4',
+      });
+    });
+    await sender().drain();
+    const [row] = await rows();
+    expect(row!.state).toBe('failed');
+    expect(row!.lastAnswer).toMatchObject({ status: 400, name: 'validation_error' });
+    expect(row!.attempts).toBe(1);
+  });
+
+  it('a worker that dies mid-send (service accepted, row never settled): after the lease the message is delivered exactly once', async () => {
+    await enqueue(5);
+    const real = new Resend(config.RESEND_API_KEY, { baseUrl: fake.url });
+    let accepted = 0;
+    // The dying worker: the service takes the message, then the process is gone (its promise never settles).
+    const dying = {
+      emails: {
+        send: async (...args: Parameters<Resend['emails']['send']>) => {
+          await real.emails.send(...args);
+          accepted++;
+          return new Promise<never>(() => undefined);
+        },
+      },
+      batch: real.batch,
+    } as unknown as Resend;
+    void sender({}, dying).drain();
+    const until = Date.now() + 10_000;
+    while (accepted === 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    expect(accepted).toBe(1);
+    const [claimed] = await rows();
+    expect(claimed!.state).toBe('sending');
+    expect(delivered('backer5@example.org')).toHaveLength(1);
+
+    // Another worker, before the lease ends: nothing to take.
+    await sender().drain();
+    expect((await rows())[0]!.attempts).toBe(1);
+    // After the lease (5 s): it takes the row and sends it again under the same key.
+    await new Promise((r) => setTimeout(r, 5200));
+    await sender().drain();
+    const [row] = await rows();
+    expect(row!.state).toBe('sent');
+    expect(row!.attempts).toBe(2);
+    expect(delivered('backer5@example.org')).toHaveLength(1);
+    expect(row!.providerId).toBe(delivered('backer5@example.org')[0]!.id);
+  });
+
+  it('two workers draining together send each of 60 messages exactly once', async () => {
+    for (let n = 100; n < 160; n++) await enqueue(n);
+    fake.faults.set({ delayMs: 5 });
+    await Promise.all([sender().drain(), sender().drain()]);
+    const r = await rows();
+    expect(r.every((x) => x.state === 'sent')).toBe(true);
+    expect(fake.messages()).toHaveLength(60);
+    expect(new Set(fake.messages().map((m) => m.to[0])).size).toBe(60);
+  });
+
+  it('sends rows sharing a batch key in one batch call under that key, once, even when the batch is sent again', async () => {
+    for (let n = 200; n < 230; n++) await enqueue(n, { batchKey: 'batch/a' });
+    await sender().drain();
+    const r = await rows();
+    expect(r.every((x) => x.state === 'sent')).toBe(true);
+    expect(new Set(fake.messages().map((m) => m.batch_id)).size).toBe(1);
+    expect(fake.messages()).toHaveLength(30);
+    // A worker that died after the batch was accepted: the rows are claimed again and re-sent under the same key.
+    await database.db.execute(sql`update mail_queue set state = 'sending', lease_until = now() - interval '1 second'`);
+    await sender().drain();
+    expect(fake.messages()).toHaveLength(30);
+    expect((await rows()).every((x) => x.state === 'sent')).toBe(true);
+  });
+});
