@@ -139,6 +139,9 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/pledges', funding.pledgesRouter);
   mount(app, '/api/my-support', funding.mySupportRouter);
   mount(app, '/api/ledger', funding.ledgerRouter);
+  mount(app, '/api/books', funding.booksRouter);
+  mount(app, '/api/receipts', funding.receiptsRouter);
+  mount(app, '/api/public/monthly-accounts', funding.publicAccountsRouter);
 
   const orbitDesk = createOrbitModule({ db, logger });
   mount(app, '/api/orbit', createOrbitRouter({ db, config, module: orbitDesk }));

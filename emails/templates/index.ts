@@ -47,6 +47,14 @@ export const emailDataSchemas = {
     nextAttemptAt: z.union([z.date(), z.iso.datetime({ offset: true })]).optional(),
   }),
   dispatch: dispatchEmailSchema,
+  'refund-issued': z.object({
+    displayName: text,
+    campaignTitle: text,
+    amountMinor,
+    currency,
+    reason: text,
+    receiptUrl: link,
+  }),
 } as const;
 
 export type EmailName = keyof typeof emailDataSchemas;
@@ -149,6 +157,33 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
         },
       ],
       reason: `You get this e-mail because you made a pledge to ${d.campaignTitle} through Lightkeel.`,
+    };
+  },
+  'refund-issued': (d) => {
+    const amount = formatMoney(d.amountMinor, d.currency.toUpperCase());
+    return {
+      subject: `A refund of ${amount} from ${d.campaignTitle}`,
+      preview: `We have refunded ${amount} to your card.`,
+      heading: `Hello ${d.displayName}`,
+      blocks: [
+        {
+          kind: 'paragraph',
+          text: `We have sent ${amount} back to the card you paid with for ${d.campaignTitle}. Depending on your bank it shows on your statement within 5 to 10 working days.`,
+        },
+        {
+          kind: 'facts',
+          rows: [
+            { label: 'Amount refunded', value: amount },
+            { label: 'Reason', value: d.reason },
+          ],
+        },
+        { kind: 'button', label: 'See your corrected receipt', url: d.receiptUrl },
+        {
+          kind: 'note',
+          text: 'Your earlier receipt for this payment is now void and a corrected one replaces it. Receipts are not tax advice.',
+        },
+      ],
+      reason: `You get this e-mail because a payment you made to ${d.campaignTitle} through Lightkeel was refunded.`,
     };
   },
   'renewal-failed': (d) => {

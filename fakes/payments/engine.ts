@@ -1282,6 +1282,90 @@ export class Engine {
     return dispute;
   }
 
+  /**
+   * Ends a dispute. Won: the withdrawn amount comes back in a reversal balance transaction (the dispute fee is
+   * kept, as the processor's published terms say — from memory); lost: nothing comes back.
+   */
+  closeDispute(dispute: ApiObject, outcome: 'won' | 'lost'): ApiObject {
+    if (dispute.status === 'won' || dispute.status === 'lost') throw invalid(`Dispute ${dispute.id} is already closed.`, 'dispute');
+    const previous = { status: dispute.status };
+    if (outcome === 'won') {
+      const txn = this.newBalanceTransaction({
+        amount: dispute.amount,
+        currency: dispute.currency,
+        fee: 0,
+        feeDescription: '',
+        source: dispute.id,
+        type: 'adjustment',
+        reportingCategory: 'dispute_reversal',
+        availableOn: this.now(),
+        description: `Chargeback reversal for ${dispute.charge}`,
+      });
+      dispute.balance_transactions = [...dispute.balance_transactions, clone(txn)];
+      this.emit('charge.dispute.funds_reinstated', dispute);
+    }
+    dispute.status = outcome;
+    dispute.is_charge_refundable = false;
+    this.emit('charge.dispute.closed', dispute, previous);
+    return dispute;
+  }
+
+  /**
+   * Seeds charges with their balance transactions straight into the store, without events, for benchmarks:
+   * `count` charges of `amountMinor` spread one second apart ending now. Returns the charge ids.
+   */
+  seedCharges(count: number, opts: { amountMinor?: number; currency?: string } = {}): { chargeId: string; balanceTransactionId: string }[] {
+    const amount = opts.amountMinor ?? 2500;
+    const currency = (opts.currency ?? 'usd').toLowerCase();
+    const out: { chargeId: string; balanceTransactionId: string }[] = [];
+    const start = this.now() - count;
+    for (let i = 0; i < count; i++) {
+      const created = start + i;
+      const chargeId = newId('ch', 24);
+      const txnId = newId('txn', 24);
+      const feeMinor = cardFeeMinor(amount, this.opts.fees);
+      this.store.insert('balance_transaction', {
+        id: txnId,
+        object: 'balance_transaction',
+        amount,
+        available_on: created + this.opts.availableAfterSeconds,
+        balance_type: 'payments',
+        created,
+        currency,
+        description: 'Seeded charge',
+        exchange_rate: null,
+        fee: feeMinor,
+        fee_details: [{ amount: feeMinor, application: null, currency, description: 'Processing fees', type: 'stripe_fee' }],
+        net: amount - feeMinor,
+        reporting_category: 'charge',
+        source: chargeId,
+        status: 'pending',
+        type: 'charge',
+      });
+      this.store.insert('charge', {
+        id: chargeId,
+        object: 'charge',
+        amount,
+        amount_captured: amount,
+        amount_refunded: 0,
+        balance_transaction: txnId,
+        captured: true,
+        created,
+        currency,
+        customer: null,
+        description: 'Seeded charge',
+        disputed: false,
+        metadata: {},
+        paid: true,
+        payment_intent: null,
+        refunded: false,
+        status: 'succeeded',
+      });
+      out.push({ chargeId, balanceTransactionId: txnId });
+    }
+    return out;
+  }
+
   // ---------- subscriptions and invoices ----------
   updateSubscription(id: string, r: Reader): ApiObject {
     r.rejectUnknown(['cancel_at_period_end', 'metadata', 'default_payment_method', 'description', 'cancellation_details']);
@@ -1675,7 +1759,7 @@ export class Engine {
 
   // ---------- payouts ----------
   /** Pays out, per currency, every available balance transaction not yet paid out, when their sum is positive. */
-  runPayouts(): ApiObject[] {
+  runPayouts(skewMinor = 0): ApiObject[] {
     this.refreshBalance();
     const now = this.now();
     this.store.state.lastPayoutRunAt = now;
@@ -1688,8 +1772,10 @@ export class Engine {
     }
     const payouts: ApiObject[] = [];
     for (const [currency, txns] of groups) {
-      const amount = txns.reduce((sum, t) => sum + (t.net as number), 0);
-      if (amount <= 0) continue;
+      const contained = txns.reduce((sum, t) => sum + (t.net as number), 0);
+      if (contained <= 0) continue;
+      // A skew (fault switch) makes the payout differ from what it contains, as a bank-side error would.
+      const amount = contained + skewMinor;
       const id = newId('po', 24);
       const own = this.newBalanceTransaction({
         amount: -amount,

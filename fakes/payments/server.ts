@@ -45,6 +45,8 @@ export interface Faults {
   failNext: number;
   /** Events are recorded but never delivered. */
   dropWebhooks: boolean;
+  /** Added to the amount of the next payout run (then back to 0): a payout that does not sum. */
+  payoutSkewMinor: number;
 }
 
 export interface PaymentsFake {
@@ -55,12 +57,17 @@ export interface PaymentsFake {
   faults: { get(): Faults; set(update: Partial<Faults>): Faults; reset(): Faults };
   webhooks: { flush(): Promise<FlushResult>; deliveries(): State['deliveries']; redeliver(eventId: string): void };
   payouts: { run(): ApiObject[] };
+  disputes: { close(disputeId: string, outcome: 'won' | 'lost'): ApiObject };
+  /** Direct seeding for benchmarks: charges with their balance transactions, no events. */
+  seed: {
+    charges(count: number, opts?: { amountMinor?: number; currency?: string }): { chargeId: string; balanceTransactionId: string }[];
+  };
   customers: { failRenewals(customerId: string, fail?: boolean, declineCode?: 'generic_decline' | 'insufficient_funds'): void };
   state(): State;
   reset(): void;
 }
 
-const noFaults = (): Faults => ({ latencyMs: 0, failRate: 0, failNext: 0, dropWebhooks: false });
+const noFaults = (): Faults => ({ latencyMs: 0, failRate: 0, failNext: 0, dropWebhooks: false, payoutSkewMinor: 0 });
 const IDEMPOTENCY_TTL_MS = 24 * 3600 * 1000;
 const MAX_BODY_BYTES = 1024 * 1024;
 /** The processor keeps events for 30 days. */
@@ -625,7 +632,20 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       webhooks.redeliver(eventId);
       return sendJson(res, 200, { ok: true });
     }
-    if (method === 'POST' && p === '/_fake/payouts/run') return done({ payouts: engine.runPayouts() });
+    if (method === 'POST' && p === '/_fake/payouts/run') return done({ payouts: runPayouts() });
+    if (method === 'POST' && (m = p.match(/^\/_fake\/disputes\/([A-Za-z0-9_]+)\/close$/))) {
+      const outcome = String(body.outcome ?? '');
+      if (outcome !== 'won' && outcome !== 'lost') throw new HttpError(400, 'outcome must be won or lost');
+      return done(engine.closeDispute(engine.find('dispute', m[1], 'dispute'), outcome));
+    }
+    if (method === 'POST' && p === '/_fake/seed/charges') {
+      const count = Number(body.count);
+      if (!Number.isInteger(count) || count < 1 || count > 1_000_000)
+        throw new HttpError(400, 'count must be an integer from 1 to 1000000');
+      return done({
+        charges: engine.seedCharges(count, { amountMinor: Number(body.amountMinor ?? 2500), currency: String(body.currency ?? 'usd') }),
+      });
+    }
     if (method === 'POST' && (m = p.match(/^\/_fake\/customers\/([A-Za-z0-9_]+)\/fail-renewals$/))) {
       const code = String(body.declineCode ?? 'generic_decline');
       if (code !== 'generic_decline' && code !== 'insufficient_funds')
@@ -647,12 +667,19 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
     throw new HttpError(404, `unknown control ${method} ${p}`);
   };
 
+  const runPayouts = () => {
+    const skew = faults.payoutSkewMinor;
+    faults.payoutSkewMinor = 0;
+    return engine.runPayouts(skew);
+  };
+
   const setFaults = (update: Partial<Record<keyof Faults, unknown>>): Faults => {
     const next = { ...faults };
     if (update.latencyMs !== undefined) next.latencyMs = Math.max(0, Number(update.latencyMs) || 0);
     if (update.failRate !== undefined) next.failRate = Math.min(1, Math.max(0, Number(update.failRate) || 0));
     if (update.failNext !== undefined) next.failNext = Math.max(0, Math.floor(Number(update.failNext) || 0));
     if (update.dropWebhooks !== undefined) next.dropWebhooks = update.dropWebhooks === true;
+    if (update.payoutSkewMinor !== undefined) next.payoutSkewMinor = Math.trunc(Number(update.payoutSkewMinor) || 0);
     faults = next;
     return { ...faults };
   };
@@ -737,9 +764,24 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       deliveries: () => clone(store.state.deliveries),
       redeliver: (eventId) => webhooks.redeliver(eventId),
     },
+    disputes: {
+      close(disputeId, outcome) {
+        const d = engine.closeDispute(engine.find('dispute', disputeId, 'dispute'), outcome);
+        persist();
+        webhooks.kick();
+        return clone(d);
+      },
+    },
+    seed: {
+      charges(count, o = {}) {
+        const out = engine.seedCharges(count, o);
+        persist();
+        return out;
+      },
+    },
     payouts: {
       run() {
-        const payouts = engine.runPayouts();
+        const payouts = runPayouts();
         persist();
         webhooks.kick();
         return clone(payouts);

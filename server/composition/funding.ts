@@ -17,6 +17,7 @@ import { createPledgesRouter } from '../modules/pledges/pledges.routes';
 import { createMySupportService } from '../modules/my-support/my-support.service';
 import { createMySupportRouter } from '../modules/my-support/my-support.routes';
 import { createLedgerRouter } from '../modules/ledger/ledger.routes';
+import { createBooks } from '../modules/books/books.routes';
 
 export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer?: Mailer; stripe: Stripe; logger: Logger }) {
   const { db, pool, config, stripe, logger } = deps;
@@ -25,8 +26,12 @@ export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mai
   const payments = createPaymentsService({ db, config, processor, campaigns, logger });
   const pledges = createPledgesService({ db, config, processor, campaigns, logger });
   const mySupport = createMySupportService({ db, config, processor, pledges });
+  const books = createBooks({ db, config, processor, logger });
   return {
-    services: { campaigns, payments, pledges, mySupport },
+    services: { campaigns, payments, pledges, mySupport, books: books.services },
+    booksRouter: books.router,
+    receiptsRouter: books.receiptsRouter,
+    publicAccountsRouter: books.publicRouter,
     webhookRouter: createPaymentsWebhookRouter({ payments, stripe, config }),
     campaignsRouter: createCampaignsRouter({ campaigns }),
     pledgesRouter: createPledgesRouter({ pledges }),

@@ -8,4 +8,5 @@ export * from '../modules/pledges/pledges.tables';
 export * from '../modules/ledger/ledger.tables';
 export * from '../modules/payments/payments.tables';
 export * from '../modules/dispatches/dispatches.tables';
+export * from '../modules/books/books.tables';
 export * from '../modules/mail/mail.tables';

@@ -27,3 +27,11 @@ export function toCsv<Row>(rows: readonly Row[], columns: readonly CsvColumn<Row
   );
   return `${text}\r\n`;
 }
+
+/** Plain records as CSV, one column per key in `columns` (header = key), through the same neutralising writer. */
+export function recordsToCsv(rows: readonly Record<string, unknown>[], columns: readonly string[]): string {
+  return toCsv(
+    rows,
+    columns.map((c) => ({ header: c, value: (r: Record<string, unknown>) => r[c] as CsvCell })),
+  );
+}

@@ -43,6 +43,14 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     unsubscribeUrl: 'http://127.0.0.1:3000/unsubscribe?token=abc',
     choicesUrl: 'http://127.0.0.1:3000/my-support/email',
   },
+  'refund-issued': {
+    displayName: hostile,
+    campaignTitle: hostileTitle,
+    amountMinor: 1250,
+    currency: 'USD',
+    reason: 'Backer asked',
+    receiptUrl: 'http://127.0.0.1:3000/my-support/receipts/9',
+  },
 };
 
 function urlOf(name: EmailName): string {

@@ -351,7 +351,9 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       case 'refund.created':
       case 'refund.updated':
       case 'charge.dispute.created':
-      case 'charge.dispute.funds_withdrawn': {
+      case 'charge.dispute.funds_withdrawn':
+      case 'charge.dispute.funds_reinstated':
+      case 'charge.dispute.closed': {
         const obj = event.data.object as Stripe.Charge | Stripe.Refund | Stripe.Dispute;
         const chargeId = obj.object === 'charge' ? obj.id : idOf(obj.charge as string | null);
         if (!chargeId) return null;

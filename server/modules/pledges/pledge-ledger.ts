@@ -1,12 +1,15 @@
 // Moves a pledge through its states from ledger facts, inside the caller's transaction. Every function is
 // idempotent: a replayed or reordered event finds the rows already there and changes nothing.
-import { eq, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import type { Db } from '../../db/client';
 import { pledges } from './pledges.tables';
 import { tiers } from '../campaigns/campaigns.tables';
 import { appendLedgerEntry, pledgeTotals } from '../ledger/ledger.repository';
 import { moneyStateOf, nextPledgeState } from '../../../shared/pledge-states';
+import type { PledgeState } from '../../../shared/schemas/campaign';
+import { ledgerEntries } from '../ledger/ledger.tables';
+import { correctReceiptAfterRefund, issuePaymentReceipt } from '../books/receipts.repository';
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type PledgeRow = typeof pledges.$inferSelect;
@@ -56,12 +59,19 @@ export async function recordCharge(tx: Tx, pledge: PledgeRow, facts: ChargeFacts
       occurredAt: at(bt.created),
     });
   }
+  if (inserted) {
+    const [row] = await tx
+      .select({ id: ledgerEntries.id })
+      .from(ledgerEntries)
+      .where(and(eq(ledgerEntries.processorObjectId, charge.id), eq(ledgerEntries.kind, 'charge')));
+    if (row) await issuePaymentReceipt(tx, row.id);
+  }
   return inserted;
 }
 
 export async function recordRefund(tx: Tx, pledge: PledgeRow, refund: Stripe.Refund): Promise<boolean> {
   if (refund.status !== 'succeeded' && refund.status !== 'pending') return false;
-  return appendLedgerEntry(tx, {
+  const inserted = await appendLedgerEntry(tx, {
     kind: 'refund',
     amountMinor: -refund.amount,
     currency: refund.currency,
@@ -74,6 +84,9 @@ export async function recordRefund(tx: Tx, pledge: PledgeRow, refund: Stripe.Ref
     description: refund.reason ? `Refund (${refund.reason})` : 'Refund',
     occurredAt: at(refund.created),
   });
+  const chargeId = idOf(refund.charge as string | null);
+  if (inserted && chargeId) await correctReceiptAfterRefund(tx, chargeId);
+  return inserted;
 }
 
 export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.Dispute): Promise<boolean> {
@@ -86,10 +99,26 @@ export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.D
     processorObjectId: dispute.id,
     processorChargeId: idOf(dispute.charge as string),
     processorPaymentIntentId: idOf(dispute.payment_intent as string | null),
+    processorBalanceTransactionId: dispute.balance_transactions?.[0]?.id ?? null,
     description: `Dispute opened (${dispute.reason})`,
     occurredAt: at(dispute.created),
   });
   for (const bt of dispute.balance_transactions ?? []) {
+    if (bt.amount > 0) {
+      // The withdrawn amount came back: the dispute was won.
+      await appendLedgerEntry(tx, {
+        kind: 'dispute_reversal',
+        amountMinor: bt.amount,
+        currency: bt.currency,
+        campaignId: pledge.campaignId,
+        pledgeId: pledge.id,
+        processorObjectId: dispute.id,
+        processorChargeId: idOf(dispute.charge as string),
+        processorBalanceTransactionId: bt.id,
+        description: 'Dispute won: amount reinstated',
+        occurredAt: at(bt.created),
+      });
+    }
     if (bt.fee > 0) {
       await appendLedgerEntry(tx, {
         kind: 'fee',

@@ -75,6 +75,7 @@ export const consoleSections: ConsoleSection[] = [
       'Start a reconciliation run against the processor’s records and work through its findings.',
       'Close the month once the ledger and the processor agree.',
     ],
+    lazy: () => import('@/app/routes/console/books'),
   },
   {
     id: 'people',
