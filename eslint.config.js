@@ -53,9 +53,15 @@ export default tseslint.config(
       '@typescript-eslint/require-await': 'off',
       '@typescript-eslint/no-redundant-type-constituents': 'off',
       '@typescript-eslint/unbound-method': 'off',
+      // Its fixes disagree with tsc's control-flow narrowing (it removed assertions tsc needs): tsc decides.
+      '@typescript-eslint/no-unnecessary-type-assertion': 'off',
       '@typescript-eslint/only-throw-error': 'off',
       '@typescript-eslint/prefer-promise-reject-errors': 'off',
       '@typescript-eslint/no-base-to-string': 'off',
+      // Text checks match control characters on purpose (shared/schemas/text.ts explains why).
+      'no-control-regex': 'off',
+      // Flags the initialise-then-assign-in-a-loop pattern that strict TypeScript needs for definite assignment.
+      'no-useless-assignment': 'off',
       'import-x/no-cycle': ['error', { ignoreExternal: true }],
       'import-x/no-self-import': 'error',
       'import-x/no-restricted-paths': [
@@ -85,6 +91,11 @@ export default tseslint.config(
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'warn',
     },
+  },
+  {
+    // The payment fake mirrors a loosely typed wire format and updates fields in comma-sequenced steps.
+    files: ['fakes/payments/**/*.ts'],
+    rules: { '@typescript-eslint/no-explicit-any': 'off', '@typescript-eslint/no-unused-expressions': 'off' },
   },
   {
     files: ['**/*.js'],

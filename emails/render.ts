@@ -41,7 +41,7 @@ export async function renderEmail(name: string, data: unknown): Promise<Rendered
     );
   }
   const personal = PERSONAL_FIELDS[name];
-  if (personal) return renderPersonalised(name, parsed.data as Record<string, unknown>, personal);
+  if (personal) return renderPersonalised(name, parsed.data, personal);
   return renderParsed(name, parsed.data);
 }
 

@@ -85,5 +85,5 @@ export function createMailer({
       );
     }
   }
-  return { send: send as Mailer['send'] };
+  return { send: send };
 }

@@ -3,6 +3,7 @@ import type { AccountView } from '../shared/schemas/auth';
 declare global {
   namespace Express {
     // The signed-in account as passport puts it on req.user.
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- declaration merging needs the interface form
     interface User extends AccountView {}
   }
 }

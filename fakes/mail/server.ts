@@ -58,7 +58,7 @@ function loadState(path: string | undefined): StoredMessage[] {
     const parsed = JSON.parse(readFileSync(path, 'utf8')) as { messages?: unknown };
     return Array.isArray(parsed.messages) ? (parsed.messages as StoredMessage[]) : [];
   } catch (err) {
-    throw new Error(`mail fake: cannot read state file ${path}: ${(err as Error).message}`);
+    throw new Error(`mail fake: cannot read state file ${path}: ${(err as Error).message}`, { cause: err });
   }
 }
 

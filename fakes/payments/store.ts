@@ -104,7 +104,7 @@ export class Store {
       try {
         parsed = JSON.parse(text) as State;
       } catch (err) {
-        throw new Error(`payments fake: state file ${statePath} is not valid JSON (${(err as Error).message})`);
+        throw new Error(`payments fake: state file ${statePath} is not valid JSON (${(err as Error).message})`, { cause: err });
       }
       if (parsed.version !== 1) throw new Error(`payments fake: state file ${statePath} has unknown version ${String(parsed.version)}`);
       const base = emptyState();

@@ -22,7 +22,7 @@ import type pg from 'pg';
 import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import type { Config } from '../config';
-import type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
+import type { JobContext, JobSender, QueueDefinition } from './queue';
 import { housekeepingQueue } from './housekeeping';
 import { accountMailQueue } from './account-mail';
 import { dispatchPublishQueue } from './dispatch-publish';
@@ -33,12 +33,7 @@ export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queu
 export { defineQueue } from './queue';
 
 // Every queue the product has. Order does not matter.
-export const queues: QueueDefinition[] = [
-  housekeepingQueue as QueueDefinition,
-  accountMailQueue as QueueDefinition,
-  dispatchPublishQueue as QueueDefinition,
-  dispatchFanOutQueue as QueueDefinition,
-];
+export const queues: QueueDefinition[] = [housekeepingQueue, accountMailQueue, dispatchPublishQueue, dispatchFanOutQueue];
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';

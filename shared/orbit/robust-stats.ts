@@ -3,7 +3,7 @@
 export function median(values: ArrayLike<number>): number {
   const n = values.length;
   if (n === 0) return NaN;
-  const s = Float64Array.from(values as ArrayLike<number>).sort();
+  const s = Float64Array.from(values).sort();
   const m = n >> 1;
   return n % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 }

@@ -61,7 +61,9 @@ export function formatAssumedDecimalExponent(value: number): string {
 }
 
 function epochField(epochMs: number): string {
-  let { fullYear, dayOfYear } = msToDayOfYear(epochMs);
+  const epoch = msToDayOfYear(epochMs);
+  let fullYear = epoch.fullYear;
+  const dayOfYear = epoch.dayOfYear;
   let day = dayOfYear.toFixed(8);
   // Rounding up to the next whole day at the year's end belongs to the next year.
   const yearDays = (Date.UTC(fullYear + 1, 0, 1) - Date.UTC(fullYear, 0, 1)) / 86_400_000;

@@ -2,7 +2,6 @@
 // webhooks to it), the payment fake driven through the real SDK, a campaign with tiers, and a helper that
 // fills in the hosted checkout page the way a browser does.
 import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { eq } from 'drizzle-orm';
 import Stripe from 'stripe';
 import { createPaymentsFake, type PaymentsFake } from '../../fakes/payments/server';

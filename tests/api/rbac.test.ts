@@ -46,7 +46,7 @@ describe('RBAC matrix', () => {
         if (agent !== agents[c]) await agent.token();
         const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
         let req = agent[m](url).redirects(0);
-        if (method !== 'GET') req = req.set('x-csrf-token', agent.csrf).send((row.body ?? {}) as object);
+        if (method !== 'GET') req = req.set('x-csrf-token', agent.csrf).send(row.body ?? {});
         const res = await req;
         const want = row[c];
         if (want === 'ok') expect([401, 403], `${c} → ${res.status} ${JSON.stringify(res.body)}`).not.toContain(res.status);

@@ -50,7 +50,7 @@ describe('sky watch', () => {
           .first()
           .click(),
       ]);
-      const ics = readFileSync((await download.path())!, 'utf8');
+      const ics = readFileSync(await download.path(), 'utf8');
       expect(ics).toMatch(/^BEGIN:VCALENDAR/);
       expect(ics).toMatch(/SUMMARY:Tern-1 passes over Wellington/);
       expect(ics).toMatch(/DTSTART:\d{8}T\d{4}00Z/);

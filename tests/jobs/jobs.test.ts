@@ -3,7 +3,7 @@ import pino from 'pino';
 import { z } from 'zod';
 import { loadConfig } from '../../server/config';
 import { createDb } from '../../server/db/client';
-import { createJobs, defineQueue, type Jobs, type QueueDefinition } from '../../server/jobs';
+import { createJobs, defineQueue, type Jobs } from '../../server/jobs';
 import { runHousekeeping } from '../../server/jobs/housekeeping';
 import { createTestDatabase, type TestDatabase } from '../setup/test-db';
 
@@ -38,7 +38,7 @@ function configFor(url: string) {
 async function instance(name: string, worker: boolean) {
   const { db, pool } = createDb(database.url, { max: 4 });
   pools.push(pool);
-  const jobs = createJobs({ pool, db, config: configFor(database.url), logger, queues: [work as QueueDefinition], worker, deps: { name } });
+  const jobs = createJobs({ pool, db, config: configFor(database.url), logger, queues: [work], worker, deps: { name } });
   await jobs.start();
   if (worker) await jobs.work();
   started.push(jobs);

@@ -100,7 +100,7 @@ describe('the mail queue (outbox)', () => {
 
     // Down: nothing listens at the address.
     await database.db.execute(sql`update mail_queue set next_attempt_at = now()`);
-    const down = sender({ RESEND_BASE_URL: 'http://127.0.0.1:9' } as Partial<Config>);
+    const down = sender({ RESEND_BASE_URL: 'http://127.0.0.1:9' });
     await down.drain();
     r = await rows();
     expect(r.map((x) => x.state)).toEqual(['queued', 'queued']);

@@ -7,7 +7,6 @@ import type Stripe from 'stripe';
 import type { Db } from '../../db/client';
 import type { Processor } from '../payments/processor';
 import { reconFindings, reconProcessorItems, reconResolutions, reconRuns } from './books.tables';
-import { ledgerEntries } from '../ledger/ledger.tables';
 import { pledges } from '../pledges/pledges.tables';
 import { recordAudit } from '../audit/audit.repository';
 import { appendLedgerEntry } from '../ledger/ledger.repository';
@@ -67,7 +66,7 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
       batch.push({
         runId,
         balanceTransactionId: bt.id,
-        sourceId: idOf(bt.source as string | null) ?? bt.id,
+        sourceId: idOf(bt.source) ?? bt.id,
         kind,
         amountMinor: bt.amount,
         feeMinor: bt.fee,
@@ -272,7 +271,7 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
   async function recordFromProcessor(tx: Tx, balanceTransactionId: string) {
     const bt = await stripe.balanceTransactions.retrieve(balanceTransactionId);
     const kind = ledgerKindOf(bt);
-    const sourceId = idOf(bt.source as string | null);
+    const sourceId = idOf(bt.source);
     if (!kind || !sourceId) throw conflict('books.cannot_record', `Balance transaction ${bt.id} is not money the ledger records.`);
     const pledgeOf = async (metadata: Stripe.Metadata | null | undefined, piId: string | null) => {
       const fromMeta = metadata?.pledge_id && uuidRe.test(metadata.pledge_id) ? metadata.pledge_id : null;
@@ -312,7 +311,7 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
     };
     if (kind === 'charge') {
       const facts = await processor.chargeFacts(sourceId);
-      const pledge = await pledgeOf(facts.charge.metadata, idOf(facts.charge.payment_intent as string | null));
+      const pledge = await pledgeOf(facts.charge.metadata, idOf(facts.charge.payment_intent));
       if (pledge) {
         await recordCharge(tx, pledge, facts);
         await refreshPledgeState(tx, pledge);
@@ -327,8 +326,8 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
       }
     } else if (kind === 'refund') {
       const refund = await stripe.refunds.retrieve(sourceId);
-      const charge = await stripe.charges.retrieve(idOf(refund.charge as string)!);
-      const pledge = await pledgeOf(refund.metadata ?? charge.metadata, idOf(charge.payment_intent as string | null));
+      const charge = await stripe.charges.retrieve(idOf(refund.charge)!);
+      const pledge = await pledgeOf(refund.metadata ?? charge.metadata, idOf(charge.payment_intent));
       if (pledge) {
         await recordRefund(tx, pledge, refund);
         await refreshPledgeState(tx, pledge);
@@ -336,8 +335,8 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
         await plain({ kind: 'refund', amountMinor: bt.amount, chargeId: charge.id, description: 'Refund (recorded from the processor)' });
     } else if (kind === 'dispute' || kind === 'dispute_reversal') {
       const dispute = await stripe.disputes.retrieve(sourceId);
-      const charge = await stripe.charges.retrieve(idOf(dispute.charge as string)!);
-      const pledge = await pledgeOf(charge.metadata, idOf(charge.payment_intent as string | null));
+      const charge = await stripe.charges.retrieve(idOf(dispute.charge)!);
+      const pledge = await pledgeOf(charge.metadata, idOf(charge.payment_intent));
       if (pledge) {
         await recordDispute(tx, pledge, dispute);
         await refreshPledgeState(tx, pledge);

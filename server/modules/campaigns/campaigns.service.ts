@@ -176,7 +176,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
 
     async createTier({ actorId, slug, input }: { actorId: string; slug: string; input: TierInput }) {
       const tier = await db.transaction(async (tx) => {
-        const campaign = await requireCampaign(slug, tx as unknown as Db);
+        const campaign = await requireCampaign(slug, tx);
         const [row] = await tx
           .insert(tiers)
           .values({ ...input, campaignId: campaign.id })
@@ -190,7 +190,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
 
     async updateTier({ actorId, slug, tierId, input }: { actorId: string; slug: string; tierId: string; input: TierInput }) {
       const tier = await db.transaction(async (tx) => {
-        const campaign = await requireCampaign(slug, tx as unknown as Db);
+        const campaign = await requireCampaign(slug, tx);
         const [before] = await tx
           .select()
           .from(tiers)
@@ -226,7 +226,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
 
     async replaceStretchTargets({ actorId, slug, input }: { actorId: string; slug: string; input: StretchTargetsInput }) {
       await db.transaction(async (tx) => {
-        const campaign = await requireCampaign(slug, tx as unknown as Db);
+        const campaign = await requireCampaign(slug, tx);
         const before = await tx
           .select()
           .from(stretchTargets)
@@ -253,7 +253,7 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
     /** Replaces the flight budget; with lines, the goal becomes their sum in the same transaction. */
     async replaceBudgetLines({ actorId, slug, input }: { actorId: string; slug: string; input: BudgetLinesInput }) {
       await db.transaction(async (tx) => {
-        const campaign = await requireCampaign(slug, tx as unknown as Db);
+        const campaign = await requireCampaign(slug, tx);
         const before = await tx
           .select()
           .from(budgetLines)

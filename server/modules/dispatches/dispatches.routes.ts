@@ -4,14 +4,12 @@ import { z } from 'zod';
 import { validated } from '../../middleware/validate';
 import { requireRole } from '../../middleware/auth';
 import { AppError } from '../../errors';
-import { StorageKeyError } from '../../lib/storage';
 import { renderMarkdownSchema, saveDispatchSchema, transitionDispatchSchema } from '../../../shared/schemas/dispatch';
 import type { DispatchesService } from './dispatches.service';
 import type { DispatchSending } from './dispatch-sending';
 import { imageTooLarge } from './dispatches.errors';
 
 const idParams = z.object({ id: z.uuid({ message: 'must be a dispatch id' }) });
-const slugParams = z.object({ slug: z.string().regex(/^[a-z0-9-]{1,80}$/, { message: 'must be a dispatch link' }) });
 const retrySchema = z.object({
   mailIds: z
     .array(z.union([z.number().int(), z.string().min(1).max(64)]))

@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
@@ -19,7 +19,6 @@ import {
   DISPATCH_TRANSITIONS,
   type DispatchDetail,
   type DispatchFeedItem,
-  type DispatchState,
   type DispatchSummary,
   type DispatchVersionView,
   type PublicDispatchView,
@@ -272,7 +271,7 @@ export function createDispatchesService(deps: DispatchesServiceDeps) {
       const img = checkHeroImage(file, { maxBytes: deps.config.HERO_IMAGE_MAX_BYTES, maxPixels: deps.config.HERO_IMAGE_MAX_PIXELS });
       const key = randomKey('heroes', img.ext);
       const row = await db.transaction(async (tx) => {
-        await storeFile(tx as unknown as Db, key, file!, {
+        await storeFile(tx, key, file!, {
           contentType: img.contentType,
           width: img.width,
           height: img.height,

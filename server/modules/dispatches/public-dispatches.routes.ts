@@ -29,7 +29,7 @@ export function createPublicDispatchesRouter({ dispatches }: { dispatches: Dispa
 export function createFilesRouter({ dispatches }: { dispatches: DispatchesService }) {
   const router = Router();
   router.get('/*key', async (req, res) => {
-    const parts = (req.params as { key: string[] }).key;
+    const parts = req.params.key;
     const key = Array.isArray(parts) ? parts.join('/') : String(parts);
     let file;
     try {

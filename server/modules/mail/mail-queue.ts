@@ -53,7 +53,7 @@ export async function queueMail<N extends EmailName>(tx: DbOrTx, input: QueueMai
       idempotencyKey: input.idempotencyKey,
       template: input.template,
       toAddress: input.to,
-      data: input.data as object,
+      data: input.data,
       category: input.category,
       headers: input.headers ?? {},
       accountId: input.accountId ?? null,

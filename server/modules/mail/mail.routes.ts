@@ -6,7 +6,13 @@ import { requireRole } from '../../middleware/auth';
 import { validated } from '../../middleware/validate';
 import { badRequest, notFound } from '../../errors';
 import { recordAudit } from '../audit/audit.repository';
-import { mailQueueQuerySchema, mailStates, type MailQueueEntry, type MailQueuePage, type MailServiceAnswer } from '../../../shared/schemas/mail-queue';
+import {
+  mailQueueQuerySchema,
+  mailStates,
+  type MailQueueEntry,
+  type MailQueuePage,
+  type MailServiceAnswer,
+} from '../../../shared/schemas/mail-queue';
 import { mailQueue } from './mail.tables';
 import { MAIL_QUEUE_CHANNEL } from './mail-queue';
 
@@ -58,7 +64,8 @@ export function createMailQueueRouter({ db }: { db: Db }) {
       const entry = await db.transaction(async (tx) => {
         const [row] = await tx.select().from(mailQueue).where(eq(mailQueue.id, params.id));
         if (!row) throw notFound('mail_queue.not_found', 'No such message in the mail queue.');
-        if (row.state !== 'failed') throw badRequest('mail_queue.not_failed', `Only a failed message can be retried; this one is ${row.state}.`);
+        if (row.state !== 'failed')
+          throw badRequest('mail_queue.not_failed', `Only a failed message can be retried; this one is ${row.state}.`);
         const [updated] = await tx
           .update(mailQueue)
           .set({ state: 'queued', attempts: 0, nextAttemptAt: new Date(), updatedAt: new Date() })

@@ -75,7 +75,7 @@ function uploadMiddleware(limitBytes: number): RequestHandler {
 
 function sendCsvOrText(res: Parameters<RequestHandler>[1], type: string, filename: string, body: string | Buffer) {
   res.setHeader('content-type', type);
-  res.setHeader('content-disposition', `attachment; filename="${filename.replace(/[^\w.\-]+/g, '_')}"`);
+  res.setHeader('content-disposition', `attachment; filename="${filename.replace(/[^\w.-]+/g, '_')}"`);
   res.send(body);
 }
 

@@ -11,7 +11,7 @@ import { median } from '../../../shared/orbit/robust-stats';
 import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
 import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/sail-drag-balance';
 import { estimateLifetime } from '../../../shared/orbit/lifetime';
-import type { SailCraft, SailMode, SolarActivity } from '../../../shared/orbit/types';
+import type { SailCraft, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
@@ -398,7 +398,7 @@ export function createOrbitService({ db }: { db: Db }) {
       );
       const comparison = compareSailingPeriods(
         rows.map((r) => ({ epochMs: r.epoch_ms, specificEnergyJPerKg: r.e, semiMajorAxisKm: r.a, outlier: r.outlier })),
-        periods.map((p) => ({ startMs: p.startAt.getTime(), endMs: p.endAt.getTime(), mode: p.mode as SailMode })),
+        periods.map((p) => ({ startMs: p.startAt.getTime(), endMs: p.endAt.getTime(), mode: p.mode })),
       );
       const { rows: latestRows } = await pool.query<{
         epoch_ms: number;

@@ -133,7 +133,7 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
         });
         return created!;
       });
-      return (await this.get(row.id)) as SnapshotView;
+      return await this.get(row.id);
     },
 
     async list(opts: { ownerId?: string; spacecraftId?: string }) {

@@ -68,7 +68,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
    * invoice event may still be on the way). Null: the charge is not ours.
    */
   async function pledgeOfCharge(charge: Stripe.Charge): Promise<{ pledgeId: string; invoiceId: string | null } | null> {
-    const piId = idOf(charge.payment_intent as string | null);
+    const piId = idOf(charge.payment_intent);
     const known = await exists(
       pledgeIdIn(charge.metadata) ?? (await pledgeIdByColumn('paymentIntentId', piId)) ?? (await pledgeIdOfCharge(db, charge.id)),
     );
@@ -78,7 +78,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       const fromIntent = await exists(pledgeIdIn(pi.metadata));
       if (fromIntent) return { pledgeId: fromIntent, invoiceId: null };
     }
-    const customerId = idOf(charge.customer as string | null);
+    const customerId = idOf(charge.customer);
     if (!customerId) return null;
     const [ours] = await db.select().from(paymentCustomers).where(eq(paymentCustomers.customerId, customerId));
     if (!ours) return null;
@@ -87,8 +87,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       .autoPagingToArray({ limit: 1000 });
     for (const invoice of invoices) {
       const paidBy = (invoice.payments?.data ?? []).some(
-        (p) =>
-          (piId && idOf(p.payment?.payment_intent as string | null) === piId) || idOf(p.payment?.charge as string | null) === charge.id,
+        (p) => (piId && idOf(p.payment?.payment_intent) === piId) || idOf(p.payment?.charge) === charge.id,
       );
       if (!paidBy) continue;
       const { subscriptionId, pledgeId } = subscriptionOfInvoice(invoice);
@@ -112,14 +111,14 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       return {
         ...base,
         chargeId: obj.id,
-        paymentIntentId: idOf(obj.payment_intent as string | null),
-        customerId: idOf(obj.customer as string | null),
+        paymentIntentId: idOf(obj.payment_intent),
+        customerId: idOf(obj.customer),
         amountMinor: obj.amount_refunded,
       };
     return {
       ...base,
-      chargeId: idOf(obj.charge as string | null),
-      paymentIntentId: idOf(obj.payment_intent as string | null),
+      chargeId: idOf(obj.charge),
+      paymentIntentId: idOf(obj.payment_intent),
       customerId: null,
       amountMinor: obj.amount,
     };
@@ -133,11 +132,11 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
   }
 
   async function chargesOfInvoice(invoice: Stripe.Invoice): Promise<ChargeFacts[]> {
-    const full = invoice.payments?.data ? invoice : await stripe.invoices.retrieve(invoice.id!, { expand: ['payments'] });
+    const full = invoice.payments?.data ? invoice : await stripe.invoices.retrieve(invoice.id, { expand: ['payments'] });
     const out: ChargeFacts[] = [];
     for (const p of full.payments?.data ?? []) {
-      const piId = idOf(p.payment?.payment_intent as string | null);
-      const chargeId = idOf(p.payment?.charge as string | null);
+      const piId = idOf(p.payment?.payment_intent);
+      const chargeId = idOf(p.payment?.charge);
       const facts = piId
         ? await processor.chargeOfPaymentIntent(piId, invoice.id)
         : chargeId
@@ -171,7 +170,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
     if (pledge.subscriptionId !== sub.id) {
       await tx
         .update(pledges)
-        .set({ subscriptionId: sub.id, processorCustomerId: idOf(sub.customer as string), updatedAt: new Date() })
+        .set({ subscriptionId: sub.id, processorCustomerId: idOf(sub.customer), updatedAt: new Date() })
         .where(eq(pledges.id, pledge.id));
     }
     return row!;
@@ -273,8 +272,8 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
               .set({
                 checkoutSessionId: session.id,
                 checkoutUrl: null,
-                paymentIntentId: idOf(session.payment_intent as string | null) ?? pledge!.paymentIntentId,
-                processorCustomerId: idOf(session.customer as string | null) ?? pledge!.processorCustomerId,
+                paymentIntentId: idOf(session.payment_intent) ?? pledge!.paymentIntentId,
+                processorCustomerId: idOf(session.customer) ?? pledge!.processorCustomerId,
                 updatedAt: new Date(),
               })
               .where(eq(pledges.id, pledge!.id));
@@ -284,12 +283,12 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
               current,
               async (p) => {
                 if (session.mode === 'subscription' && session.subscription) {
-                  await upsertMembership(tx, p, await stripe.subscriptions.retrieve(idOf(session.subscription as string)!));
-                  const invoiceId = idOf(session.invoice as string | null);
+                  await upsertMembership(tx, p, await stripe.subscriptions.retrieve(idOf(session.subscription)!));
+                  const invoiceId = idOf(session.invoice);
                   if (invoiceId)
                     for (const facts of await chargesOfInvoice(await stripe.invoices.retrieve(invoiceId))) await recordCharge(tx, p, facts);
                 } else if (session.payment_intent) {
-                  const facts = await processor.chargeOfPaymentIntent(idOf(session.payment_intent as string)!);
+                  const facts = await processor.chargeOfPaymentIntent(idOf(session.payment_intent)!);
                   if (facts) await recordCharge(tx, p, facts);
                 }
               },
@@ -354,8 +353,8 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
       case 'charge.dispute.funds_withdrawn':
       case 'charge.dispute.funds_reinstated':
       case 'charge.dispute.closed': {
-        const obj = event.data.object as Stripe.Charge | Stripe.Refund | Stripe.Dispute;
-        const chargeId = obj.object === 'charge' ? obj.id : idOf(obj.charge as string | null);
+        const obj = event.data.object;
+        const chargeId = obj.object === 'charge' ? obj.id : idOf(obj.charge);
         if (!chargeId) return null;
         const charge = obj.object === 'charge' ? obj : await stripe.charges.retrieve(chargeId);
         const owner = await pledgeOfCharge(charge);
@@ -438,7 +437,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
               amountMinor: -payout.amount,
               currency: payout.currency,
               processorObjectId: payout.id,
-              processorBalanceTransactionId: idOf(payout.balance_transaction as string | null),
+              processorBalanceTransactionId: idOf(payout.balance_transaction),
               description: 'Payout to the bank account',
               occurredAt: new Date((payout.arrival_date ?? payout.created) * 1000),
             });

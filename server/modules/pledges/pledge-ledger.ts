@@ -7,7 +7,6 @@ import { pledges } from './pledges.tables';
 import { tiers } from '../campaigns/campaigns.tables';
 import { appendLedgerEntry, pledgeTotals } from '../ledger/ledger.repository';
 import { moneyStateOf, nextPledgeState } from '../../../shared/pledge-states';
-import type { PledgeState } from '../../../shared/schemas/campaign';
 import { ledgerEntries } from '../ledger/ledger.tables';
 import { correctReceiptAfterRefund, issuePaymentReceipt } from '../books/receipts.repository';
 
@@ -35,7 +34,7 @@ export async function recordCharge(tx: Tx, pledge: PledgeRow, facts: ChargeFacts
     campaignId: pledge.campaignId,
     pledgeId: pledge.id,
     processorChargeId: charge.id,
-    processorPaymentIntentId: idOf(charge.payment_intent as string | null),
+    processorPaymentIntentId: idOf(charge.payment_intent),
     processorBalanceTransactionId: bt?.id ?? null,
     processorInvoiceId: facts.invoiceId ?? null,
     isDemo,
@@ -78,13 +77,13 @@ export async function recordRefund(tx: Tx, pledge: PledgeRow, refund: Stripe.Ref
     campaignId: pledge.campaignId,
     pledgeId: pledge.id,
     processorObjectId: refund.id,
-    processorChargeId: idOf(refund.charge as string | null),
-    processorPaymentIntentId: idOf(refund.payment_intent as string | null),
-    processorBalanceTransactionId: idOf(refund.balance_transaction as string | null),
+    processorChargeId: idOf(refund.charge),
+    processorPaymentIntentId: idOf(refund.payment_intent),
+    processorBalanceTransactionId: idOf(refund.balance_transaction),
     description: refund.reason ? `Refund (${refund.reason})` : 'Refund',
     occurredAt: at(refund.created),
   });
-  const chargeId = idOf(refund.charge as string | null);
+  const chargeId = idOf(refund.charge);
   if (inserted && chargeId) await correctReceiptAfterRefund(tx, chargeId);
   return inserted;
 }
@@ -97,8 +96,8 @@ export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.D
     campaignId: pledge.campaignId,
     pledgeId: pledge.id,
     processorObjectId: dispute.id,
-    processorChargeId: idOf(dispute.charge as string),
-    processorPaymentIntentId: idOf(dispute.payment_intent as string | null),
+    processorChargeId: idOf(dispute.charge),
+    processorPaymentIntentId: idOf(dispute.payment_intent),
     processorBalanceTransactionId: dispute.balance_transactions?.[0]?.id ?? null,
     description: `Dispute opened (${dispute.reason})`,
     occurredAt: at(dispute.created),
@@ -113,7 +112,7 @@ export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.D
         campaignId: pledge.campaignId,
         pledgeId: pledge.id,
         processorObjectId: dispute.id,
-        processorChargeId: idOf(dispute.charge as string),
+        processorChargeId: idOf(dispute.charge),
         processorBalanceTransactionId: bt.id,
         description: 'Dispute won: amount reinstated',
         occurredAt: at(bt.created),
@@ -127,7 +126,7 @@ export async function recordDispute(tx: Tx, pledge: PledgeRow, dispute: Stripe.D
         campaignId: pledge.campaignId,
         pledgeId: pledge.id,
         processorObjectId: bt.id,
-        processorChargeId: idOf(dispute.charge as string),
+        processorChargeId: idOf(dispute.charge),
         processorBalanceTransactionId: bt.id,
         description: 'Dispute fee',
         occurredAt: at(bt.created),

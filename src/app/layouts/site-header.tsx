@@ -107,7 +107,7 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
   const account = me.data ?? null;
   const location = useLocation();
   const navigate = useNavigate();
-  const signOut = useSignOut({ onSuccess: () => navigate('/') });
+  const signOut = useSignOut({ onSuccess: () => void navigate('/') });
   const [mobileOpen, setMobileOpen] = useState(false);
   const mobileId = useId();
   const container = useRef<HTMLDivElement>(null);

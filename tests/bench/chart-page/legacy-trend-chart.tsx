@@ -73,7 +73,7 @@ export function TrendChart({
       const row: Row = { t: s.epochMs[i]! };
       const bad = outliers.has(i);
       for (const k of Object.keys(KEY_OF) as SnapshotSeriesKey[]) {
-        const v = (s[KEY_OF[k]] as number[])[i]! * SERIES[k].scale;
+        const v = s[KEY_OF[k]][i]! * SERIES[k].scale;
         row[k] = bad ? null : v;
         row[`${k}Outlier`] = bad ? v : null;
       }

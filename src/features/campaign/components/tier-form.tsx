@@ -15,7 +15,7 @@ export function TierForm({ slug, currency, tier, onDone }: { slug: string; curre
     title: tier?.title ?? '',
     description: tier?.description ?? '',
     amount: tier ? minorToMajorText(tier.minAmountMinor, exp) : '',
-    kind: tier?.kind ?? ('one-time' as TierInput['kind']),
+    kind: tier?.kind ?? 'one-time',
     limit: tier?.quantityLimit?.toString() ?? '',
     delivery: tier?.estimatedDelivery ?? '',
     position: String(tier?.position ?? 0),

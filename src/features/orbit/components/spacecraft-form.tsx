@@ -71,7 +71,7 @@ export function SpacecraftForm({
           ...prefill,
         },
   });
-  const err = (k: (typeof fields)[number]) => form.formState.errors[k]?.message as string | undefined;
+  const err = (k: (typeof fields)[number]) => form.formState.errors[k]?.message;
   return (
     <form
       noValidate

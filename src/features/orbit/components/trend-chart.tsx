@@ -10,7 +10,7 @@ export type RightAxis = 'none' | 'semiMajorAxis' | 'energy';
 export type ChartSelection = { left: ('apogee' | 'perigee' | 'meanAltitude')[]; right: RightAxis };
 export type Domain = { fromMs: number; toMs: number };
 
-const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['outliers'] & keyof Trend['series']> = {
+const KEY_OF: Record<SnapshotSeriesKey, keyof Trend['outliers']> = {
   apogee: 'apogeeKm',
   perigee: 'perigeeKm',
   meanAltitude: 'meanAltitudeKm',

@@ -98,7 +98,7 @@ export function PledgeForm({
         <legend className="mb-2 text-sm font-semibold text-foil-100">What would you like to back?</legend>
         {[
           ...available.map((t) => ({
-            id: t.id as string | null,
+            id: t.id,
             title: t.title,
             note:
               t.kind === 'monthly'

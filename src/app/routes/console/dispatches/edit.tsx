@@ -61,7 +61,8 @@ function Editor({ initial }: { initial: DispatchDetail | null }) {
     emailOnPublish: email,
     heroAlt: initial?.heroAlt ?? '',
   };
-  const onSave = () => save.mutate(input, { onSuccess: (d) => !initial && navigate(`/console/dispatches/${d.id}`, { replace: true }) });
+  const onSave = () =>
+    save.mutate(input, { onSuccess: (d) => void (!initial && navigate(`/console/dispatches/${d.id}`, { replace: true })) });
 
   return (
     <div>
