@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from './text';
 
 export const refundReasons = ['backer_asked', 'duplicate', 'fraudulent', 'goodwill'] as const;
 export type RefundReason = (typeof refundReasons)[number];
@@ -6,7 +7,7 @@ export type RefundReason = (typeof refundReasons)[number];
 export const createRefundSchema = z.object({
   amountMinor: z.coerce.number().int().positive({ message: 'must be a positive whole number of minor units' }),
   reason: z.enum(refundReasons, { message: `must be one of ${refundReasons.join(', ')}` }),
-  note: z.string().trim().max(500, { message: 'at most 500 characters' }).default(''),
+  note: safeText({ multiline: true }).trim().max(500, { message: 'at most 500 characters' }).default(''),
   /** Which charge of the pledge (a crew membership has one per month); default: the latest. */
   chargeId: z
     .string()
@@ -16,9 +17,9 @@ export const createRefundSchema = z.object({
 export type CreateRefundInput = z.infer<typeof createRefundSchema>;
 
 export const booksSettingsSchema = z.object({
-  organisationName: z.string().trim().min(1, { message: 'is required' }).max(200),
-  address: z.string().trim().min(1, { message: 'is required' }).max(1000),
-  registrationNumber: z.string().trim().min(1, { message: 'is required' }).max(100),
+  organisationName: safeText().trim().min(1, { message: 'is required' }).max(200),
+  address: safeText({ multiline: true }).trim().min(1, { message: 'is required' }).max(1000),
+  registrationNumber: safeText().trim().min(1, { message: 'is required' }).max(100),
 });
 export type BooksSettingsInput = z.infer<typeof booksSettingsSchema>;
 
@@ -30,7 +31,7 @@ export type StartReconciliationInput = z.infer<typeof startReconciliationSchema>
 
 export const resolveFindingSchema = z.object({
   action: z.enum(['record_from_processor', 'acknowledge'], { message: 'must be record_from_processor or acknowledge' }),
-  note: z.string().trim().max(500).default(''),
+  note: safeText({ multiline: true }).trim().max(500).default(''),
 });
 export type ResolveFindingInput = z.infer<typeof resolveFindingSchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeText } from './text';
 
 // Dispatches: one schema per input, shared by the desk's forms and the API's validator.
 
@@ -34,19 +35,21 @@ export const DISPATCH_TITLE_MAX = 160;
 export const DISPATCH_BODY_MAX = 50_000;
 export const DISPATCH_CHARTS_MAX = 3;
 
-const title = z
-  .string()
+const title = safeText()
   .trim()
   .min(1, 'Give the dispatch a title')
   .max(DISPATCH_TITLE_MAX, `Keep the title under ${DISPATCH_TITLE_MAX} characters`)
   // The title becomes an e-mail subject: a line break there would break the header.
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'The title must be one line without control characters');
 
-const bodyMarkdown = z.string().max(DISPATCH_BODY_MAX, `Keep the body under ${DISPATCH_BODY_MAX.toLocaleString('en')} characters`);
+const bodyMarkdown = safeText({ multiline: true }).max(
+  DISPATCH_BODY_MAX,
+  `Keep the body under ${DISPATCH_BODY_MAX.toLocaleString('en')} characters`,
+);
 
 const chart = z.object({
   snapshotId: z.uuid({ message: 'must be a snapshot id' }),
-  alt: z.string().trim().min(1, 'Describe the chart for readers who cannot see it').max(300),
+  alt: safeText().trim().min(1, 'Describe the chart for readers who cannot see it').max(300),
 });
 
 const audience = z
@@ -68,7 +71,7 @@ export const saveDispatchSchema = z.object({
   audience,
   charts: z.array(chart).max(DISPATCH_CHARTS_MAX, `At most ${DISPATCH_CHARTS_MAX} charts per dispatch`).default([]),
   emailOnPublish: z.boolean().default(false),
-  heroAlt: z.string().trim().max(300).default(''),
+  heroAlt: safeText().trim().max(300).default(''),
 });
 export type SaveDispatchInput = z.input<typeof saveDispatchSchema>;
 export type SaveDispatch = z.output<typeof saveDispatchSchema>;
@@ -89,7 +92,7 @@ export const transitionDispatchSchema = z.discriminatedUnion('to', [
 export type TransitionDispatch = z.infer<typeof transitionDispatchSchema>;
 
 export const unsubscribeSchema = z.object({
-  token: z.string().min(10).max(400),
+  token: safeText().min(10).max(400),
 });
 
 // ---- views ----

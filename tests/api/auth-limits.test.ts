@@ -54,7 +54,7 @@ async function letTimePass(app: TestApp, seconds: number) {
 
 async function account(email: string, password: string, address: string) {
   const c = await client(t.app, address);
-  expect((await c.signUp(email, password)).status).toBe(201);
+  expect((await c.signUp(email, password)).status).toBe(202);
 }
 
 describe('sign-in limits', () => {
@@ -114,7 +114,7 @@ describe('sign-in limits', () => {
     for (let i = 0; i < 6; i++) await a.signIn(`ghost${i}@example.org`, 'guess guess');
     expect((await a.signIn('skua@example.org', 'skua password 12')).status).toBe(429);
     // Sign-in failures do not use up sign-up or reset requests.
-    expect((await a.signUp('auk@example.org', 'auk password 123')).status).toBe(201);
+    expect((await a.signUp('auk@example.org', 'auk password 123')).status).toBe(202);
     expect((await a.requestReset('skua@example.org')).status).toBe(202);
 
     const b = await client(t.app, '198.51.100.42');
@@ -125,7 +125,7 @@ describe('sign-in limits', () => {
     expect((await b.signIn('skua@example.org', 'skua password 12')).status).toBe(200);
 
     const c = await client(t.app, '198.51.100.43');
-    for (let i = 0; i < 3; i++) expect((await c.signUp(`puffin${i}@example.org`, 'puffin password 1')).status).toBe(201);
+    for (let i = 0; i < 3; i++) expect((await c.signUp(`puffin${i}@example.org`, 'puffin password 1')).status).toBe(202);
     expect((await c.signUp('puffin3@example.org', 'puffin password 1')).status).toBe(429);
     expect((await c.requestReset('skua@example.org')).status).toBe(202);
   });

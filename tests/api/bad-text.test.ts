@@ -48,6 +48,8 @@ let periodId: string;
 let snapshotId: string;
 let tierId: string;
 
+const someUuid = '00000000-0000-4000-8000-0000000000aa';
+
 type Sample = { route: string; as: () => Agent | Promise<Agent>; url: () => string; body: () => Record<string, unknown> };
 
 const samples: Sample[] = [
@@ -190,6 +192,42 @@ const samples: Sample[] = [
     url: () => `/api/orbit/snapshots/${snapshotId}`,
     body: () => ({ title: 'Renamed', caption: 'Still apogee up.' }),
   },
+  {
+    route: 'POST /api/dispatches',
+    as: () => outreach,
+    url: () => '/api/dispatches',
+    body: () => ({ title: 'Sail open', bodyMarkdown: 'It opened.', audience: { kind: 'everyone' }, heroAlt: 'The sail' }),
+  },
+  {
+    route: 'POST /api/dispatches/preview',
+    as: () => outreach,
+    url: () => '/api/dispatches/preview',
+    body: () => ({ markdown: 'It **opened**.' }),
+  },
+  {
+    route: 'PUT /api/dispatches/:id',
+    as: () => outreach,
+    url: () => `/api/dispatches/${someUuid}`,
+    body: () => ({ title: 'Sail open', bodyMarkdown: 'It opened.', audience: { kind: 'everyone' }, heroAlt: 'The sail' }),
+  },
+  {
+    route: 'POST /api/books/pledges/:id/refunds',
+    as: () => admin,
+    url: () => `/api/books/pledges/${someUuid}/refunds`,
+    body: () => ({ amountMinor: 100, reason: 'backer_asked', note: 'by phone' }),
+  },
+  {
+    route: 'POST /api/books/findings/:id/resolve',
+    as: () => admin,
+    url: () => `/api/books/findings/${someUuid}/resolve`,
+    body: () => ({ action: 'acknowledge', note: 'Checked by hand' }),
+  },
+  {
+    route: 'PUT /api/books/settings',
+    as: () => admin,
+    url: () => '/api/books/settings',
+    body: () => ({ organisationName: 'Saltmarsh Orbital Society', address: 'The harbour shed', registrationNumber: 'SOS-1' }),
+  },
 ];
 
 // Routes that take no JSON body (or a signed raw body, or a file): nothing of theirs reaches a text column.
@@ -207,6 +245,19 @@ const withoutJsonBody = new Set([
   'POST /api/orbit/uploads/:jobId/cancel',
   'DELETE /api/orbit/sailing-periods/:periodId',
   'DELETE /api/orbit/snapshots/:id',
+  // No text in their bodies (ids, dates and enums only, each validated), or a file upload:
+  'POST /api/admin/mail-queue/:id/retry',
+  'POST /api/books/reconciliations',
+  'POST /api/books/months/:month/close',
+  'POST /api/books/months/:month/publish',
+  'POST /api/dispatches/:id/transition',
+  'POST /api/dispatches/:id/hero',
+  'DELETE /api/dispatches/:id/hero',
+  'POST /api/dispatches/:id/email',
+  'POST /api/dispatches/:id/retry',
+  // One-click unsubscribe (RFC 8058): the signed token is in the query string, the body is the fixed form field.
+  'POST /api/email-choices/unsubscribe',
+  'POST /api/email-choices/resubscribe',
 ]);
 
 /** Every string leaf of a JSON value, as a path and a setter on a copy. */
@@ -302,7 +353,8 @@ describe('text with control characters or broken Unicode', () => {
             .get(url)
             .query({ [key]: `x${NUL}y` })
             .redirects(0);
-          if (res.status >= 500) failures.push(`${url}?${key} → ${res.status}`);
+          // 502 is the processor's absence in this suite (the disputes list asks it live), not a text problem.
+          if (res.status >= 500 && res.status !== 502) failures.push(`${url}?${key} → ${res.status}`);
         }),
       );
       const bent = url.replace(/\/([^/]+)$/, '/%00');

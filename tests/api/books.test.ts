@@ -68,7 +68,7 @@ describe('refunds', () => {
   it('answers a clear 400 for a bad refund body', async () => {
     const res = await refund(w, '00000000-0000-4000-8000-000000000000', { amountMinor: -5, reason: 'because' });
     expect(res.status).toBe(400);
-    expect(res.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['amountMinor', 'reason']);
+    expect(res.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['body.amountMinor', 'body.reason']);
   });
 });
 

@@ -83,7 +83,7 @@ describe('a craft without a sail', () => {
     expect(empty.body.spacecraft.sailAreaM2).toBe(0);
     const negative = await create({ ...reference, name: 'Bad', slug: 'bad', catalogNumber: '41004', sailAreaM2: -1 });
     expect(negative.status).toBe(400);
-    expect(negative.body.error.details).toEqual([{ path: 'sailAreaM2', message: 'must be 0 m² (no sail) or more' }]);
+    expect(negative.body.error.details).toEqual([{ path: 'body.sailAreaM2', message: 'must be 0 m² (no sail) or more' }]);
   });
 
   it('has a sail yield that says the sail does not apply, and a drag-only lifetime', async () => {
