@@ -15,6 +15,10 @@ status=0
 echo "[test] type check (tsc --noEmit, strict)"
 node_modules/.bin/tsc --noEmit -p tsconfig.json || status=1
 
+echo "[test] lint (ESLint with type information, import directions) and format (Prettier)"
+node_modules/.bin/eslint . || status=1
+node_modules/.bin/prettier --check . || status=1
+
 echo "[test] unit, reference and API suites"
 node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=test-results/unit.json || status=1
 
