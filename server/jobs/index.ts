@@ -139,12 +139,16 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
                 throw new Error(`payload refused: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
               }
               const started = Date.now();
+              const run = q.handler(parsed.data, { id: job.id, ctx, retryCount: job.retryCount });
+              inFlight.add(run);
               try {
-                await q.handler(parsed.data, { id: job.id, ctx, retryCount: job.retryCount });
+                await run;
                 log.debug({ queue: q.name, jobId: job.id, ms: Date.now() - started }, 'job done');
               } catch (err) {
                 log.warn({ err, queue: q.name, jobId: job.id, retryCount: job.retryCount }, 'job failed');
                 throw err;
+              } finally {
+                inFlight.delete(run);
               }
             }
           },
@@ -186,11 +190,19 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     return n;
   }
 
+  const inFlight = new Set<Promise<unknown>>();
+
   async function stop() {
     const timeout = config.JOBS_SHUTDOWN_TIMEOUT_MS;
     await Promise.all(loops.map((l) => l.stop().catch((err: unknown) => log.error({ err }, 'loop stop failed'))));
     // graceful + wait: resolves once the running jobs have finished (or the timeout failed them for a retry).
     await boss.stop({ graceful: true, wait: true, timeout, close: false });
+    // Our own count of running handlers, in case the queue library resolves before they end (bounded as above).
+    if (inFlight.size > 0) {
+      let timer: ReturnType<typeof setTimeout> | undefined;
+      await Promise.race([Promise.allSettled([...inFlight]), new Promise((resolve) => (timer = setTimeout(resolve, timeout)))]);
+      clearTimeout(timer);
+    }
   }
 
   return { boss, send: sender.send, start, work, stop, runPending, addLoop: (l) => void loops.push(l) };

@@ -532,7 +532,9 @@ describe('webhook delivery', () => {
       const customer = await stripe.customers.create({ email: 'retry@example.test' });
       await stripe.customers.update(customer.id, { name: 'Second' });
       const deadline = Date.now() + 5000;
-      while (receiver.received.length < 2 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
+      // The fake marks a delivery done after the receiver has answered: wait for both to settle, not only arrive.
+      const settled = () => receiver.received.length >= 2 && fake.webhooks.deliveries().every((d) => d.status !== 'pending');
+      while (!settled() && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
       const delivered = receiver.received.map((r) => stripe.webhooks.constructEvent(r.body, r.signature, SECRET));
       expect(delivered.map((e) => e.type)).toEqual(['customer.created', 'customer.updated']);
       expect(receiver.rejected.map((r) => (JSON.parse(r.body) as { type: string }).type)).toEqual(['customer.created', 'customer.created']);
