@@ -28,8 +28,9 @@ function Cancelled({ id }: { id: string }) {
       notice={
         !paid && (
           <Alert
-            tone={p.state === 'failed' ? 'error' : 'info'}
-            title={p.state === 'failed' ? 'The card was not accepted' : 'You left the checkout'}
+            tone={p.failureReason ? 'error' : 'info'}
+            // A declined card whose checkout then closed ends `abandoned` (shared/pledge-states.ts); the decline is still the reason.
+            title={p.failureReason ? 'The card was not accepted' : 'You left the checkout'}
           >
             {p.failureReason ?? 'Nothing was charged.'}
           </Alert>
