@@ -152,6 +152,8 @@ export type PledgeView = {
   currency: string;
   state: PledgeState;
   failureReason: string | null;
+  /** Set when a payment attempt was declined (the reason is then the decline's). */
+  declined: boolean;
   publicName: string | null;
   message: string | null;
   paidMinor: number;

@@ -64,7 +64,9 @@ describe('a one-time pledge through the hosted checkout', () => {
     const cancelled = await w.backer.post(`/api/pledges/${pledge.id}/cancel`).set('x-csrf-token', w.backer.csrf).expect(200);
     // A closed checkout outranks a decline (shared/pledge-states.ts): the attempt is over.
     expect(cancelled.body.pledge.state).toBe('abandoned');
-    expect(cancelled.body.pledge.failureReason).toBe('You left the checkout without paying.');
+    // …and the decline stays the reason nothing was paid, whichever of the two came first.
+    expect(cancelled.body.pledge.failureReason).toBe('Your card was declined.');
+    expect(cancelled.body.pledge.declined).toBe(true);
     expect((await pledgeRow(w, pledge.id)).slotState).toBe('released');
     await settle(w);
     const session = await w.stripe.checkout.sessions.retrieve((await pledgeRow(w, pledge.id)).checkoutSessionId!);

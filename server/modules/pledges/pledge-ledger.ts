@@ -184,7 +184,16 @@ export async function refreshPledgeState(tx: Tx, pledge: PledgeRow): Promise<{ p
 
 /** A declined attempt: the pledge stays unpaid with the reason; the checkout may still be retried. */
 export async function markFailed(tx: Tx, pledge: PledgeRow, failure: { code: string | null; reason: string }) {
-  if (nextPledgeState(pledge.state, { kind: 'declined' }) !== 'failed') return pledge;
+  if (nextPledgeState(pledge.state, { kind: 'declined' }) !== 'failed') {
+    // Closed before the decline arrived: the state stays, but the decline is still why nothing was paid.
+    if (pledge.state !== 'abandoned') return pledge;
+    const [kept] = await tx
+      .update(pledges)
+      .set({ failureCode: failure.code ?? 'declined', failureReason: failure.reason, updatedAt: new Date() })
+      .where(eq(pledges.id, pledge.id))
+      .returning();
+    return kept!;
+  }
   const [row] = await tx
     .update(pledges)
     .set({ state: 'failed', failureCode: failure.code, failureReason: failure.reason, updatedAt: new Date() })
@@ -203,8 +212,9 @@ export async function markAbandoned(tx: Tx, pledge: PledgeRow, reason: string) {
     .update(pledges)
     .set({
       state: 'abandoned',
-      failureCode: null,
-      failureReason: reason,
+      // A decline seen before the close stays the reason (the same end whichever event came first).
+      failureCode: pledge.failureCode,
+      failureReason: pledge.failureCode ? pledge.failureReason : reason,
       slotState: await releaseSlot(tx, pledge),
       checkoutUrl: null,
       updatedAt: new Date(),

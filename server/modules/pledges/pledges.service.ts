@@ -61,6 +61,7 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
         currency: r.currency,
         state: r.state,
         failureReason: r.failureReason,
+        declined: r.failureCode !== null,
         publicName: r.publicName,
         message: r.message,
         paidMinor: Number(sum?.paid ?? 0),

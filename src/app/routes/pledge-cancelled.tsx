@@ -28,9 +28,9 @@ function Cancelled({ id }: { id: string }) {
       notice={
         !paid && (
           <Alert
-            tone={p.failureReason ? 'error' : 'info'}
+            tone={p.declined ? 'error' : 'info'}
             // A declined card whose checkout then closed ends `abandoned` (shared/pledge-states.ts); the decline is still the reason.
-            title={p.failureReason ? 'The card was not accepted' : 'You left the checkout'}
+            title={p.declined ? 'The card was not accepted' : 'You left the checkout'}
           >
             {p.failureReason ?? 'Nothing was charged.'}
           </Alert>
