@@ -125,7 +125,7 @@ export const campaignSeeder: Seeder = {
           kind: 'one-time' as const,
           minAmountMinor: 3500,
           title: 'Mission patch',
-          description: 'The embroidered Tern-1 patch, and your name on the campaign's sail roll.',
+          description: 'The embroidered Tern-1 patch, and your name on the campaign’s sail roll.',
           estimatedDelivery: '2027-03-01',
         },
         {
