@@ -120,7 +120,7 @@ try {
     for (let i = 0; i < workerCount; i++) workers.push(run(bin('tsx'), ['server/worker.ts'], { ...env, NODE_ENV: nodeEnv }));
   }
   say(`starting the web app and ${workerCount} worker${workerCount === 1 ? '' : 's'} …`);
-  await Promise.all([waitForHealth(`${config.PUBLIC_URL}/api/health`), ...workers.map(waitForReady)]);
+  await Promise.all([waitForHealth(`${config.PUBLIC_URL}/api/health`), ...workers.map((w) => waitForReady(w))]);
 
   const appUrl = dev ? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}` : config.PUBLIC_URL;
   const lines = [
