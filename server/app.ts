@@ -119,7 +119,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(sessionWhenNeeded('lk.sid', [...sessionStack, pp.session()]));
 
   // Raw body routes (signed webhooks) go here, before the JSON parser.
-  const funding = createFunding({ db, pool, config, stripe: deps.stripe, logger });
+  const funding = createFunding({ db, pool, config, stripe: deps.stripe, logger, jobs: deps.jobs });
   mount(app, '/api/payments', funding.webhookRouter);
   app.use('/api', express.json({ limit: config.JSON_BODY_LIMIT }));
 

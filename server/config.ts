@@ -71,6 +71,8 @@ const configSchema = z.object({
   JOB_RETENTION_DAYS: z.coerce.number().int().min(1).default(7),
   JOB_MAINTENANCE_INTERVAL_SECONDS: z.coerce.number().int().min(1).default(60),
   // The mail queue (outbox): claim lease, attempts before a message is marked failed, poll for due retries.
+  /** A reconciliation job not finished in this time is taken as dead (its worker died) and handed out again. */
+  RECON_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(2).default(1800),
   MAIL_LEASE_SECONDS: z.coerce.number().int().min(5).default(120),
   MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).default(10),
   MAIL_POLL_MS: z.coerce.number().int().min(50).default(2000),

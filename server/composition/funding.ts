@@ -7,6 +7,7 @@ import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import type { Config } from '../config';
 import type { Mailer } from '../lib/mailer';
+import type { JobSender } from '../jobs/queue';
 import { createCampaignsService } from '../modules/campaigns/campaigns.service';
 import { createCampaignsRouter } from '../modules/campaigns/campaigns.routes';
 import { createProcessor } from '../modules/payments/processor';
@@ -19,14 +20,22 @@ import { createMySupportRouter } from '../modules/my-support/my-support.routes';
 import { createLedgerRouter } from '../modules/ledger/ledger.routes';
 import { createBooks } from '../modules/books/books.routes';
 
-export function createFunding(deps: { db: Db; pool: pg.Pool; config: Config; mailer?: Mailer; stripe: Stripe; logger: Logger }) {
+export function createFunding(deps: {
+  db: Db;
+  pool: pg.Pool;
+  config: Config;
+  mailer?: Mailer;
+  stripe: Stripe;
+  logger: Logger;
+  jobs?: JobSender;
+}) {
   const { db, pool, config, stripe, logger } = deps;
   const campaigns = createCampaignsService({ db, pool, cacheMs: config.CAMPAIGN_CACHE_MS });
   const processor = createProcessor({ db, stripe });
   const payments = createPaymentsService({ db, config, processor, campaigns, logger });
   const pledges = createPledgesService({ db, config, processor, campaigns, logger });
   const mySupport = createMySupportService({ db, config, processor, pledges });
-  const books = createBooks({ db, config, processor, logger });
+  const books = createBooks({ db, pool, config, processor, logger, jobs: deps.jobs });
   return {
     services: { campaigns, payments, pledges, mySupport, books: books.services },
     booksRouter: books.router,

@@ -27,13 +27,22 @@ import { housekeepingQueue } from './housekeeping';
 import { accountMailQueue } from './account-mail';
 import { dispatchPublishQueue } from './dispatch-publish';
 import { dispatchFanOutQueue } from './dispatch-fan-out';
+import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcile';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
+import { queueOptions } from './queue';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
 
 // Every queue the product has. Order does not matter.
-export const queues: QueueDefinition[] = [housekeepingQueue, accountMailQueue, dispatchPublishQueue, dispatchFanOutQueue];
+export const queues: QueueDefinition[] = [
+  housekeepingQueue,
+  accountMailQueue,
+  dispatchPublishQueue,
+  dispatchFanOutQueue,
+  booksReconcileQueue,
+  booksReconcileGaveUpQueue,
+];
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';
@@ -113,10 +122,15 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
 
   async function start() {
     await boss.start();
-    for (const q of list) {
+    // A dead-letter queue must exist before the queue that names it: those without one go first.
+    const ordered = [...list].sort(
+      (a, b) => Number(Boolean(queueOptions(a, config)?.deadLetter)) - Number(Boolean(queueOptions(b, config)?.deadLetter)),
+    );
+    for (const q of ordered) {
+      const options = queueOptions(q, config);
       const existing = await boss.getQueue(q.name);
-      if (!existing) await boss.createQueue(q.name, { name: q.name, ...q.options });
-      else if (q.options) await boss.updateQueue(q.name, { name: q.name, ...q.options });
+      if (!existing) await boss.createQueue(q.name, { name: q.name, ...options });
+      else if (options) await boss.updateQueue(q.name, { name: q.name, ...options });
     }
   }
 

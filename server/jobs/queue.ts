@@ -32,13 +32,18 @@ export interface JobSender {
 export type QueueDefinition<S extends z.ZodType = z.ZodType> = {
   name: string;
   schema: S;
-  options?: Omit<PgBoss.Queue, 'name'>;
+  /** Fixed, or read from the config (e.g. an expiry a deployment tunes). */
+  options?: Omit<PgBoss.Queue, 'name'> | ((config: Config) => Omit<PgBoss.Queue, 'name'>);
   /** How often an idle worker polls (seconds, ≥ 0.5) and how many jobs it may run at once in this process. */
   work?: { pollingIntervalSeconds?: number; concurrency?: number };
   /** A cron schedule (UTC; pg-boss keeps one per queue, so every worker may declare it — it fires once). */
   schedule?: { cron: string; data: z.input<S> };
   handler: (payload: z.output<S>, meta: { id: string; ctx: JobContext; retryCount: number }) => Promise<unknown>;
 };
+
+export function queueOptions(q: Pick<QueueDefinition, 'options'>, config: Config): Omit<PgBoss.Queue, 'name'> | undefined {
+  return typeof q.options === 'function' ? q.options(config) : q.options;
+}
 
 export function defineQueue<S extends z.ZodType>(q: QueueDefinition<S>): QueueDefinition<S> {
   return q;

@@ -13,11 +13,17 @@ export async function createBooksWorld(): Promise<BooksWorld> {
 
 const day = (offsetDays: number) => new Date(Date.now() + offsetDays * 86_400_000).toISOString().slice(0, 10);
 
-/** Runs a reconciliation over a range wide enough for the fake clock (which tests may advance). */
+/**
+ * Starts a reconciliation over a range wide enough for the fake clock (which tests may advance), runs its job
+ * here (the queue's own handler, fetched from pg-boss as a worker would) and answers the finished run.
+ */
 export async function reconcile(w: BooksWorld, range = { from: day(-2), to: day(20) }) {
   await settle(w);
-  const res = await w.finance.post('/api/books/reconciliations').set('x-csrf-token', w.finance.csrf).send(range);
-  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  const started = await w.finance.post('/api/books/reconciliations').set('x-csrf-token', w.finance.csrf).send(range);
+  expect(started.status, JSON.stringify(started.body)).toBe(202);
+  expect(started.body.run.status).toBe('queued');
+  expect(await w.t.jobs.runPending('books-reconcile')).toBe(1);
+  const res = await w.finance.get(`/api/books/reconciliations/${started.body.run.id}`);
   expect(res.body.run.status, res.body.run.error ?? '').toBe('done');
   return res.body as {
     run: {

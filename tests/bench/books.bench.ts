@@ -36,13 +36,18 @@ export const benchmarks: Benchmark[] = [
         const btIds = seeded.map((s) => s.balanceTransactionId);
         const created = seeded.map((s) => new Date(bts.get(s.balanceTransactionId)!.created * 1000).toISOString());
         const fees = seeded.map((s) => -bts.get(s.balanceTransactionId)!.fee);
-        await db.execute(sql`
-          insert into ledger_entries (kind, amount_minor, currency, processor_object_id, processor_charge_id, processor_balance_transaction_id, occurred_at)
-          select 'charge', 2500, 'USD', c, c, b, t::timestamptz from unnest(${ids}::text[], ${btIds}::text[], ${created}::text[]) as x(c, b, t)`);
-        await db.execute(sql`
-          insert into ledger_entries (kind, amount_minor, currency, processor_object_id, processor_charge_id, processor_balance_transaction_id, occurred_at)
-          select 'fee', f, 'USD', b, c, b, t::timestamptz from unnest(${ids}::text[], ${btIds}::text[], ${created}::text[], ${fees}::int[]) as x(c, b, t, f)`);
-        await db.execute(sql`analyze ledger_entries`);
+        // Whole arrays as one parameter each (drizzle's sql`` would spread an array into one parameter per item).
+        await pool.query(
+          `insert into ledger_entries (kind, amount_minor, currency, processor_object_id, processor_charge_id, processor_balance_transaction_id, occurred_at)
+           select 'charge', 2500, 'USD', c, c, b, t::timestamptz from unnest($1::text[], $2::text[], $3::text[]) as x(c, b, t)`,
+          [ids, btIds, created],
+        );
+        await pool.query(
+          `insert into ledger_entries (kind, amount_minor, currency, processor_object_id, processor_charge_id, processor_balance_transaction_id, occurred_at)
+           select 'fee', f, 'USD', b, c, b, t::timestamptz from unnest($1::text[], $2::text[], $3::text[], $4::int[]) as x(c, b, t, f)`,
+          [ids, btIds, created, fees],
+        );
+        await pool.query('analyze ledger_entries');
         log(`seeded ${N} processor charges and ${2 * N} ledger rows`);
 
         const stripe = new Stripe('sk_bench', { host: '127.0.0.1', port: fake.port, protocol: 'http' });
@@ -54,7 +59,7 @@ export const benchmarks: Benchmark[] = [
         const [run] = await db.insert(reconRuns).values({ fromAt: from, toAt: to }).returning();
         const summary = await recon.execute(run!.id);
         const oursMs = performance.now() - t0;
-        if (summary.matched !== N) throw new Error(`expected ${N} matched, got ${summary.matched}`);
+        if (summary?.matched !== N) throw new Error(`expected ${N} matched, got ${summary?.matched}`);
 
         // Baseline: the same SDK pagination into a bare table, the same batch size, then one join.
         await db.execute(sql`create unlogged table bare_bt (id text primary key, source text, amount bigint, fee bigint, currency text)`);
@@ -62,9 +67,13 @@ export const benchmarks: Benchmark[] = [
         let batch: string[][] = [];
         const flush = async () => {
           if (!batch.length) return;
-          await db.execute(
-            sql`insert into bare_bt select * from unnest(${batch.map((b) => b[0])}::text[], ${batch.map((b) => b[1])}::text[], ${batch.map((b) => b[2])}::bigint[], ${batch.map((b) => b[3])}::bigint[], ${batch.map((b) => b[4])}::text[])`,
-          );
+          await pool.query('insert into bare_bt select * from unnest($1::text[], $2::text[], $3::bigint[], $4::bigint[], $5::text[])', [
+            batch.map((b) => b[0]),
+            batch.map((b) => b[1]),
+            batch.map((b) => b[2]),
+            batch.map((b) => b[3]),
+            batch.map((b) => b[4]),
+          ]);
           batch = [];
         };
         const range = { gte: Math.floor(from.getTime() / 1000), lt: Math.floor(to.getTime() / 1000) };

@@ -2,7 +2,9 @@ import { Router, type Response } from 'express';
 import { z } from 'zod';
 import type { Logger } from 'pino';
 import { desc, eq, ilike, or, sql } from 'drizzle-orm';
+import type pg from 'pg';
 import type { Db } from '../../db/client';
+import type { JobSender } from '../../jobs/queue';
 import type { Config } from '../../config';
 import { processorUnavailable, type Processor } from '../payments/processor';
 import { validated } from '../../middleware/validate';
@@ -34,7 +36,7 @@ function sendFile(res: Response, body: Buffer | string, type: string, filename: 
   res.send(body);
 }
 
-export function createBooks(deps: { db: Db; config: Config; processor: Processor; logger: Logger }) {
+export function createBooks(deps: { db: Db; pool: pg.Pool; config: Config; processor: Processor; logger: Logger; jobs?: JobSender }) {
   const { db } = deps;
   const refunds = createRefundsService(deps);
   const reconciliation = createReconciliationService(deps);
@@ -135,10 +137,9 @@ export function createBooks(deps: { db: Db; config: Config; processor: Processor
   router.post(
     '/reconciliations',
     validated({ body: startReconciliationSchema }, async (req, res, { body }) => {
-      const run = await reconciliation.create(body, req.user!.id);
-      // Runs in this request until the jobs queue lands; progress is stored on the run row as it goes.
-      await reconciliation.execute(run.id).catch((err: unknown) => deps.logger.error({ err, runId: run.id }, 'reconciliation failed'));
-      res.status(201).json(await reconciliation.get(run.id));
+      // The run and its job are written together; a worker does the work and stores its progress on the run.
+      const run = await reconciliation.start(body, req.user!.id);
+      res.status(202).json(await reconciliation.get(run.id));
     }),
   );
   router.get(

@@ -108,6 +108,13 @@ export const reconRuns = pgTable('recon_runs', {
   /** 0..100 */
   progress: integer('progress').notNull().default(0),
   progressLabel: text('progress_label').notNull().default(''),
+  /** Steps of the run: one per day of the range fetched from the processor, then matching, then payouts. */
+  stepsDone: integer('steps_done').notNull().default(0),
+  stepsTotal: integer('steps_total').notNull().default(0),
+  /** Balance transactions fetched so far (staged for matching). */
+  fetchedCount: integer('fetched_count').notNull().default(0),
+  /** How many times the job has started on this run (1 = first attempt; more after a retry). */
+  attempts: integer('attempts').notNull().default(0),
   summary: jsonb('summary'),
   error: text('error'),
   startedBy: uuid('started_by').references(() => accounts.id, { onDelete: 'set null' }),

@@ -1,11 +1,17 @@
-// A reconciliation run: the processor's balance transactions (through the SDK, auto-paginated, one date range)
-// are staged in a table and matched to the ledger in one query by processor ids; payouts are summed from the
-// transactions the processor says each contains. Findings are stored per run; a run computes them from scratch
-// (a retried run replaces its own), and resolutions are kept by a stable key so later runs show them resolved.
+// A reconciliation run: starting one writes the run row and its job (server/jobs/books-reconcile.ts) in one
+// transaction; a worker then pulls the processor's balance transactions through the SDK, one day of the range at
+// a time (auto-paginated), stages them in a table and matches them to the ledger in one query by processor ids;
+// payouts are summed from the transactions the processor says each contains. Progress is stored as steps
+// (done of total: one per day fetched, then matching, then payouts). A retried job keeps the days already
+// staged and computes the findings from scratch, so they are never doubled; resolutions are kept by a stable
+// key so later runs show them resolved.
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type Stripe from 'stripe';
+import type pg from 'pg';
 import type { Db } from '../../db/client';
 import type { Processor } from '../payments/processor';
+import type { JobSender } from '../../jobs/queue';
+import { withTransaction } from '../../lib/pg-transaction';
 import { reconFindings, reconProcessorItems, reconResolutions, reconRuns } from './books.tables';
 import { pledges } from '../pledges/pledges.tables';
 import { recordAudit } from '../audit/audit.repository';
@@ -38,15 +44,68 @@ export function ledgerKindOf(bt: Pick<Stripe.BalanceTransaction, 'type' | 'repor
   }
 }
 
-export type Progress = (pct: number, label: string) => Promise<void>;
-const STAGE_BATCH = 2000;
+export const RECONCILE_QUEUE = 'books-reconcile';
+/** Where pg-boss puts a reconciliation job whose retries are used up (its worker died on the last attempt). */
+export const RECONCILE_GAVE_UP_QUEUE = 'books-reconcile-gave-up';
 
-export function createReconciliationService(deps: { db: Db; processor: Processor }) {
+const STAGE_BATCH = 2000;
+const DAY_MS = 86_400_000;
+
+/** The range cut into UTC days (the last one may be shorter): one fetch step each. */
+export function daySlices(from: Date, to: Date): { from: Date; to: Date }[] {
+  const out: { from: Date; to: Date }[] = [];
+  for (let t = from.getTime(); t < to.getTime(); t += DAY_MS)
+    out.push({ from: new Date(t), to: new Date(Math.min(t + DAY_MS, to.getTime())) });
+  return out;
+}
+/** Steps of a run: one per day fetched, one for matching, one for the payouts. */
+export const stepsOf = (from: Date, to: Date) => daySlices(from, to).length + 2;
+
+const runInProgress = () =>
+  conflict(
+    'books.run_in_progress',
+    'A reconciliation run over some of these days is already waiting or running; wait for it to finish, then start again.',
+  );
+const jobsUnavailable = () =>
+  new AppError(503, 'books.jobs_unavailable', 'Reconciliation runs need the background workers, which this server was started without.');
+
+function isExclusionViolation(err: unknown) {
+  let e: unknown = err;
+  for (let depth = 0; e && typeof e === 'object' && depth < 5; depth++) {
+    if ((e as { code?: unknown }).code === '23P01') return true;
+    e = (e as { cause?: unknown }).cause;
+  }
+  return false;
+}
+
+export type RunSummary = {
+  fetched: number;
+  matched: number;
+  findings: Record<string, number>;
+  totals: Awaited<ReturnType<ReturnType<typeof createReconciliationService>['totals']>>;
+  payouts: { id: string; amountMinor: number; containedMinor: number; currency: string; count: number }[];
+};
+
+export type ExecuteOptions = {
+  /** This is the job's last attempt: an error marks the run failed (otherwise it waits for the retry). */
+  finalAttempt?: boolean;
+};
+
+export function createReconciliationService(deps: { db: Db; processor: Processor; pool?: pg.Pool; jobs?: JobSender }) {
   const { db, processor } = deps;
   const stripe = processor.stripe;
 
-  async function setProgress(runId: string, progress: number, label: string) {
-    await db.update(reconRuns).set({ progress, progressLabel: label }).where(eq(reconRuns.id, runId));
+  async function setProgress(runId: string, stepsDone: number, stepsTotal: number, label: string, fetchedCount?: number) {
+    await db
+      .update(reconRuns)
+      .set({
+        stepsDone,
+        stepsTotal,
+        progress: Math.round((stepsDone / Math.max(1, stepsTotal)) * 100),
+        progressLabel: label,
+        ...(fetchedCount === undefined ? {} : { fetchedCount }),
+      })
+      .where(eq(reconRuns.id, runId));
   }
 
   /** Pulls the processor's balance transactions of the range into the staging table; answers how many. */
@@ -198,29 +257,55 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
     }));
   }
 
-  async function execute(runId: string, progress?: Progress) {
+  async function execute(runId: string, opts: ExecuteOptions = {}): Promise<RunSummary | null> {
     const [run] = await db.select().from(reconRuns).where(eq(reconRuns.id, runId));
     if (!run) throw notFound('books.run_not_found', 'There is no such reconciliation run.');
-    const report = async (pct: number, label: string) => {
-      await setProgress(runId, pct, label);
-      await progress?.(pct, label);
-    };
+    // A job handed out again after its run finished (the worker died before telling the queue) has nothing to do.
+    if (run.status === 'done' || run.status === 'failed') return run.summary as RunSummary | null;
+    const days = daySlices(run.fromAt, run.toAt);
+    const total = days.length + 2;
     try {
-      await db.update(reconRuns).set({ status: 'running', error: null }).where(eq(reconRuns.id, runId));
+      // Days fully staged by an earlier attempt are kept; the day it was in is fetched again from its start.
+      const resumeAt = Math.min(run.stepsDone, days.length);
+      if (resumeAt === 0) await db.delete(reconProcessorItems).where(eq(reconProcessorItems.runId, runId));
+      else
+        await db
+          .delete(reconProcessorItems)
+          .where(and(eq(reconProcessorItems.runId, runId), sql`${reconProcessorItems.createdAt} >= ${days[resumeAt]?.from ?? run.toAt}`));
+      // Findings are always computed from scratch: a retry replaces what an earlier attempt wrote.
       await db.delete(reconFindings).where(eq(reconFindings.runId, runId));
-      await db.delete(reconProcessorItems).where(eq(reconProcessorItems.runId, runId));
-      await report(5, 'Fetching balance transactions from the processor');
-      const fetched = await stage(runId, run.fromAt, run.toAt, (n) =>
-        report(Math.min(60, 5 + Math.round(Math.log10(n + 1) * 10)), `Fetched ${n} balance transactions`),
-      );
-      await report(65, 'Matching with the ledger');
+      const [{ n: staged } = { n: 0 }] = (
+        await db.execute<{ n: number }>(sql`select count(*)::int as n from recon_processor_items where run_id = ${runId}`)
+      ).rows;
+      await db
+        .update(reconRuns)
+        .set({ status: 'running', error: null, attempts: sql`${reconRuns.attempts} + 1`, stepsTotal: total })
+        .where(eq(reconRuns.id, runId));
+      let fetched = staged;
+      await setProgress(runId, resumeAt, total, `Fetching day ${resumeAt + 1} of ${days.length} from the processor`, fetched);
+      for (let i = resumeAt; i < days.length; i++) {
+        const day = days[i]!;
+        const before = fetched;
+        const n = await stage(runId, day.from, day.to, (count) =>
+          setProgress(
+            runId,
+            i,
+            total,
+            `Fetching day ${i + 1} of ${days.length}: ${before + count} balance transactions so far`,
+            before + count,
+          ),
+        );
+        fetched = before + n;
+        await setProgress(runId, i + 1, total, `Fetched ${i + 1} of ${days.length} days: ${fetched} balance transactions`, fetched);
+      }
+      await setProgress(runId, days.length, total, `Matching ${fetched} balance transactions with the ledger`);
       const matched = await match(runId, run.fromAt, run.toAt);
-      await report(80, 'Summing payouts');
+      await setProgress(runId, days.length + 1, total, 'Summing payouts');
       const payoutList = await payouts(runId, run.fromAt, run.toAt);
       const counts = await db.execute<{ kind: string; n: number }>(
         sql`select kind, count(*)::int as n from recon_findings where run_id = ${runId} group by kind`,
       );
-      const summary = {
+      const summary: RunSummary = {
         fetched,
         matched,
         findings: Object.fromEntries(counts.rows.map((r) => [r.kind, r.n])),
@@ -230,16 +315,42 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
       await db.delete(reconProcessorItems).where(eq(reconProcessorItems.runId, runId));
       await db
         .update(reconRuns)
-        .set({ status: 'done', progress: 100, progressLabel: 'Done', summary, finishedAt: new Date() })
+        .set({
+          status: 'done',
+          stepsDone: total,
+          stepsTotal: total,
+          progress: 100,
+          progressLabel: 'Done',
+          summary,
+          finishedAt: new Date(),
+        })
         .where(eq(reconRuns.id, runId));
       return summary;
     } catch (err) {
+      const message = (err as Error).message;
       await db
         .update(reconRuns)
-        .set({ status: 'failed', error: (err as Error).message, finishedAt: new Date() })
-        .where(eq(reconRuns.id, runId));
+        .set(
+          opts.finalAttempt
+            ? { status: 'failed', error: message, finishedAt: new Date() }
+            : { error: message, progressLabel: `Interrupted, will try again: ${message}` },
+        )
+        .where(eq(reconRuns.id, runId))
+        .catch(() => undefined);
       throw err;
     }
+  }
+
+  /** The job's retries are used up (its last worker died or failed): the run is marked failed if still open. */
+  async function giveUp(runId: string) {
+    await db
+      .update(reconRuns)
+      .set({
+        status: 'failed',
+        error: sql`coalesce(${reconRuns.error}, 'The run stopped before it finished and its retries are used up.')`,
+        finishedAt: new Date(),
+      })
+      .where(and(eq(reconRuns.id, runId), sql`${reconRuns.status} in ('queued', 'running')`));
   }
 
   async function findingsOf(runId: string) {
@@ -356,14 +467,38 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
 
   return {
     execute,
+    giveUp,
+    totals,
     findingsOf,
     stage,
 
-    async create(input: StartReconciliationInput, actorId: string | null) {
+    /** Writes the run and its job in one transaction: both or neither. One open run per day at a time. */
+    async start(input: StartReconciliationInput, actorId: string | null) {
+      const { pool, jobs } = deps;
+      if (!pool || !jobs) throw jobsUnavailable();
       const fromAt = new Date(`${input.from}T00:00:00Z`);
-      const toAt = new Date(new Date(`${input.to}T00:00:00Z`).getTime() + 86_400_000);
-      const [run] = await db.insert(reconRuns).values({ fromAt, toAt, startedBy: actorId }).returning();
-      return run!;
+      const toAt = new Date(new Date(`${input.to}T00:00:00Z`).getTime() + DAY_MS);
+      try {
+        return await withTransaction(pool, async (tx, executor) => {
+          const [run] = await tx
+            .insert(reconRuns)
+            .values({ fromAt, toAt, startedBy: actorId, stepsTotal: stepsOf(fromAt, toAt), progressLabel: 'Waiting for a worker' })
+            .returning();
+          await jobs.send(RECONCILE_QUEUE, { runId: run!.id }, { db: executor, singletonKey: run!.id });
+          await recordAudit(tx, {
+            actorId,
+            action: 'books.reconciliation_started',
+            subjectType: 'recon_run',
+            subjectId: run!.id,
+            before: null,
+            after: { from: input.from, to: input.to },
+          });
+          return run!;
+        });
+      } catch (err) {
+        if (isExclusionViolation(err)) throw runInProgress();
+        throw err;
+      }
     },
 
     async list(limit = 50) {
@@ -437,6 +572,10 @@ function view(r: typeof reconRuns.$inferSelect) {
     to: r.toAt.toISOString(),
     progress: r.progress,
     progressLabel: r.progressLabel,
+    stepsDone: r.stepsDone,
+    stepsTotal: r.stepsTotal,
+    fetchedCount: r.fetchedCount,
+    attempts: r.attempts,
     summary: r.summary as Record<string, unknown> | null,
     error: r.error,
     createdAt: r.createdAt.toISOString(),

@@ -2,6 +2,9 @@ import { pgTable, uuid, text, timestamp, integer, jsonb, index, pgEnum } from 'd
 import { sql } from 'drizzle-orm';
 import { accounts } from '../accounts/accounts.tables';
 
+/** An attachment the sender renders at send time (the outbox row holds a reference, not the bytes). */
+export type MailAttachmentRef = { kind: 'receipt'; receiptId: string };
+
 export const mailStateEnum = pgEnum('mail_state', ['queued', 'sending', 'sent', 'failed']);
 export const mailCategoryEnum = pgEnum('mail_category', ['transactional', 'dispatch']);
 
@@ -25,6 +28,11 @@ export const mailQueue = pgTable(
       .$type<Record<string, string>>()
       .notNull()
       .default(sql`'{}'::jsonb`),
+    /** Files sent with the message, by reference (rendered when sent): e.g. { kind: 'receipt', receiptId }. */
+    attachments: jsonb('attachments')
+      .$type<MailAttachmentRef[]>()
+      .notNull()
+      .default(sql`'[]'::jsonb`),
     /** Rows with one batch key go to the service in one batch call, under that key. */
     batchKey: text('batch_key'),
     accountId: uuid('account_id').references(() => accounts.id, { onDelete: 'set null' }),
