@@ -5,8 +5,8 @@ import type { Agent } from '../setup/test-app';
 
 export type BooksWorld = World & { finance: Agent };
 
-export async function createBooksWorld(): Promise<BooksWorld> {
-  const w = await createWorld();
+export async function createBooksWorld(env: Record<string, string> = {}): Promise<BooksWorld> {
+  const w = await createWorld(env);
   const finance = await signedInAgent(w, 'finance@saltmarsh.example');
   return Object.assign(w, { finance });
 }

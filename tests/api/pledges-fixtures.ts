@@ -36,7 +36,7 @@ export type World = {
   close: () => Promise<void>;
 };
 
-export async function createWorld(): Promise<World> {
+export async function createWorld(env: Record<string, string> = {}): Promise<World> {
   const appPort = await freePort();
   const baseUrl = `http://127.0.0.1:${appPort}`;
   const fake = await createPaymentsFake({
@@ -54,6 +54,7 @@ export async function createWorld(): Promise<World> {
     PUBLIC_URL: baseUrl,
     SIGN_IN_LIMIT_PER_IP: '1000',
     CAMPAIGN_CACHE_MS: '0',
+    ...env,
   });
   const server = await new Promise<Server>((resolve) => {
     const s = t.app.listen(appPort, '127.0.0.1', () => resolve(s));

@@ -14,6 +14,7 @@ import { money } from '@/lib/money';
 import { useDashboard } from '@/features/finance/api/get-dashboard';
 import { useStartReconciliation } from '@/features/finance/api/start-reconciliation';
 import { useReconciliation } from '@/features/finance/api/get-reconciliation';
+import { useReconciliations, type ReconRun } from '@/features/finance/api/get-reconciliations';
 import { useResolveFinding } from '@/features/finance/api/resolve-finding';
 import { usePledges } from '@/features/finance/api/get-pledges';
 import { usePledge } from '@/features/finance/api/get-pledge';
@@ -70,18 +71,55 @@ function Dashboard() {
   );
 }
 
+const runStatusWords: Record<ReconRun['status'], string> = {
+  queued: 'Waiting for a worker',
+  running: 'Running',
+  done: 'Finished',
+  failed: 'Stopped with an error',
+};
+
+/** The run's stored progress (polled while it is open): steps done of total, in words for screen readers too. */
+function RunProgress({ run }: { run: ReconRun }) {
+  const open = run.status === 'queued' || run.status === 'running';
+  const words = `${run.stepsDone} of ${run.stepsTotal} steps · ${run.fetchedCount} balance transactions fetched`;
+  return (
+    <div className="mt-4" aria-live="polite">
+      <div className="flex flex-wrap items-baseline justify-between gap-2 text-sm">
+        <span className="font-bold text-foil-50">{runStatusWords[run.status]}</span>
+        <span className="text-foil-300">{words}</span>
+      </div>
+      {open && (
+        <ProgressBar
+          className="mt-2"
+          value={run.stepsDone}
+          max={Math.max(1, run.stepsTotal)}
+          label="Reconciliation run progress"
+          valueText={`${run.progressLabel}. ${words}`}
+        />
+      )}
+      {open && <p className="mt-1 text-sm text-foil-300">{run.progressLabel}</p>}
+      {run.attempts > 1 && open && (
+        <p className="mt-1 text-sm text-amber-300">Started again after an interruption (attempt {run.attempts}).</p>
+      )}
+      {run.status === 'failed' && <Alert className="mt-2">The run stopped: {run.error ?? 'no reason was recorded'}. Start it again.</Alert>}
+    </div>
+  );
+}
+
 function Reconciliation() {
   const [from, setFrom] = useState(monthStart());
   const [to, setTo] = useState(today());
   const [runId, setRunId] = useState<string | null>(null);
   const start = useStartReconciliation();
-  const run = useReconciliation(runId);
+  const runs = useReconciliations();
+  const run = useReconciliation(runId ?? runs.data?.[0]?.id ?? null);
   const resolve = useResolveFinding();
   const submit = (e: FormEvent) => {
     e.preventDefault();
     start.mutate({ from, to }, { onSuccess: (r) => setRunId(r.run.id) });
   };
-  const data = run.data ?? start.data;
+  const data = run.data;
+  const finished = data?.run.status === 'done';
   return (
     <Card>
       <h2 className="text-lg font-bold text-foil-50">Reconciliation run</h2>
@@ -92,13 +130,14 @@ function Reconciliation() {
           Compare with the processor
         </Button>
       </form>
-      {start.isPending && <ProgressBar className="mt-3" value={50} label="Reconciliation running" valueText="Fetching and matching" />}
       {start.isError && <Alert className="mt-3">{errorMessage(start.error)}</Alert>}
       {resolve.isError && <Alert className="mt-3">{errorMessage(resolve.error)}</Alert>}
-      {data && (
+      {run.isPending && (runId || runs.data?.length) ? <Spinner label="Loading the reconciliation run" /> : null}
+      {data && <RunProgress run={data.run} />}
+      {data && finished && (
         <div className="mt-4">
           <p className="text-foil-200">
-            Run {data.run.status}: {data.run.summary?.fetched ?? 0} processor transactions, {data.run.summary?.matched ?? 0} matched,{' '}
+            {data.run.summary?.fetched ?? 0} processor transactions, {data.run.summary?.matched ?? 0} matched,{' '}
             {data.findings.filter((f) => f.kind !== 'payout_sums').length} finding(s).
           </p>
           <Table caption="Findings">

@@ -9,6 +9,11 @@ export type ReconRun = {
   to: string;
   progress: number;
   progressLabel: string;
+  /** Steps: one per day fetched from the processor, then matching, then payouts. */
+  stepsDone: number;
+  stepsTotal: number;
+  fetchedCount: number;
+  attempts: number;
   summary: { fetched: number; matched: number; findings: Record<string, number> } | null;
   error: string | null;
   createdAt: string;

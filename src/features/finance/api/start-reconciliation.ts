@@ -8,5 +8,12 @@ export const startReconciliation = (input: StartReconciliationInput) =>
   api.post<{ run: ReconRun; findings: Finding[] }>('/api/books/reconciliations', input);
 export function useStartReconciliation() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: startReconciliation, onSuccess: () => qc.invalidateQueries({ queryKey: booksKeys.runs() }) });
+  return useMutation({
+    mutationFn: startReconciliation,
+    // The run is queued (202); its page polls the stored progress.
+    onSuccess: (r) => {
+      qc.setQueryData(booksKeys.run(r.run.id), r);
+      return qc.invalidateQueries({ queryKey: booksKeys.runs() });
+    },
+  });
 }
