@@ -100,6 +100,16 @@ export function renderOutboxMessage(m: StoredMessage): string {
     ? `<iframe src="/outbox/${esc(m.id)}/html" sandbox="" referrerpolicy="no-referrer" title="HTML part of “${esc(m.subject)}”"></iframe>`
     : '<p class="empty">This message has no HTML part.</p>';
   const text = m.text ? `<pre>${esc(m.text)}</pre>` : '<p class="empty">This message has no text part.</p>';
+  const files = m.attachments
+    .map((a, i) =>
+      a.content
+        ? `<li><a href="/outbox/${esc(m.id)}/attachments/${i}">${esc(a.filename ?? '(unnamed)')}</a> (${esc(a.content_type ?? 'no type')}, ${a.size} bytes)</li>`
+        : `<li>${esc(a.filename ?? '(unnamed)')} (from ${esc(a.path ?? '')})</li>`,
+    )
+    .join('');
+  const attachments = files
+    ? `<section class="card" aria-labelledby="h-files"><h2 id="h-files">Attachments</h2><ul>${files}</ul></section>`
+    : '';
   return page(
     m.subject,
     `<p><a href="/outbox">← All messages</a></p>
@@ -109,7 +119,8 @@ export function renderOutboxMessage(m: StoredMessage): string {
 ${dl}
 </dl></section>
 <section class="card" aria-labelledby="h-html"><h2 id="h-html">HTML part</h2>${html}</section>
-<section class="card" aria-labelledby="h-text"><h2 id="h-text">Text part</h2>${text}</section>`,
+<section class="card" aria-labelledby="h-text"><h2 id="h-text">Text part</h2>${text}</section>
+${attachments}`,
   );
 }
 

@@ -288,6 +288,20 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
         .send(renderNotFound(String(req.params.id)));
     outboxHeaders(res).type('html').send(renderOutboxMessage(m));
   });
+  app.get('/outbox/:id/attachments/:index', (req, res) => {
+    const m = store.find((s) => s.id === req.params.id);
+    const a = m?.attachments[Number(req.params.index)];
+    if (!a?.content) return void res.status(404).type('text').send('No such attachment.');
+    const name = (a.filename ?? 'attachment').replace(/[^A-Za-z0-9._-]/g, '_');
+    res
+      .set({
+        'Content-Type': a.content_type ?? 'application/octet-stream',
+        'Content-Disposition': `attachment; filename="${name}"`,
+        'X-Content-Type-Options': 'nosniff',
+        'Cache-Control': 'no-store',
+      })
+      .send(Buffer.from(a.content, 'base64'));
+  });
   app.get('/outbox/:id/html', (req, res) => {
     const m = store.find((s) => s.id === req.params.id);
     if (!m || !m.html) return void res.status(404).type('text').send('No HTML part.');

@@ -3,6 +3,9 @@
 
 export const MAX_TO_RECIPIENTS = 50;
 export const MAX_BATCH_EMAILS = 100;
+/** The service's documented limit for one e-mail after base64 decoding (40 MB). */
+export const MAX_ATTACHMENTS_BYTES = 40 * 1024 * 1024;
+const BASE64 = /^(?:[A-Za-z0-9+/]{4})*(?:[A-Za-z0-9+/]{2}==|[A-Za-z0-9+/]{3}=)?$/;
 
 export class ApiError extends Error {
   constructor(
@@ -30,7 +33,15 @@ export interface EmailInput {
   headers: Record<string, string>;
   tags: Array<{ name: string; value: string }>;
   scheduled_at: string | null;
-  attachments: Array<{ filename: string | null; content_type: string | null; size: number }>;
+  /** As the API takes them: base64 `content` (or a `path` URL the service would fetch), kept whole. */
+  attachments: Array<{
+    filename: string | null;
+    content_type: string | null;
+    content_id: string | null;
+    path: string | null;
+    content: string | null;
+    size: number;
+  }>;
 }
 
 // addr@domain.tld, or "Display Name <addr@domain.tld>".
@@ -148,17 +159,27 @@ export function validateEmail(input: unknown, { batch }: { batch: boolean }): Em
   if (body.attachments !== undefined && body.attachments !== null) {
     if (batch) throw invalid('The `attachments` field is not supported in batch sending.');
     if (!Array.isArray(body.attachments)) throw invalid('Invalid `attachments` field. Expected an array.');
-    attachments = body.attachments.map((a: unknown) => {
-      const att = a as { filename?: unknown; content?: unknown; content_type?: unknown; path?: unknown };
+    attachments = body.attachments.map((a: unknown, i: number) => {
+      const att = a as { filename?: unknown; content?: unknown; content_type?: unknown; content_id?: unknown; path?: unknown };
       if (typeof att?.content !== 'string' && typeof att?.path !== 'string') {
         throw invalid('Invalid `attachments` field. Each attachment needs `content` or `path`.');
       }
+      // The SDK sends binary content as base64 text; anything else (a JSON-ified Buffer, raw bytes) is refused.
+      if (typeof att.content === 'string' && !BASE64.test(att.content.replace(/\s+/g, ''))) {
+        throw invalid(`Invalid \`attachments[${i}].content\` field. Expected a base64 string.`);
+      }
+      const content = typeof att.content === 'string' ? att.content.replace(/\s+/g, '') : null;
       return {
         filename: typeof att.filename === 'string' ? att.filename : null,
         content_type: typeof att.content_type === 'string' ? att.content_type : null,
-        size: typeof att.content === 'string' ? Buffer.byteLength(att.content, 'base64') : 0,
+        content_id: typeof att.content_id === 'string' ? att.content_id : null,
+        path: typeof att.path === 'string' ? att.path : null,
+        content,
+        size: content ? Buffer.byteLength(content, 'base64') : 0,
       };
     });
+    const total = attachments.reduce((n, a) => n + a.size, 0);
+    if (total > MAX_ATTACHMENTS_BYTES) throw invalid('Attachments exceed the 40 MB limit for one email.');
   }
 
   return {

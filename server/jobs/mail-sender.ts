@@ -1,5 +1,11 @@
 import { Resend } from 'resend';
 import type pg from 'pg';
+import { drizzle } from 'drizzle-orm/node-postgres';
+import * as schema from '../db/schema';
+import type { Db } from '../db/client';
+import { createReceiptsService } from '../modules/books/receipts.service';
+import type { MailAttachmentRef } from '../modules/mail/mail.tables';
+import { classifyDatabaseError } from '../db/errors';
 import { renderEmail } from '../../emails/render';
 import { MAIL_QUEUE_CHANNEL } from '../modules/mail/mail-queue';
 import type { JobContext } from './queue';
@@ -23,7 +29,26 @@ type Row = {
   headers: Record<string, string>;
   batch_key: string | null;
   attempts: number;
+  attachments: MailAttachmentRef[];
 };
+
+/** A file as the SDK takes it (it sends the bytes base64-encoded, with `content_type`). */
+type Attachment = { filename: string; content: Buffer; contentType: string };
+
+/** Renders the files a row refers to, at send time (the row keeps references, not bytes). */
+export function createAttachmentRenderer(pool: pg.Pool) {
+  const receipts = createReceiptsService({ db: drizzle(pool, { schema }) as unknown as Db });
+  return async (refs: MailAttachmentRef[] | null | undefined): Promise<Attachment[]> => {
+    const out: Attachment[] = [];
+    for (const ref of refs ?? []) {
+      if (ref.kind === 'receipt') {
+        const { pdf, filename } = await receipts.receiptPdfForMail(ref.receiptId);
+        out.push({ filename, content: pdf, contentType: 'application/pdf' });
+      } else throw new Error(`unknown attachment kind ${JSON.stringify((ref as { kind: unknown }).kind)}`);
+    }
+    return out;
+  };
+}
 
 export type MailSenderOptions = {
   resend: Resend;
@@ -73,13 +98,14 @@ export function mailSenderOptionsFrom(ctx: Pick<JobContext, 'config' | 'deps'>):
 const CLAIMABLE = `((state = 'queued' and next_attempt_at <= now()) or (state = 'sending' and lease_until < now()))`;
 
 export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: JobContext['logger']) {
+  const renderAttachments = createAttachmentRenderer(pool);
   /** Claims due single messages (up to `limit`). */
   async function claimSingles(limit: number): Promise<Row[]> {
     const { rows } = await pool.query<Row>(
       `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
         where id in (select id from mail_queue where batch_key is null and ${CLAIMABLE}
                       order by next_attempt_at limit $2 for update skip locked)
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts`,
+        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
       [opts.leaseSeconds, limit],
     );
     return rows;
@@ -92,7 +118,7 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
         where batch_key = (select batch_key from mail_queue where batch_key is not null and ${CLAIMABLE}
                             order by next_attempt_at limit 1 for update skip locked)
           and ${CLAIMABLE}
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts`,
+        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
       [opts.leaseSeconds],
     );
     return rows.sort((a, b) => a.idempotency_key.localeCompare(b.idempotency_key));
@@ -122,7 +148,9 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
 
   async function payloadOf(row: Row) {
     const rendered = await renderEmail(row.template, row.data);
+    const attachments = await renderAttachments(row.attachments);
     return {
+      ...(attachments.length ? { attachments } : {}),
       from: opts.from,
       to: row.to_address,
       subject: rendered.subject,
@@ -138,7 +166,12 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     try {
       payload = await payloadOf(row);
     } catch (err) {
-      // A template that cannot render will not render on a retry either.
+      // An attachment read from a database that is down for now: try again later, like a service outage.
+      if (classifyDatabaseError(err) === 'unavailable') {
+        await settle([row], { status: null, name: 'render_unavailable', message: (err as Error).message });
+        return;
+      }
+      // A template (or attachment) that cannot render will not render on a retry either.
       await pool.query(
         `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = $1`,
         [row.id, JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],

@@ -67,6 +67,46 @@ describe('mail fake driven through the resend SDK', () => {
     expect(Number.isNaN(Date.parse(got.data?.created_at ?? ''))).toBe(false);
   });
 
+  it('keeps attachments as the SDK sends them (base64 content, filename, content_type) and serves them back', async () => {
+    const bytes = Buffer.from('%PDF-1.3\n% a tiny stand-in for a receipt\n%%EOF\n');
+    const { data, error } = await resend.emails.send({
+      from: FROM,
+      to: 'wren.backer@example.org',
+      subject: 'Your receipt',
+      text: 'Attached.',
+      attachments: [{ filename: 'receipt-000001.pdf', content: bytes, contentType: 'application/pdf' }],
+    });
+    expect(error).toBeNull();
+    const [m] = fake.messages();
+    expect(m!.attachments).toEqual([
+      {
+        filename: 'receipt-000001.pdf',
+        content_type: 'application/pdf',
+        content_id: null,
+        path: null,
+        content: bytes.toString('base64'),
+        size: bytes.length,
+      },
+    ]);
+    const served = await fetch(`${fake.url}/outbox/${data!.id}/attachments/0`);
+    expect(served.headers.get('content-type')).toBe('application/pdf');
+    expect(Buffer.from(await served.arrayBuffer())).toEqual(bytes);
+    // Content that is not base64 text (e.g. a Buffer serialised as JSON by hand) is refused, as the service does.
+    const raw = await fetch(`${fake.url}/emails`, {
+      method: 'POST',
+      headers: { authorization: `Bearer ${KEY}`, 'content-type': 'application/json' },
+      body: JSON.stringify({
+        from: FROM,
+        to: 'a@example.org',
+        subject: 's',
+        text: 'x',
+        attachments: [{ filename: 'a.pdf', content: '%PDF not base64!' }],
+      }),
+    });
+    expect(raw.status).toBe(400);
+    expect(((await raw.json()) as { name: string; message: string }).message).toContain('attachments[0].content');
+  });
+
   it('answers an unknown id with not_found and a malformed one with invalid_parameter', async () => {
     const missing = await resend.emails.get('00000000-0000-4000-8000-000000000000');
     expect(missing.data).toBeNull();

@@ -24,6 +24,39 @@ export function createReceiptsService({ db }: { db: Db }) {
     };
   }
 
+  async function render(receiptId: string, mayRead: (backerId: string | null) => boolean) {
+    const [row] = await db
+      .select({ r: receipts, charge: ledgerEntries, title: campaigns.title, tierTitle: tiers.title, name: accounts.displayName })
+      .from(receipts)
+      .innerJoin(ledgerEntries, eq(ledgerEntries.id, receipts.ledgerEntryId))
+      .leftJoin(pledges, eq(pledges.id, receipts.pledgeId))
+      .leftJoin(campaigns, eq(campaigns.id, pledges.campaignId))
+      .leftJoin(tiers, eq(tiers.id, pledges.tierId))
+      .leftJoin(accounts, eq(accounts.id, receipts.backerId))
+      .where(eq(receipts.id, receiptId));
+    if (!row || !mayRead(row.r.backerId)) throw notFound('receipts.not_found', 'There is no such receipt in your account.');
+    const [replaces] = row.r.replacesReceiptId ? await db.select().from(receipts).where(eq(receipts.id, row.r.replacesReceiptId)) : [];
+    const [replacedBy] = await db.select().from(receipts).where(eq(receipts.replacesReceiptId, row.r.id));
+    const pdf = await renderReceiptPdf({
+      org: await settings(),
+      number: row.r.number,
+      kind: row.r.kind === 'correction' ? 'correction' : 'payment',
+      issuedAt: row.r.issuedAt,
+      paidAt: row.charge.occurredAt,
+      backerName: row.name ?? 'Backer',
+      campaignTitle: row.title ?? '',
+      tierTitle: row.tierTitle,
+      chargedMinor: row.charge.amountMinor,
+      amountMinor: row.r.amountMinor,
+      currency: row.r.currency,
+      processorChargeId: row.charge.processorObjectId,
+      voided: row.r.voidedAt !== null,
+      replacesNumber: replaces?.number ?? null,
+      replacedByNumber: replacedBy?.number ?? null,
+    });
+    return { pdf, filename: `receipt-${String(row.r.number).padStart(6, '0')}.pdf` };
+  }
+
   return {
     settings,
 
@@ -68,38 +101,14 @@ export function createReceiptsService({ db }: { db: Db }) {
       }));
     },
 
+    /** The receipt's PDF for its backer or books staff; anyone else is told there is no such receipt. */
     async receiptPdf(receiptId: string, viewer: Viewer) {
-      const [row] = await db
-        .select({ r: receipts, charge: ledgerEntries, title: campaigns.title, tierTitle: tiers.title, name: accounts.displayName })
-        .from(receipts)
-        .innerJoin(ledgerEntries, eq(ledgerEntries.id, receipts.ledgerEntryId))
-        .leftJoin(pledges, eq(pledges.id, receipts.pledgeId))
-        .leftJoin(campaigns, eq(campaigns.id, pledges.campaignId))
-        .leftJoin(tiers, eq(tiers.id, pledges.tierId))
-        .leftJoin(accounts, eq(accounts.id, receipts.backerId))
-        .where(eq(receipts.id, receiptId));
-      if (!row || (row.r.backerId !== viewer.id && !isBooksStaff(viewer)))
-        throw notFound('receipts.not_found', 'There is no such receipt in your account.');
-      const [replaces] = row.r.replacesReceiptId ? await db.select().from(receipts).where(eq(receipts.id, row.r.replacesReceiptId)) : [];
-      const [replacedBy] = await db.select().from(receipts).where(eq(receipts.replacesReceiptId, row.r.id));
-      const pdf = await renderReceiptPdf({
-        org: await settings(),
-        number: row.r.number,
-        kind: row.r.kind === 'correction' ? 'correction' : 'payment',
-        issuedAt: row.r.issuedAt,
-        paidAt: row.charge.occurredAt,
-        backerName: row.name ?? 'Backer',
-        campaignTitle: row.title ?? '',
-        tierTitle: row.tierTitle,
-        chargedMinor: row.charge.amountMinor,
-        amountMinor: row.r.amountMinor,
-        currency: row.r.currency,
-        processorChargeId: row.charge.processorObjectId,
-        voided: row.r.voidedAt !== null,
-        replacesNumber: replaces?.number ?? null,
-        replacedByNumber: replacedBy?.number ?? null,
-      });
-      return { pdf, filename: `receipt-${String(row.r.number).padStart(6, '0')}.pdf` };
+      return render(receiptId, (backerId) => backerId === viewer.id || isBooksStaff(viewer));
+    },
+
+    /** The receipt's PDF for the mail sender (the message goes to the receipt's own backer). */
+    async receiptPdfForMail(receiptId: string) {
+      return render(receiptId, () => true);
     },
 
     /** The current (not void) receipt of a charge ledger row, for the my-support page and e-mail link. */

@@ -110,11 +110,17 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
 
   /** Pulls the processor's balance transactions of the range into the staging table; answers how many. */
   async function stage(runId: string, from: Date, to: Date, onPage?: (count: number) => Promise<void>) {
-    let batch: (typeof reconProcessorItems.$inferInsert)[] = [];
+    let batch: { id: string; source: string; kind: string; amount: number; fee: number; currency: string; created: number }[] = [];
     let count = 0;
     const flush = async () => {
       if (batch.length === 0) return;
-      await db.insert(reconProcessorItems).values(batch).onConflictDoNothing();
+      // One JSON parameter per batch (a multi-row VALUES would bind 8 parameters per row).
+      await db.execute(sql`
+        insert into recon_processor_items (run_id, balance_transaction_id, source_id, kind, amount_minor, fee_minor, currency, created_at)
+        select ${runId}::uuid, b.id, b.source, b.kind, b.amount, b.fee, b.currency, to_timestamp(b.created)
+        from jsonb_to_recordset(${JSON.stringify(batch)}::jsonb)
+          as b(id text, source text, kind text, amount bigint, fee bigint, currency text, created bigint)
+        on conflict do nothing`);
       batch = [];
       await onPage?.(count);
     };
@@ -123,14 +129,13 @@ export function createReconciliationService(deps: { db: Db; processor: Processor
       const kind = ledgerKindOf(bt);
       if (!kind) continue;
       batch.push({
-        runId,
-        balanceTransactionId: bt.id,
-        sourceId: idOf(bt.source) ?? bt.id,
+        id: bt.id,
+        source: idOf(bt.source) ?? bt.id,
         kind,
-        amountMinor: bt.amount,
-        feeMinor: bt.fee,
+        amount: bt.amount,
+        fee: bt.fee,
         currency: bt.currency.toUpperCase(),
-        createdAt: new Date(bt.created * 1000),
+        created: bt.created,
       });
       count += 1;
       if (batch.length >= STAGE_BATCH) await flush();

@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { emailDataSchemas, type EmailData, type EmailName } from '../../../emails/templates';
-import { mailQueue } from './mail.tables';
+import { mailQueue, type MailAttachmentRef } from './mail.tables';
 
 /** A database handle or an open transaction: queueMail must be called with the transaction of the causing change. */
 export type DbOrTx = Pick<Db, 'insert' | 'execute'>;
@@ -19,6 +19,8 @@ export type QueueMailInput<N extends EmailName = EmailName> = {
   accountId?: string | null;
   /** Rows sharing a batch key go out in one batch call (at most 100; see the mail sender). */
   batchKey?: string | null;
+  /** Files rendered and attached when the message is sent (single messages only: the batch call takes none). */
+  attachments?: MailAttachmentRef[];
 };
 
 /** The channel the mail sender listens on; NOTIFY is delivered only when the transaction commits. */
@@ -40,6 +42,8 @@ export class MailQueueDataError extends Error {
  * never render fails the causing request instead of sitting in the queue. Returns whether a row was added.
  */
 export async function queueMail<N extends EmailName>(tx: DbOrTx, input: QueueMailInput<N>): Promise<boolean> {
+  if (input.batchKey && input.attachments?.length)
+    throw new MailQueueDataError(input.template, [{ path: 'attachments', message: 'a batch message cannot carry attachments' }]);
   const parsed = emailDataSchemas[input.template].safeParse(input.data);
   if (!parsed.success) {
     throw new MailQueueDataError(
@@ -58,6 +62,7 @@ export async function queueMail<N extends EmailName>(tx: DbOrTx, input: QueueMai
       headers: input.headers ?? {},
       accountId: input.accountId ?? null,
       batchKey: input.batchKey ?? null,
+      attachments: input.attachments ?? [],
     })
     .onConflictDoNothing({ target: mailQueue.idempotencyKey })
     .returning({ id: mailQueue.id });

@@ -1,7 +1,7 @@
 // Applies the processor's webhook events. Each event is applied once (its id goes into processed_events in
 // the same transaction as the change) and every handler reconciles from the processor's current objects,
 // so duplicates change nothing and events arriving out of order still end in the right state.
-import { and, eq } from 'drizzle-orm';
+import { and, eq, isNull } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import type { Logger } from 'pino';
 import type { Db } from '../../db/client';
@@ -12,6 +12,7 @@ import { pledges, memberships } from '../pledges/pledges.tables';
 import { campaigns, tiers } from '../campaigns/campaigns.tables';
 import { accounts, emailPreferences } from '../accounts/accounts.tables';
 import { ledgerEntries } from '../ledger/ledger.tables';
+import { receipts } from '../books/books.tables';
 import { appendLedgerEntry, pledgeIdOfCharge } from '../ledger/ledger.repository';
 import {
   lockPledge,
@@ -198,8 +199,14 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
         .orderBy(ledgerEntries.occurredAt, ledgerEntries.id)
         .limit(1);
       if (!charge) return;
+      // The receipt issued with the charge (same transaction) goes with the message as a PDF.
+      const [receipt] = await tx
+        .select({ id: receipts.id })
+        .from(receipts)
+        .where(and(eq(receipts.ledgerEntryId, charge.id), isNull(receipts.voidedAt)));
       // The pledge's confirmationSentAt claim (pledge-ledger.ts) and this row commit together.
       await queueMail(tx, {
+        attachments: receipt ? [{ kind: 'receipt', receiptId: receipt.id }] : [],
         template: 'pledge-confirmation',
         to: row.account.email,
         category: 'transactional',
