@@ -11,6 +11,12 @@ if [ ! -x /usr/bin/chromium ]; then
     || { echo "[test] chromium install failed; see /tmp/lightkeel-chromium-install.log"; exit 1; }
 fi
 
+if [ ! -x /usr/bin/pdftoppm ]; then
+  echo "[test] installing Debian's poppler-utils for the receipt PDF check (apt-get) …"
+  (apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq poppler-utils) >/tmp/lightkeel-poppler-install.log 2>&1 \
+    || { echo "[test] poppler-utils install failed; see /tmp/lightkeel-poppler-install.log"; exit 1; }
+fi
+
 status=0
 echo "[test] type check (tsc --noEmit, strict)"
 node_modules/.bin/tsc --noEmit -p tsconfig.json || status=1

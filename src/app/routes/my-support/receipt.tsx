@@ -26,9 +26,20 @@ export function Component() {
         eyebrow="My support · Receipts"
         title={refund ? 'Refund receipt' : 'Payment receipt'}
         actions={
-          <Button variant="secondary" size="sm" onClick={() => window.print()}>
-            Print
-          </Button>
+          <div className="flex flex-wrap gap-2">
+            {!refund && (
+              <a
+                href={`/api/receipts/by-payment/${entryId}.pdf`}
+                download
+                className="inline-flex items-center rounded-md bg-amber-400 px-3 py-1.5 text-sm font-bold text-night-950 underline-offset-4 hover:underline focus-visible:outline focus-visible:outline-2 focus-visible:outline-amber-200"
+              >
+                Download PDF receipt
+              </a>
+            )}
+            <Button variant="secondary" size="sm" onClick={() => window.print()}>
+              Print
+            </Button>
+          </div>
         }
       />
       <Card className="max-w-2xl">
