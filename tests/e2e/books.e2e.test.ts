@@ -102,7 +102,10 @@ describe('books in the browser', () => {
     await shot(finance.page, 'books-04-findings-phone');
     await finance.page.setViewportSize({ width: 1280, height: 860 });
     await missing.getByRole('button', { name: 'Record from processor' }).click();
-    await expect.poll(() => missing.innerText()).toMatch(/resolved \(record from processor\)/);
+    await expect
+      .poll(async () => `${await missing.innerText()} ${await finance.page.getByRole('alert').allInnerTexts()}`, { timeout: 30_000 })
+      .toMatch(/resolved \(record from processor\)/);
+    await shot(finance.page, 'books-08-finding-resolved-desktop');
     expect(finance.problems).toEqual([]);
 
     // The backer: my support → the $37 payment's receipt → the PDF.
