@@ -13,6 +13,13 @@ import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/s
 import { estimateLifetime } from '../../../shared/orbit/lifetime';
 import type { SailCraft, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
+import type {
+  ElementSetFileReply,
+  HistoryPageReply,
+  SailingPeriodReply,
+  SailYieldReply,
+  TrendReply,
+} from '../../../shared/schemas/orbit-replies';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
 import { overlapping, trimToFree } from '../../../shared/orbit/period-overlap';
@@ -40,7 +47,7 @@ const orbitColumns = {
 const sortColumns = { epoch: elementSets.epochMs, ...orbitColumns } as const;
 
 type PeriodRow = typeof sailingPeriods.$inferSelect;
-export function sailingPeriodView(p: PeriodRow) {
+export function sailingPeriodView(p: PeriodRow): SailingPeriodReply {
   return {
     id: p.id,
     spacecraftId: p.spacecraftId,
@@ -279,7 +286,7 @@ export function createOrbitService({ db }: { db: Db }) {
   }
 
   return {
-    async listHistory(spacecraftId: string, q: HistoryQuery) {
+    async listHistory(spacecraftId: string, q: HistoryQuery): Promise<HistoryPageReply> {
       await craftOf(spacecraftId);
       const where = historyFilter(spacecraftId, q);
       const col = sortColumns[q.sort];
@@ -336,7 +343,7 @@ export function createOrbitService({ db }: { db: Db }) {
       spacecraftId: string,
       window: { fromMs?: number; toMs?: number },
       view: { fromMs?: number; toMs?: number; columns: number },
-    ) {
+    ): Promise<TrendReply> {
       const full = await this.getTrend(spacecraftId, window);
       const s = full.series;
       const n = s.epochMs.length;
@@ -389,7 +396,7 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    async getSailYield(spacecraftId: string) {
+    async getSailYield(spacecraftId: string): Promise<SailYieldReply> {
       const craft = await craftOf(spacecraftId);
       const periods = await periodsOf(spacecraftId);
       const { rows } = await pool.query<{ epoch_ms: number; e: number; a: number; outlier: boolean }>(
@@ -487,7 +494,7 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    async listFiles(spacecraftId: string) {
+    async listFiles(spacecraftId: string): Promise<ElementSetFileReply[]> {
       await craftOf(spacecraftId);
       const rows = await db
         .select({
