@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import type { UploadReply } from '../../../shared/schemas/orbit-replies';
 import { and, eq, getTableColumns } from 'drizzle-orm';
 import type pg from 'pg';
 import { pipeline } from 'node:stream/promises';
@@ -276,7 +277,7 @@ export async function refreshOutliers(pool: Pick<pg.Pool, 'query'>, spacecraftId
   );
 }
 
-export function jobView(row: JobRow, existingFile?: { id: string; filename: string; uploadedAt: Date } | null) {
+export function jobView(row: JobRow, existingFile?: { id: string; filename: string; uploadedAt: Date } | null): UploadReply {
   return {
     id: row.id,
     spacecraftId: row.spacecraftId,

@@ -18,6 +18,7 @@ import {
   uploadFileSchema,
 } from '../../../shared/schemas/orbit';
 import type { SnapshotData } from '../../../shared/charts/snapshot-chart';
+import type { OrbitReply } from '../../../shared/schemas/orbit-replies';
 import { createSpacecraftRepository, spacecraftView } from './spacecraft.repository';
 import { createIngestService, type IngestService } from './ingest.service';
 import { createOrbitService, type OrbitService } from './orbit.service';
@@ -336,7 +337,7 @@ export function createPublicSnapshotsRouter({ module }: { module: OrbitModule })
           svgPath: `/api/public/snapshots/${row.slug}.svg`,
           pngPath: `/api/public/snapshots/${row.slug}.png`,
         },
-      });
+      } satisfies OrbitReply<'publicSnapshot'>);
     }),
   );
   return router;

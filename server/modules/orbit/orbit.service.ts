@@ -13,6 +13,13 @@ import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/s
 import { estimateLifetime } from '../../../shared/orbit/lifetime';
 import type { SailCraft, SolarActivity } from '../../../shared/orbit/types';
 import type { HistoryQuery, SailingPeriodInput } from '../../../shared/schemas/orbit';
+import type {
+  ElementSetFileReply,
+  HistoryPageReply,
+  SailingPeriodReply,
+  SailYieldReply,
+  TrendReply,
+} from '../../../shared/schemas/orbit-replies';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
 import { overlapping, trimToFree } from '../../../shared/orbit/period-overlap';
@@ -40,7 +47,7 @@ const orbitColumns = {
 const sortColumns = { epoch: elementSets.epochMs, ...orbitColumns } as const;
 
 type PeriodRow = typeof sailingPeriods.$inferSelect;
-export function sailingPeriodView(p: PeriodRow) {
+export function sailingPeriodView(p: PeriodRow): SailingPeriodReply {
   return {
     id: p.id,
     spacecraftId: p.spacecraftId,
@@ -69,6 +76,19 @@ type TrendRow = [
   outlier: boolean,
   elementSetNo: number,
 ];
+
+type TrendSeries = {
+  epochMs: number[];
+  apogeeKm: number[];
+  perigeeKm: number[];
+  meanAltitudeKm: number[];
+  semiMajorAxisKm: number[];
+  energyJPerKg: number[];
+  /** Indexes of the sets screened out as outliers. */
+  outlier: number[];
+};
+/** Histories whose rows stay in memory (each ~10 MB at 100,000 sets). */
+const SERIES_CACHE_MAX = 4;
 
 type WindowPoint = TrendSample & { meanAltitudeKm: number };
 /** The rate window's result: the costly part (Theil–Sen fits over the window's pairs), kept per history state. */
@@ -168,6 +188,7 @@ function isOverlapViolation(err: unknown): boolean {
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
   const windowCache = new Map<string, WindowTrend>();
+  const seriesCache = new Map<string, { rows: TrendRow[]; series: TrendSeries }>();
 
   async function craftOf(id: string) {
     const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
@@ -217,16 +238,21 @@ export function createOrbitService({ db }: { db: Db }) {
     fileName: elementSetFiles.filename,
   };
 
-  async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
-    // Sets are only ever added, so the count and the newest id identify the history's state: the window's rates are
-    // reused until an import changes it. Asked alongside the rows (another pooled connection), not after them.
-    const [{ rows }, { rows: ver }] = await Promise.all([
-      pool.query<TrendRow>({ text: TREND_SQL, values: [craft.id], rowMode: 'array' }),
-      pool.query<{ n: number; max: string | null }>(
-        'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
-        [craft.id],
-      ),
-    ]);
+  /** The stored rows and the series built from them, per history state (sets are only ever added or removed with their file). */
+  async function loadRows(craftId: string) {
+    const { rows: ver } = await pool.query<{ n: number; max: string | null }>(
+      'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
+      [craftId],
+    );
+    const version = `${craftId}|${ver[0]?.n}|${ver[0]?.max}`;
+    const cached = seriesCache.get(version);
+    if (cached) {
+      // Most recently used last.
+      seriesCache.delete(version);
+      seriesCache.set(version, cached);
+      return { version, ...cached };
+    }
+    const { rows } = await pool.query<TrendRow>({ text: TREND_SQL, values: [craftId], rowMode: 'array' });
     const n = rows.length;
     const series = {
       epochMs: new Array<number>(n),
@@ -247,10 +273,22 @@ export function createOrbitService({ db }: { db: Db }) {
       series.energyJPerKg[i] = r[5];
       if (r[6]) series.outlier.push(i);
     }
+    seriesCache.set(version, { rows, series });
+    while (seriesCache.size > SERIES_CACHE_MAX) seriesCache.delete(seriesCache.keys().next().value!);
+    return { version, rows, series };
+  }
+
+  async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
+    // The count and the newest id identify the history's state: its rows, series and window rates are reused until an
+    // import (or a removed file) changes it.
+    const { version, rows, series: cachedSeries } = await loadRows(craft.id);
+    // A copy of the arrays' holder: callers may not change the cached arrays, only read them.
+    const series = { ...cachedSeries };
+    const n = series.epochMs.length;
     const lastMs = n ? series.epochMs[n - 1]! : null;
     const toMs = window.toMs ?? lastMs ?? Date.now();
     const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
-    const cacheKey = `${craft.id}|${fromMs}|${toMs}|${ver[0]?.n}|${ver[0]?.max}`;
+    const cacheKey = `${version}|${fromMs}|${toMs}`;
     let trend = windowCache.get(cacheKey);
     if (!trend) {
       trend = windowTrend(rows, fromMs, toMs, craft.catalogNumber);
@@ -279,7 +317,7 @@ export function createOrbitService({ db }: { db: Db }) {
   }
 
   return {
-    async listHistory(spacecraftId: string, q: HistoryQuery) {
+    async listHistory(spacecraftId: string, q: HistoryQuery): Promise<HistoryPageReply> {
       await craftOf(spacecraftId);
       const where = historyFilter(spacecraftId, q);
       const col = sortColumns[q.sort];
@@ -336,7 +374,7 @@ export function createOrbitService({ db }: { db: Db }) {
       spacecraftId: string,
       window: { fromMs?: number; toMs?: number },
       view: { fromMs?: number; toMs?: number; columns: number },
-    ) {
+    ): Promise<TrendReply> {
       const full = await this.getTrend(spacecraftId, window);
       const s = full.series;
       const n = s.epochMs.length;
@@ -389,7 +427,7 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    async getSailYield(spacecraftId: string) {
+    async getSailYield(spacecraftId: string): Promise<SailYieldReply> {
       const craft = await craftOf(spacecraftId);
       const periods = await periodsOf(spacecraftId);
       const { rows } = await pool.query<{ epoch_ms: number; e: number; a: number; outlier: boolean }>(
@@ -487,7 +525,7 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    async listFiles(spacecraftId: string) {
+    async listFiles(spacecraftId: string): Promise<ElementSetFileReply[]> {
       await craftOf(spacecraftId);
       const rows = await db
         .select({

@@ -7,6 +7,7 @@ import { diffFields } from '../audit/audit-diff';
 import type { Role } from '../../../shared/schemas/auth';
 import type { CreateSnapshotInput } from '../../../shared/schemas/orbit';
 import type { SnapshotData, SnapshotSeriesKey } from '../../../shared/charts/snapshot-chart';
+import type { SnapshotReply, SnapshotSummaryReply } from '../../../shared/schemas/orbit-replies';
 import { snapshots, spacecraft } from './orbit.tables';
 import { snapshotNotFound, snapshotNotYours, spacecraftNotFound } from './orbit.errors';
 import type { OrbitService } from './orbit.service';
@@ -30,7 +31,7 @@ function newSlug(craftSlug: string) {
   return `${craftSlug}-${s}`;
 }
 
-export function snapshotView(row: SnapshotRow, owner: { id: string; displayName: string } | null, withData = false) {
+export function snapshotView(row: SnapshotRow, owner: { id: string; displayName: string } | null): SnapshotSummaryReply {
   return {
     id: row.id,
     slug: row.slug,
@@ -46,10 +47,14 @@ export function snapshotView(row: SnapshotRow, owner: { id: string; displayName:
     series: (row.data as SnapshotData).series,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
-    ...(withData ? { data: row.data as SnapshotData } : {}),
   };
 }
-export type SnapshotView = ReturnType<typeof snapshotView>;
+export type SnapshotView = SnapshotSummaryReply;
+
+/** One snapshot with its frozen points. */
+export function snapshotDetailView(row: SnapshotRow, owner: { id: string; displayName: string } | null): SnapshotReply {
+  return { ...snapshotView(row, owner), data: row.data as SnapshotData };
+}
 
 export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitService }) {
   const withOwner = {
@@ -153,7 +158,7 @@ export function createSnapshotsService({ db, orbit }: { db: Db; orbit: OrbitServ
 
     async get(id: string) {
       const r = await load(id);
-      return snapshotView(r.row, ownerOf(r), true);
+      return snapshotDetailView(r.row, ownerOf(r));
     },
 
     async getRow(id: string) {

@@ -3,12 +3,13 @@ import type { Db } from '../../db/client';
 import { recordAudit, recordChange } from '../audit/audit.repository';
 import { parseCatalogNumber, formatCatalogNumber } from '../../../shared/orbit/catalog-number';
 import type { SpacecraftInput } from '../../../shared/schemas/orbit';
+import type { SpacecraftReply } from '../../../shared/schemas/orbit-replies';
 import { spacecraft } from './orbit.tables';
 import { missionCraftRace, spacecraftNotFound, spacecraftTaken } from './orbit.errors';
 
 export type SpacecraftRow = typeof spacecraft.$inferSelect;
 
-export function spacecraftView(row: SpacecraftRow) {
+export function spacecraftView(row: SpacecraftRow): SpacecraftReply {
   return {
     id: row.id,
     slug: row.slug,

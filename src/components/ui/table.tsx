@@ -1,9 +1,23 @@
 import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
 import { cn } from '@/lib/cn';
 
-export function Table({ caption, className, children }: { caption?: ReactNode; className?: string; children: ReactNode }) {
+export function Table({
+  caption,
+  className,
+  children,
+  scrollLabel,
+  scrollDescribedBy,
+}: {
+  caption?: ReactNode;
+  className?: string;
+  children: ReactNode;
+  /** For a table that may be wider than the screen: its scroll box becomes a named region keyboard users can focus and scroll. */
+  scrollLabel?: string;
+  scrollDescribedBy?: string;
+}) {
+  const region = scrollLabel ? { role: 'region', 'aria-label': scrollLabel, 'aria-describedby': scrollDescribedBy, tabIndex: 0 } : {};
   return (
-    <div className={cn('overflow-x-auto rounded-xl border border-foil-700/60', className)}>
+    <div className={cn('overflow-x-auto rounded-xl border border-foil-700/60', className)} {...region}>
       <table className="w-full border-collapse text-left text-sm">
         {caption && <caption className="sr-only">{caption}</caption>}
         {children}

@@ -7,6 +7,10 @@ const LEGEND_PX = 56;
 /**
  * A thin React home for one uPlot canvas: created once per `options` identity, fed new data with setData (no
  * re-creation on zoom), resized with its box. uPlot owns the canvas; React owns nothing inside it.
+ *
+ * Kept off the page's critical task: the plot is made in the box's first ResizeObserver callback (the size comes
+ * from the observer, so nothing forces a layout inside React's commit), the x scale takes the view from a range
+ * function (so new data draws once, already at the view), and a resize to the same size draws nothing.
  */
 export function UPlotChart({
   options,
@@ -26,22 +30,39 @@ export function UPlotChart({
   const plot = useRef<uPlot | null>(null);
   const dataRef = useRef(data);
   dataRef.current = data;
+  const viewRef = useRef(xRange);
+  viewRef.current = xRange;
   const onCreateRef = useRef(onCreate);
   onCreateRef.current = onCreate;
 
   useEffect(() => {
     const el = box.current;
     if (!el) return;
+    let u: uPlot | null = null;
+    let last = { width: 0, height: 0 };
+    const x = options.scales?.x ?? {};
+    const withView: Omit<uPlot.Options, 'width' | 'height'> = {
+      ...options,
+      scales: { ...options.scales, x: { ...x, range: () => [viewRef.current.min, viewRef.current.max] } },
+    };
     // The box's height holds the plot and uPlot's legend (the hover read-out) below it.
-    const size = () => ({ width: Math.max(200, el.clientWidth), height: Math.max(160, el.clientHeight - LEGEND_PX) });
-    const u = new uPlot({ ...options, ...size() }, dataRef.current, el);
-    plot.current = u;
-    onCreateRef.current?.(u);
-    const ro = new ResizeObserver(() => u.setSize(size()));
+    const ro = new ResizeObserver((entries) => {
+      const rect = entries[entries.length - 1]!.contentRect;
+      const size = { width: Math.max(200, Math.round(rect.width)), height: Math.max(160, Math.round(rect.height) - LEGEND_PX) };
+      if (size.width === last.width && size.height === last.height) return;
+      last = size;
+      if (u) {
+        u.setSize(size);
+        return;
+      }
+      u = new uPlot({ ...withView, ...size }, dataRef.current, el);
+      plot.current = u;
+      onCreateRef.current?.(u);
+    });
     ro.observe(el);
     return () => {
       ro.disconnect();
-      u.destroy();
+      u?.destroy();
       plot.current = null;
     };
   }, [options]);
@@ -50,9 +71,13 @@ export function UPlotChart({
   useEffect(() => {
     const u = plot.current;
     if (!u) return;
+    // New data: one draw, with the x scale set to the view by its range function.
     if (u.data !== data) u.setData(data, true);
-    u.setScale('x', { min, max });
-  }, [data, min, max, options]);
+    else {
+      const sx = u.scales.x;
+      if (sx?.min !== min || sx?.max !== max) u.setScale('x', { min, max });
+    }
+  }, [data, min, max]);
 
   return <div ref={box} className={className} />;
 }
