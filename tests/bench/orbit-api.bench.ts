@@ -236,7 +236,9 @@ const ingest: Benchmark = {
       try {
         const { agent, csrf } = await appOn(d);
         // Four spacecraft in one database (same indexes, same table): fresh ours / bare, overlap ours / bare.
-        const crafts = await Promise.all([0, 1, 2, 3].map((k) => createCraft(agent, csrf, catalog + k)));
+        // One after another: the first craft of a database becomes the mission's own, which concurrent creates race for.
+        const crafts: string[] = [];
+        for (const k of [0, 1, 2, 3]) crafts.push(await createCraft(agent, csrf, catalog + k));
         const texts = [0, 1, 2, 3].map((k) => fileOf(sets(N, catalog + k)));
         // The overlap files: the first half of their sets is stored beforehand (untimed, the same way on both sides).
         for (const k of [2, 3]) {
