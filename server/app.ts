@@ -17,6 +17,7 @@ import type { JobSender } from './jobs/queue';
 import { mount } from './lib/routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { sessionWhenNeeded } from './middleware/session-when-needed';
+import { throttleTouch } from './middleware/session-touch';
 import { createAuthService } from './modules/auth/auth.service';
 import { createPassport } from './modules/auth/passport';
 import { createAuthRouter } from './modules/auth/auth.routes';
@@ -95,12 +96,14 @@ export function createApp(deps: AppDeps): Express {
     session({
       name: 'lk.sid',
       secret: config.SESSION_SECRET,
-      store: new PgStore({
-        pool,
-        tableName: 'session',
-        createTableIfMissing: false,
-        pruneSessionInterval: config.NODE_ENV === 'test' ? false : 900,
-      }),
+      store: throttleTouch(
+        new PgStore({
+          pool,
+          tableName: 'session',
+          createTableIfMissing: false,
+          pruneSessionInterval: config.NODE_ENV === 'test' ? false : 900,
+        }),
+      ),
       resave: false,
       saveUninitialized: false,
       rolling: true,

@@ -74,9 +74,15 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
     preview: 'One click and your Lightkeel account is ready.',
     heading: `Welcome aboard, ${d.displayName}`,
     blocks: [
-      { kind: 'paragraph', text: 'Please confirm that this address is yours so we can send you receipts and mission dispatches.' },
-      { kind: 'button', label: 'Confirm my address', url: d.verifyUrl },
-      { kind: 'note', text: 'If you did not create a Lightkeel account, ignore this message and nothing will happen.' },
+      {
+        kind: 'paragraph',
+        text: 'Please confirm that this address is yours so we can send you receipts and mission dispatches. The button confirms it and signs you in; your password works from then on.',
+      },
+      { kind: 'button', label: 'Confirm my address and sign in', url: d.verifyUrl },
+      {
+        kind: 'note',
+        text: 'If you did not create a Lightkeel account, ignore this message: the account cannot be used until this link is followed.',
+      },
     ],
     reason: 'You get this e-mail because this address was used to sign up for Lightkeel.',
   }),

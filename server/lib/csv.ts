@@ -15,6 +15,9 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 export function neutraliseCell(value: CsvCell): string {
   if (value === null || value === undefined) return '';
   if (typeof value !== 'string') return String(value);
+  // Most cells start with a letter or digit: decided by the first character alone.
+  const c = value.charCodeAt(0);
+  if (c !== 61 && c !== 43 && c !== 45 && c !== 64 && c !== 9 && c !== 13) return value;
   return FORMULA_START.test(value) && !NUMBER.test(value) ? `'${value}` : value;
 }
 
@@ -34,4 +37,24 @@ export function recordsToCsv(rows: readonly Record<string, unknown>[], columns: 
     rows,
     columns.map((c) => ({ header: c, value: (r: Record<string, unknown>) => r[c] as CsvCell })),
   );
+}
+
+/**
+ * Rows already as cells (one array per row, in header order) as CSV chunks of `chunkRows` rows each, header first:
+ * the same writer and the same neutralising as toCsv, for exports large enough to send while they are written.
+ */
+export function* csvChunks(headers: readonly string[], rows: readonly CsvCell[][], chunkRows = 2000): Generator<string> {
+  const options = { newline: '\r\n', quotes: false, escapeFormulae: false } as const;
+  yield Papa.unparse([headers.map(neutraliseCell)], options) + '\r\n';
+  for (let i = 0; i < rows.length; i += chunkRows) {
+    const end = Math.min(rows.length, i + chunkRows);
+    const data = new Array<string[]>(end - i);
+    for (let k = i; k < end; k++) {
+      const row = rows[k]!;
+      const cells = new Array<string>(row.length);
+      for (let j = 0; j < row.length; j++) cells[j] = neutraliseCell(row[j]);
+      data[k - i] = cells;
+    }
+    yield Papa.unparse(data, options) + '\r\n';
+  }
 }

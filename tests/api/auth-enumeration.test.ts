@@ -49,6 +49,42 @@ describe('no account enumeration', () => {
     expect(t.mail.messages().filter((m) => m.to.includes('backer@saltmarsh.example'))).toHaveLength(1);
   });
 
+  it('sign-up followed by a sign-in with the same password (what the client did) looks the same for a known and a new address', async () => {
+    // Before the fix the second step signed a new address in (200) and refused a known one (401).
+    const flow = async (email: string) => {
+      const agent = agentFor(t.app);
+      await agent.token();
+      const up = await agent
+        .post('/api/auth/sign-up')
+        .set('x-csrf-token', agent.csrf)
+        .send({ email, password: 'the same password', displayName: 'Prober' });
+      const meAfterUp = (await agent.get('/api/auth/me')).body;
+      await agent.token();
+      const inRes = await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email, password: 'the same password' });
+      const meAfterIn = (await agent.get('/api/auth/me')).body;
+      const headerNames = (h: Record<string, unknown>) =>
+        Object.keys(h)
+          .filter((k) => !['date', 'etag', 'content-length', 'ratelimit', 'ratelimit-policy'].includes(k))
+          .sort();
+      return {
+        signUp: { status: up.status, body: up.body, headers: headerNames(up.headers) },
+        meAfterUp,
+        signIn: {
+          status: inRes.status,
+          body: inRes.body,
+          headers: headerNames(inRes.headers),
+          cookie: Boolean(inRes.headers['set-cookie']),
+        },
+        meAfterIn,
+      };
+    };
+    const known = await flow('engineer@saltmarsh.example');
+    const fresh = await flow('brand.new.shearwater@example.org');
+    expect(fresh).toEqual(known);
+    expect(known.signIn.status).toBe(401);
+    expect(known.meAfterIn).toEqual({ account: null });
+  });
+
   it('forgot-password answers the same body for known and unknown addresses; the mail goes out from the queue after', async () => {
     const known = await post('/api/auth/request-password-reset', { email: 'finance@saltmarsh.example' });
     const unknown = await post('/api/auth/request-password-reset', { email: 'nobody.here@example.org' });

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'drizzle-orm';
 import type { Express } from 'express';
-import { createTestApp, agentFor, type TestApp } from '../setup/test-app';
+import { createTestApp, agentFor, confirmationToken, type TestApp } from '../setup/test-app';
 
 // Behind a proxy (TRUST_PROXY=true) the client address is the proxy's X-Forwarded-For, so each test speaks
 // from addresses of its own (RFC 5737 documentation ranges).
@@ -55,6 +55,14 @@ async function letTimePass(app: TestApp, seconds: number) {
 async function account(email: string, password: string, address: string) {
   const c = await client(t.app, address);
   expect((await c.signUp(email, password)).status).toBe(202);
+  // The password signs in once the address is confirmed through the link in the mail (here in a browser of its own).
+  const confirming = agentFor(t.app);
+  await confirming.token();
+  await confirming
+    .post('/api/auth/verify-email')
+    .set('x-csrf-token', confirming.csrf)
+    .send({ token: await confirmationToken(t, email) })
+    .expect(200);
 }
 
 describe('sign-in limits', () => {

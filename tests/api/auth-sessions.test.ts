@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'drizzle-orm';
-import { createTestApp, agentFor, signIn, type Agent, type TestApp } from '../setup/test-app';
+import { createTestApp, agentFor, signIn, signUpAndConfirm, type Agent, type TestApp } from '../setup/test-app';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -13,10 +13,8 @@ afterAll(async () => {
 async function signUp(email: string, password: string) {
   const agent = agentFor(t.app);
   await agent.token();
-  await agent.post('/api/auth/sign-up').set('x-csrf-token', agent.csrf).send({ email, password, displayName: 'Session Test' }).expect(202);
-  // Sign-up answers alike for new and known addresses and does not sign in; the new owner signs in next.
-  await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email, password }).expect(200);
-  await agent.token();
+  // Sign-up answers alike for new and known addresses and does not sign in; the confirmation link does.
+  await signUpAndConfirm(t, agent, { email, password, displayName: 'Session Test' });
   return agent;
 }
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { sql } from 'drizzle-orm';
-import { createTestApp, agentFor, signIn, type TestApp } from '../setup/test-app';
+import { createTestApp, agentFor, signIn, signUpAndConfirm, confirmationToken, type TestApp } from '../setup/test-app';
 import { seedDemoAccounts, DEMO_PASSWORD } from '../../server/demo/accounts';
 import { createIdentityFake } from '../../fakes/identity/server';
 
@@ -23,46 +23,70 @@ afterAll(async () => {
   await idp.close();
 });
 
-async function signUp(email: string, password = 'correct horse battery', displayName = 'Test Backer') {
+/** Signs up as the client does: the answer is the same for every address, and nobody is signed in. */
+async function signUpOnly(email: string, password = 'correct horse battery', displayName = 'Test Backer') {
   const agent = agentFor(t.app);
   await agent.token();
   const res = await agent.post('/api/auth/sign-up').set('x-csrf-token', agent.csrf).send({ email, password, displayName });
-  // As the client does: sign-up answers the same for every address, then the new owner signs in.
-  if (res.status === 202) await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email, password });
-  await agent.token();
   return { agent, res };
 }
 
-describe('sign-up and sign-in', () => {
-  it('creates a backer account that then signs in; the same e-mail in another case gets the very same answer and creates nothing', async () => {
-    const { agent, res } = await signUp('Petrel@Example.org');
-    expect(res.status).toBe(202);
-    const me = await agent.get('/api/auth/me').expect(200);
-    expect(me.body.account.email).toBe('Petrel@Example.org');
-    expect(me.body.account.roles).toEqual(['backer']);
-    expect(me.body.account.emailVerified).toBe(false);
+/** Signs up a new address and follows the link in its confirmation mail, which signs in. */
+async function signUp(email: string, password = 'correct horse battery', displayName = 'Test Backer') {
+  const agent = agentFor(t.app);
+  const account = await signUpAndConfirm(t, agent, { email, password, displayName });
+  return { agent, account };
+}
 
-    const again = await signUp('petrel@example.ORG', 'another password entirely');
+describe('sign-up and sign-in', () => {
+  it('creates a backer account that signs in through its confirmation link; the same e-mail in another case gets the very same answer and creates nothing', async () => {
+    const { agent, res } = await signUpOnly('Petrel@Example.org');
+    expect(res.status).toBe(202);
+    // Signed out until the link is followed; the password does not sign in before then.
+    expect((await agent.get('/api/auth/me').expect(200)).body.account).toBeNull();
+    const early = await agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', agent.csrf)
+      .send({ email: 'Petrel@Example.org', password: 'correct horse battery' });
+    expect(early.status).toBe(401);
+    expect(early.body.error.code).toBe('auth.invalid_credentials');
+
+    const again = await signUpOnly('petrel@example.ORG', 'another password entirely');
     expect(again.res.status).toBe(res.status);
     expect(again.res.body).toEqual(res.body);
     expect((await again.agent.get('/api/auth/me')).body.account).toBeNull();
     const { rows } = await t.database.pool.query("select count(*)::int as n from accounts where lower(email) = 'petrel@example.org'");
     expect(rows[0].n).toBe(1);
+
+    const token = await confirmationToken(t, 'Petrel@Example.org');
+    await agent.token();
+    const confirmed = await agent.post('/api/auth/verify-email').set('x-csrf-token', agent.csrf).send({ token }).expect(200);
+    expect(confirmed.body.account).toMatchObject({ email: 'Petrel@Example.org', roles: ['backer'], emailVerified: true });
+    await agent.token();
+    const me = await agent.get('/api/auth/me').expect(200);
+    expect(me.body.account.email).toBe('Petrel@Example.org');
+    // Now the password signs in too (in another browser).
+    await signIn(agentFor(t.app), 'petrel@example.org', 'correct horse battery');
   });
 
-  it('sends a verification mail whose link verifies the address once', async () => {
-    const { agent } = await signUp('sandpiper@example.org');
+  it('sends a confirmation mail whose link confirms the address once, signing in a new session', async () => {
+    const { agent } = await signUpOnly('sandpiper@example.org');
     await t.flushMail();
     const mail = t.mail.messages().find((m) => [m.to].flat().includes('sandpiper@example.org'));
     expect(mail?.subject).toMatch(/confirm|verify/i);
     const token = /verify-email\?token=([\w-]+)/.exec(String(mail?.html))?.[1];
     expect(token).toBeTruthy();
-    await agent.token();
-    await agent.post('/api/auth/verify-email').set('x-csrf-token', agent.csrf).send({ token }).expect(204);
+    const pre = await agent.get('/api/auth/csrf');
+    const before = /lk\.sid=([^;]+)/.exec(String(pre.headers['set-cookie']))?.[1];
+    const res = await agent.post('/api/auth/verify-email').set('x-csrf-token', pre.body.csrfToken).send({ token }).expect(200);
+    const after = /lk\.sid=([^;]+)/.exec(String(res.headers['set-cookie']))?.[1];
+    expect(after).toBeTruthy();
+    expect(after).not.toBe(before);
     expect((await agent.get('/api/auth/me')).body.account.emailVerified).toBe(true);
-    const reused = await agent.post('/api/auth/verify-email').set('x-csrf-token', agent.csrf).send({ token });
-    expect(reused.status).toBe(400);
-    expect(reused.body.error.code).toBe('auth.token_invalid');
+    await agent.token();
+    const again = await agent.post('/api/auth/verify-email').set('x-csrf-token', agent.csrf).send({ token });
+    expect(again.status).toBe(400);
+    expect(again.body.error.code).toBe('auth.token_invalid');
   });
 
   it('answers a wrong password and an unknown e-mail with the same 401 message', async () => {

@@ -12,7 +12,7 @@ import {
   startPledge,
   type World,
 } from './pledges-fixtures';
-import { agentFor, signIn } from '../setup/test-app';
+import { agentFor, signIn, signUpAndConfirm } from '../setup/test-app';
 import { auditLog } from '../../server/modules/audit/audit.tables';
 import { accounts } from '../../server/modules/accounts/accounts.tables';
 import { memberships } from '../../server/modules/pledges/pledges.tables';
@@ -27,13 +27,7 @@ afterAll(async () => w?.close());
 async function newBacker(email: string) {
   const agent = agentFor(w.t.app);
   await agent.token();
-  await agent
-    .post('/api/auth/sign-up')
-    .set('x-csrf-token', agent.csrf)
-    .send({ email, password: 'a long enough password', displayName: 'Petrel Tester' })
-    .expect(202);
-  await agent.post('/api/auth/sign-in').set('x-csrf-token', agent.csrf).send({ email, password: 'a long enough password' }).expect(200);
-  await agent.token();
+  await signUpAndConfirm(w.t, agent, { email, password: 'a long enough password', displayName: 'Petrel Tester' });
   return agent;
 }
 

@@ -88,3 +88,31 @@ export async function signIn(agent: Agent, email: string, password: string) {
   await agent.token();
   return res.body.account;
 }
+
+/** The token of the newest confirmation link mailed to `email` (runs the mail queue first). */
+export async function confirmationToken(t: TestApp, email: string) {
+  await t.flushMail();
+  const mail = t.mail
+    .messages()
+    .filter((m) => [m.to].flat().some((to) => to.toLowerCase() === email.toLowerCase()) && /verify-email\?token=/.test(String(m.html)))
+    .at(-1);
+  const token = /verify-email\?token=([\w-]+)/.exec(String(mail?.html))?.[1];
+  if (!token) throw new Error(`no confirmation link was mailed to ${email}`);
+  return token;
+}
+
+/**
+ * Signs up as the client does, then follows the link in the confirmation mail (which signs in): a new account's only
+ * way in before its address is confirmed. Returns the signed-in account.
+ */
+export async function signUpAndConfirm(t: TestApp, agent: Agent, input: { email: string; password: string; displayName: string }) {
+  await agent.token();
+  const res = await agent.post('/api/auth/sign-up').set('x-csrf-token', agent.csrf).send(input);
+  if (res.status !== 202) throw new Error(`sign-up failed: ${res.status} ${JSON.stringify(res.body)}`);
+  const token = await confirmationToken(t, input.email);
+  await agent.token();
+  const verified = await agent.post('/api/auth/verify-email').set('x-csrf-token', agent.csrf).send({ token });
+  if (verified.status !== 200) throw new Error(`confirmation failed: ${verified.status} ${JSON.stringify(verified.body)}`);
+  await agent.token();
+  return verified.body.account as { id: string; email: string; emailVerified: boolean };
+}

@@ -133,7 +133,9 @@ export function createAuthRouter({
     signUpLimit,
     validated({ body: signUpSchema }, async (_req, res, { body }) => {
       // The same answer for a new address and for one that has an account (its owner gets a notice by mail):
-      // sign-up must not tell which addresses have accounts. The client signs in next with the same password.
+      // sign-up must not tell which addresses have accounts. Nobody is signed in here: a new account signs in through
+      // the link in its confirmation mail, and a password sign-in refuses it until then in the words a wrong password
+      // gets, so trying the same password next cannot tell either.
       await auth.signUp(body);
       res.status(202).json(SIGN_UP_ANSWER);
     }),
@@ -194,11 +196,16 @@ export function createAuthRouter({
     })(req, res, next);
   });
 
+  // The confirmation link: proves the mailbox, so it signs the account in (a new session, as a sign-in makes).
   router.post(
     '/verify-email',
-    validated({ body: verifyEmailSchema }, async (_req, res, { body }) => {
-      await auth.verifyEmail(body.token);
-      res.status(204).end();
+    validated({ body: verifyEmailSchema }, async (req, res, { body }, next) => {
+      const row = await auth.verifyEmail(body.token);
+      const account = await auth.repo.view(row);
+      req.logIn(account, (err) => {
+        if (err) return next(err);
+        res.json({ account });
+      });
     }),
   );
 

@@ -16,7 +16,17 @@ const ARGON2 = { algorithm: 2 as Algorithm, memoryCost: 19456, timeCost: 2, para
 const RESET_MINUTES = 60;
 const VERIFY_HOURS = 48;
 
-export const invalidCredentials = () => new AppError(401, 'auth.invalid_credentials', 'That e-mail and password do not match an account.');
+/**
+ * The one answer to every refused sign-in: unknown address, wrong password, and an account whose address is not yet
+ * confirmed (whatever the password). Telling the last apart would say which addresses sign-up had just created — and
+ * so which already had an account — so its owner is reminded in the same words everyone gets.
+ */
+export const invalidCredentials = () =>
+  new AppError(
+    401,
+    'auth.invalid_credentials',
+    'That e-mail and password do not match an account we can sign in. Just created one? Open the link in the message we sent you: it confirms your address and signs you in.',
+  );
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
@@ -120,11 +130,15 @@ export function createAuthService({ db, config }: { db: Db; config: Config }) {
       return { created: false };
     },
 
+    /**
+     * The account these credentials sign in to, or undefined. An address not yet confirmed signs in only through the
+     * link in its confirmation mail: a password that matches one answers as a wrong one (see invalidCredentials).
+     */
     async verifyPassword(email: string, password: string) {
       const account = await repo.findByEmail(email);
       const identity = account ? await repo.passwordIdentity(account.id) : undefined;
       const ok = await verify(identity?.passwordHash ?? (await dummyHash), password).catch(() => false);
-      if (!account || !identity?.passwordHash || !ok) return undefined;
+      if (!account || !identity?.passwordHash || !ok || !account.emailVerifiedAt) return undefined;
       return account;
     },
 
@@ -170,9 +184,16 @@ export function createAuthService({ db, config }: { db: Db; config: Config }) {
 
     sendVerification,
 
+    /** Confirms the address the token was sent to; returns its account, which the link signs in. */
     async verifyEmail(token: string) {
       const row = await consumeToken(token, 'verify-email');
-      await db.update(accounts).set({ emailVerifiedAt: new Date() }).where(eq(accounts.id, row.accountId));
+      await db
+        .update(accounts)
+        .set({ emailVerifiedAt: new Date() })
+        .where(and(eq(accounts.id, row.accountId), isNull(accounts.emailVerifiedAt)));
+      const account = await repo.findById(row.accountId);
+      if (!account) throw badRequest('auth.token_invalid', 'This link has expired or was already used. Ask for a new one.');
+      return account;
     },
 
     async requestPasswordReset(email: string) {

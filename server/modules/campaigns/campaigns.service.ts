@@ -81,7 +81,8 @@ export function createCampaignsService({ db, pool, cacheMs }: { db: Db; pool: pg
   async function readRow(slug: string): Promise<CampaignReadRow | null> {
     const hit = cache.get(slug);
     if (hit && Date.now() - hit.at < cacheMs) return hit.row;
-    const res = await pool.query<{ campaign: CampaignReadRow }>(campaignReadSql, [slug]);
+    // A named statement: each pooled connection parses and plans it once, then only binds the slug.
+    const res = await pool.query<{ campaign: CampaignReadRow }>({ name: 'campaign-read', text: campaignReadSql, values: [slug] });
     const row = res.rows[0]?.campaign ?? null;
     if (cacheMs > 0) cache.set(slug, { at: Date.now(), row });
     return row;

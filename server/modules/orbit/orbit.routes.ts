@@ -80,6 +80,26 @@ function sendCsvOrText(res: Parameters<RequestHandler>[1], type: string, filenam
   res.send(body);
 }
 
+/** A CSV download written chunk by chunk as it is produced, waiting whenever the client reads slower. */
+async function sendCsvChunks(res: Parameters<RequestHandler>[1], filename: string, chunks: Iterable<string>) {
+  res.setHeader('content-type', 'text/csv; charset=utf-8');
+  res.setHeader('content-disposition', `attachment; filename="${filename.replace(/[^\w.-]+/g, '_')}"`);
+  for (const chunk of chunks) {
+    if (res.destroyed) return;
+    if (!res.write(chunk))
+      await new Promise<void>((resolve) => {
+        const done = () => {
+          res.off('drain', done);
+          res.off('close', done);
+          resolve();
+        };
+        res.on('drain', done);
+        res.on('close', done);
+      });
+  }
+  res.end();
+}
+
 export function createOrbitRouter({ db, config, module }: { db: Db; config: Config; module: OrbitModule }) {
   const router = Router();
   const repo = createSpacecraftRepository({ db });
@@ -177,7 +197,7 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
     '/spacecraft/:id/element-sets.csv',
     engineers,
     validated({ params: idParams, query: historyQuerySchema }, async (_req, res, { params, query }) => {
-      sendCsvOrText(res, 'text/csv; charset=utf-8', 'element-sets.csv', await orbit.historyCsv(params.id, query));
+      await sendCsvChunks(res, 'element-sets.csv', await orbit.historyCsv(params.id, query));
     }),
   );
   router.get(

@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
-import { toCsv, type CsvColumn } from '../../lib/csv';
+import { csvChunks, type CsvCell } from '../../lib/csv';
+import { msToIso } from '../../../shared/orbit/epoch';
 import type pg from 'pg';
 import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
@@ -154,32 +155,21 @@ export function raisingDragAreaM2(c: Pick<SpacecraftRow, 'sailAreaM2' | 'dragAre
   return usableFraction * c.sailAreaM2 + (1 - usableFraction) * c.dragAreaEdgeOnM2;
 }
 
-type HistoryCsvRow = {
-  epoch: Date;
-  elementSetNo: number;
-  semiMajorAxisKm: number;
-  eccentricity: number;
-  inclinationDeg: number;
-  apogeeAltitudeKm: number;
-  perigeeAltitudeKm: number;
-  bstar: number;
-  outlier: boolean;
-  fileName: string;
-  sourceLine: number;
-};
-const historyCsvColumns: CsvColumn<HistoryCsvRow>[] = [
-  { header: 'epoch_utc', value: (r) => r.epoch.toISOString() },
-  { header: 'element_set_no', value: (r) => r.elementSetNo },
-  { header: 'semi_major_axis_km', value: (r) => r.semiMajorAxisKm.toFixed(4) },
-  { header: 'eccentricity', value: (r) => r.eccentricity.toFixed(7) },
-  { header: 'inclination_deg', value: (r) => r.inclinationDeg.toFixed(4) },
-  { header: 'apogee_altitude_km', value: (r) => r.apogeeAltitudeKm.toFixed(4) },
-  { header: 'perigee_altitude_km', value: (r) => r.perigeeAltitudeKm.toFixed(4) },
-  { header: 'bstar_per_earth_radius', value: (r) => r.bstar.toExponential(5) },
-  { header: 'outlier', value: (r) => r.outlier },
-  { header: 'source_file', value: (r) => r.fileName },
-  { header: 'source_line', value: (r) => r.sourceLine },
-];
+const HISTORY_CSV_HEADERS = [
+  'epoch_utc',
+  'element_set_no',
+  'semi_major_axis_km',
+  'eccentricity',
+  'inclination_deg',
+  'apogee_altitude_km',
+  'perigee_altitude_km',
+  'bstar_per_earth_radius',
+  'outlier',
+  'source_file',
+  'source_line',
+] as const;
+type HistoryCsvRow = [number, number, number, number, number, number, number, number, boolean, string, number];
+
 function isOverlapViolation(err: unknown): boolean {
   const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } };
   return (e.code ?? e.cause?.code) === '23P01' && (e.constraint ?? e.cause?.constraint) === 'sailing_periods_no_overlap';
@@ -346,17 +336,44 @@ export function createOrbitService({ db }: { db: Db }) {
       };
     },
 
-    /** CSV of the filtered history, in the chosen order (through the shared writer: quoting, inert formulas). */
-    async historyCsv(spacecraftId: string, q: HistoryQuery): Promise<string> {
+    /**
+     * CSV of the filtered history, in the chosen order, in chunks to send as they are written (through the shared
+     * writer: quoting, inert formulas). One query of the columns the file holds, as arrays; the epoch's text comes
+     * from its stored milliseconds, the same text the import stored it from (msToIso).
+     */
+    async historyCsv(spacecraftId: string, q: HistoryQuery): Promise<Iterable<string>> {
       await craftOf(spacecraftId);
-      const col = sortColumns[q.sort];
-      const rows = await db
-        .select(historySelect)
-        .from(elementSets)
-        .innerJoin(elementSetFiles, eq(elementSetFiles.id, elementSets.fileId))
-        .where(historyFilter(spacecraftId, q))
-        .orderBy(q.dir === 'asc' ? asc(col) : desc(col), q.dir === 'asc' ? asc(elementSets.id) : desc(elementSets.id));
-      return toCsv(rows, historyCsvColumns);
+      const values: unknown[] = [spacecraftId];
+      let where = 's.spacecraft_id = $1';
+      if (q.from) where += ` and s.epoch_ms >= $${values.push(Date.parse(q.from))}`;
+      if (q.to) where += ` and s.epoch_ms <= $${values.push(Date.parse(q.to))}`;
+      const dir = q.dir === 'asc' ? 'asc' : 'desc';
+      const { rows } = await pool.query<HistoryCsvRow>({
+        text: `select s.epoch_ms, s.element_set_no, s.semi_major_axis_km, s.eccentricity, s.inclination_deg, s.apogee_altitude_km,
+                      s.perigee_altitude_km, s.bstar, s.outlier, f.filename, s.source_line
+                 from element_sets s join element_set_files f on f.id = s.file_id
+                where ${where} order by s.${sortColumns[q.sort].name} ${dir}, s.id ${dir}`,
+        values,
+        rowMode: 'array',
+      });
+      const cells = new Array<CsvCell[]>(rows.length);
+      for (let i = 0; i < rows.length; i++) {
+        const r = rows[i]!;
+        cells[i] = [
+          msToIso(r[0]),
+          r[1],
+          r[2].toFixed(4),
+          r[3].toFixed(7),
+          r[4].toFixed(4),
+          r[5].toFixed(4),
+          r[6].toFixed(4),
+          r[7].toExponential(5),
+          r[8],
+          r[9],
+          r[10],
+        ];
+      }
+      return csvChunks(HISTORY_CSV_HEADERS, cells);
     },
 
     /** Every stored point (snapshots freeze from this). */

@@ -1,4 +1,4 @@
-import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useSearchParams } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/get-me';
 import { GoogleButton } from '@/features/auth/components/google-button';
 import { SignUpForm } from '@/features/auth/components/sign-up-form';
@@ -10,7 +10,6 @@ export function Component() {
   useDocumentTitle('Create an account');
   const [params] = useSearchParams();
   const returnTo = safeReturnTo(params.get('returnTo'));
-  const navigate = useNavigate();
   const me = useMe();
 
   if (me.data) return <Navigate replace to={returnTo ?? '/my-support'} />;
@@ -29,8 +28,8 @@ export function Component() {
       }
     >
       <GoogleButton returnTo={returnTo ?? '/my-support'} />
-      <SignUpForm onSignedUp={() => navigate(returnTo ?? '/my-support', { replace: true })} />
-      <p className="text-sm text-foil-400">We send one message to confirm your e-mail address.</p>
+      <SignUpForm />
+      <p className="text-sm text-foil-400">We send one message to confirm your e-mail address; its link signs you in.</p>
     </AuthCard>
   );
 }

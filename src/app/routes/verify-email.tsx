@@ -28,8 +28,8 @@ export function Component() {
         <Alert title="This link is missing its token">Open the link from the verification message again.</Alert>
       ) : verify.isSuccess ? (
         <>
-          <Alert tone="success" title="E-mail verified">
-            Receipts and dispatches will reach you at this address.
+          <Alert tone="success" title="E-mail confirmed — you are signed in">
+            Signed in as {verify.data.account.email}. Receipts and dispatches will reach you at this address.
           </Alert>
           <Link to="/my-support" className={buttonClasses({ size: 'lg', className: 'w-full' })}>
             Go to my support
@@ -37,9 +37,11 @@ export function Component() {
         </>
       ) : verify.isError ? (
         <>
-          <Alert title="Could not verify">{errorMessage(verify.error)} You can ask for a fresh link from your account page.</Alert>
-          <Link to="/my-support" className={buttonClasses({ variant: 'secondary', size: 'lg', className: 'w-full' })}>
-            Go to my account
+          <Alert title="Could not verify">
+            {errorMessage(verify.error)} Lost the message? Ask for a password reset: its link confirms your address too.
+          </Alert>
+          <Link to="/forgot-password" className={buttonClasses({ variant: 'secondary', size: 'lg', className: 'w-full' })}>
+            Reset my password
           </Link>
         </>
       ) : (

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { signUpSchema, type AccountView } from '@shared/schemas/auth';
+import { signUpSchema } from '@shared/schemas/auth';
 import { Alert } from '@/components/ui/alert';
 import { TextField } from '@/components/ui/text-field';
 import { applyApiError } from '@/lib/form-errors';
@@ -11,22 +11,27 @@ import { AuthForm, EmailField, PasswordField } from './auth-form';
 
 type Values = z.input<typeof signUpSchema>;
 
-export function SignUpForm({ onSignedUp }: { onSignedUp: (account: AccountView) => void }) {
+/**
+ * Creates the account and says "check your inbox" — the same for every address, whether or not it already had an
+ * account; the link in the mail confirms the address and signs in.
+ */
+export function SignUpForm() {
   const [formError, setFormError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const form = useForm<Values, unknown, z.output<typeof signUpSchema>>({
     resolver: zodResolver(signUpSchema),
     defaultValues: { displayName: '', email: '', password: '' },
   });
-  const signUp = useSignUp({ onSuccess: onSignedUp });
+  const signUp = useSignUp();
   const { errors } = form.formState;
 
   const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     setNotice(null);
     try {
-      const result = await signUp.mutateAsync(values);
-      if (!result.account) setNotice(result.message);
+      const answer = await signUp.mutateAsync(values);
+      setNotice(answer.message);
+      form.resetField('password');
     } catch (error) {
       setFormError(
         applyApiError(error, form.setError, {
