@@ -78,18 +78,6 @@ type TrendRow = [
   elementSetNo: number,
 ];
 
-type TrendSeries = {
-  epochMs: number[];
-  apogeeKm: number[];
-  perigeeKm: number[];
-  meanAltitudeKm: number[];
-  semiMajorAxisKm: number[];
-  energyJPerKg: number[];
-  /** Indexes of the sets screened out as outliers. */
-  outlier: number[];
-};
-/** Histories whose rows stay in memory (each ~10 MB at 100,000 sets). */
-const SERIES_CACHE_MAX = 4;
 
 type WindowPoint = TrendSample & { meanAltitudeKm: number };
 /** The rate window's result: the costly part (Theil–Sen fits over the window's pairs), kept per history state. */
@@ -178,7 +166,6 @@ function isOverlapViolation(err: unknown): boolean {
 export function createOrbitService({ db }: { db: Db }) {
   const pool = (db as unknown as { $client: pg.Pool }).$client;
   const windowCache = new Map<string, WindowTrend>();
-  const seriesCache = new Map<string, { rows: TrendRow[]; series: TrendSeries }>();
 
   async function craftOf(id: string) {
     const [row] = await db.select().from(spacecraft).where(eq(spacecraft.id, id));
@@ -228,21 +215,20 @@ export function createOrbitService({ db }: { db: Db }) {
     fileName: elementSetFiles.filename,
   };
 
-  /** The stored rows and the series built from them, per history state (sets are only ever added or removed with their file). */
+  /**
+   * The stored rows and the series built from them, read afresh on every call (no cache of rows: the trend.api bench
+   * compares this path with a bare SELECT). The count and the newest id name the history's state for the window cache.
+   */
   async function loadRows(craftId: string) {
-    const { rows: ver } = await pool.query<{ n: number; max: string | null }>(
-      'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
-      [craftId],
-    );
+    // Asked alongside the rows (another pooled connection), not after them.
+    const [{ rows }, { rows: ver }] = await Promise.all([
+      pool.query<TrendRow>({ text: TREND_SQL, values: [craftId], rowMode: 'array' }),
+      pool.query<{ n: number; max: string | null }>(
+        'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
+        [craftId],
+      ),
+    ]);
     const version = `${craftId}|${ver[0]?.n}|${ver[0]?.max}`;
-    const cached = seriesCache.get(version);
-    if (cached) {
-      // Most recently used last.
-      seriesCache.delete(version);
-      seriesCache.set(version, cached);
-      return { version, ...cached };
-    }
-    const { rows } = await pool.query<TrendRow>({ text: TREND_SQL, values: [craftId], rowMode: 'array' });
     const n = rows.length;
     const series = {
       epochMs: new Array<number>(n),
@@ -263,17 +249,12 @@ export function createOrbitService({ db }: { db: Db }) {
       series.energyJPerKg[i] = r[5];
       if (r[6]) series.outlier.push(i);
     }
-    seriesCache.set(version, { rows, series });
-    while (seriesCache.size > SERIES_CACHE_MAX) seriesCache.delete(seriesCache.keys().next().value!);
     return { version, rows, series };
   }
 
   async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
-    // The count and the newest id identify the history's state: its rows, series and window rates are reused until an
-    // import (or a removed file) changes it.
-    const { version, rows, series: cachedSeries } = await loadRows(craft.id);
-    // A copy of the arrays' holder: callers may not change the cached arrays, only read them.
-    const series = { ...cachedSeries };
+    // The window's rates (Theil–Sen fits, the costly part) are reused until an import or a removed file changes the state.
+    const { version, rows, series } = await loadRows(craft.id);
     const n = series.epochMs.length;
     const lastMs = n ? series.epochMs[n - 1]! : null;
     const toMs = window.toMs ?? lastMs ?? Date.now();
