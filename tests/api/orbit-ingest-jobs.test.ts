@@ -42,10 +42,13 @@ async function worker() {
   return w;
 }
 
-/** `npm run worker` as a real child process on the test database. */
+/**
+ * `npm run worker` as a real child process on the test database. Node loads tsx itself (no tsx CLI in between, which
+ * would run the worker as a grandchild that a SIGKILL of the CLI leaves running).
+ */
 function spawnWorker(): Promise<ChildProcess> {
   const c = t.config;
-  const proc = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), 'server/worker.ts'], {
+  const proc = spawn(process.execPath, ['--import', 'tsx', path.resolve('server/worker.ts')], {
     env: {
       ...process.env,
       NODE_ENV: 'test',
