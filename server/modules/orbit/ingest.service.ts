@@ -468,6 +468,9 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
     const progressRows = progressWriter(job.id);
     try {
       await client.query('begin');
+      // A large import on a busy database outlasts the pool's per-statement limit (meant for requests); the job's own
+      // expiry bounds it instead.
+      await client.query(`set local statement_timeout = ${Math.round(expireInSeconds * 1000)}`);
       // One import per spacecraft at a time: the outlier flags below are worked out from the stored sets around the
       // new ones, which must not change under them. A concurrent import of the same bytes waits here, then reuses the file row.
       await client.query('select pg_advisory_xact_lock(hashtext($1))', [`element_sets:${craft.id}`]);

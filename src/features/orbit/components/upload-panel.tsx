@@ -43,7 +43,9 @@ function WorkProgress({ upload }: { upload: Upload }) {
     ? parsing
       ? 'Waiting for a worker to read the file — it is stored and will not be lost'
       : 'Waiting for a worker to start the import'
-    : `${parsing ? 'Checking the sets' : 'Importing'} — ${counted} (${percent} %)`;
+    : !parsing && processed >= total
+      ? `Importing — all ${countOf(total, 'set')} sent to the database; storing them and updating the outlier flags`
+      : `${parsing ? 'Checking the sets' : 'Importing'} — ${counted} (${percent} %)`;
   return (
     <div className="space-y-1.5" data-testid="upload-progress">
       <p className="text-sm text-foil-200">{text}</p>
