@@ -47,7 +47,7 @@ function WorkProgress({ upload }: { upload: Upload }) {
       ? `Importing — all ${countOf(total, 'set')} sent to the database; storing them and updating the outlier flags`
       : `${parsing ? 'Checking the sets' : 'Importing'} — ${counted} (${percent} %)`;
   return (
-    <div className="space-y-1.5" data-testid="upload-progress">
+    <div className="mb-4 space-y-1.5" data-testid="upload-progress">
       <p className="text-sm text-foil-200">{text}</p>
       <ProgressBar
         label={parsing ? 'Checking the file' : 'Importing the sets'}
