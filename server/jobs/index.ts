@@ -246,7 +246,8 @@ function createWakeListener(pool: pg.Pool, log: Logger, onWake: (queue: string) 
       log.warn({ err }, 'job wake-up listener lost its connection; polling until it is back');
       void c.end().catch(() => undefined);
       if (client === c) client = null;
-      if (!stopping) retry = setTimeout(() => void connect().catch(() => undefined), 5000);
+      // unref: a retry alone never keeps a process alive (a worker left running when its database went away).
+      if (!stopping) retry = setTimeout(() => void connect().catch(() => undefined), 5000).unref();
     });
     await c.connect();
     await c.query(`listen ${WAKE_CHANNEL}`);
