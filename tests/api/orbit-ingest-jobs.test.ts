@@ -27,7 +27,7 @@ beforeAll(async () => {
     { INGEST_JOB_EXPIRE_SECONDS: '3', JOB_MAINTENANCE_INTERVAL_SECONDS: '1', JOBS_SHUTDOWN_TIMEOUT_MS: '5000' },
     { worker: false },
   ));
-}, 60_000);
+}, 180_000);
 afterEach(async () => {
   for (const w of workers.splice(0)) await w.stop();
 });
@@ -72,7 +72,7 @@ async function getUpload(id: string): Promise<UploadBody> {
   return (await engineer.get(`/api/orbit/uploads/${id}`).expect(200)).body.upload as UploadBody;
 }
 
-async function until<T>(check: () => Promise<T | false | null | undefined>, ms = 60_000, every = 50): Promise<T> {
+async function until<T>(check: () => Promise<T | false | null | undefined>, ms = 240_000, every = 50): Promise<T> {
   const end = Date.now() + ms;
   for (;;) {
     const v = await check();
@@ -170,7 +170,7 @@ describe('element-set uploads on the job system', () => {
         'drop trigger orbit_ingest_jobs_progress on orbit_ingest_jobs; drop function log_progress(); drop table progress_log',
       );
     }
-  }, 120_000);
+  }, 400_000);
 
   it('finishes an import whose worker was killed mid-way with exactly the right number of sets', async () => {
     const N = 20_000;
@@ -218,7 +218,7 @@ describe('element-set uploads on the job system', () => {
       [id],
     );
     expect(audit).toHaveLength(1);
-  }, 120_000);
+  }, 400_000);
 
   it('stores each set once when two workers import two uploads of the same file at the same time', async () => {
     const N = 15_000;
@@ -249,7 +249,7 @@ describe('element-set uploads on the job system', () => {
     });
     expect(await setsOf('twice.tle')).toEqual({ n: N, keys: N });
     expect((await getUpload(b.id)).importedCount! + (await getUpload(a.id)).importedCount!).toBe(N);
-  }, 120_000);
+  }, 400_000);
 
   it('keeps an import running through failed attempts, then marks it failed with nothing stored', async () => {
     // Every attempt fails inside the import's transaction (a trigger refuses the file row).
@@ -283,7 +283,7 @@ describe('element-set uploads on the job system', () => {
     } finally {
       await t.database.pool.query('drop trigger element_set_files_doomed on element_set_files; drop function refuse_doomed()');
     }
-  }, 120_000);
+  }, 400_000);
 
   it('answers 503 from a web process started without the job system, storing nothing', async () => {
     const bare = createApp({
