@@ -704,18 +704,29 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
     /** Every attempt of a step failed (or its workers were lost every time): the upload says so and lets go of its text. */
     async markFailed({ uploadId, step }: IngestStep): Promise<void> {
       parsedCache.delete(uploadId);
-      await db
-        .update(ingestJobs)
-        .set({
-          status: 'failed',
-          content: null,
-          message:
-            step === 'preview'
-              ? 'The file could not be checked on our side, so nothing was stored. Upload it again; if it fails again, report it.'
-              : 'The import failed on our side and nothing was stored. Upload the file again; if it fails again, report it.',
-          updatedAt: new Date(),
-        })
-        .where(and(eq(ingestJobs.id, uploadId), eq(ingestJobs.status, step === 'preview' ? 'parsing' : 'importing')));
+      await withTransaction(pool, async (tx, executor) => {
+        // An attempt given up for lost may still be importing for this craft (it holds the craft's lock): the upload is
+        // not failed while it runs. Throwing hands this job back to its queue, to look again later.
+        if (step === 'import') {
+          const { rows } = await executor.executeSql(
+            `select pg_try_advisory_xact_lock(hashtext('element_sets:' || spacecraft_id::text)) as free from orbit_ingest_jobs where id = $1`,
+            [uploadId],
+          );
+          if ((rows[0] as { free?: boolean } | undefined)?.free === false) throw new Error('an import for this craft is still running');
+        }
+        await tx
+          .update(ingestJobs)
+          .set({
+            status: 'failed',
+            content: null,
+            message:
+              step === 'preview'
+                ? 'The file could not be checked on our side, so nothing was stored. Upload it again; if it fails again, report it.'
+                : 'The import failed on our side and nothing was stored. Upload the file again; if it fails again, report it.',
+            updatedAt: new Date(),
+          })
+          .where(and(eq(ingestJobs.id, uploadId), eq(ingestJobs.status, step === 'preview' ? 'parsing' : 'importing')));
+      });
     },
 
     /** Upload, preview and import in this process, one after the other — the demo seed and scripts (no queue). */
