@@ -146,7 +146,7 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/receipts', funding.receiptsRouter);
   mount(app, '/api/public/monthly-accounts', funding.publicAccountsRouter);
 
-  const orbitDesk = createOrbitModule({ db, logger });
+  const orbitDesk = createOrbitModule({ db, logger, jobs: deps.jobs, config });
   mount(app, '/api/orbit', createOrbitRouter({ db, config, module: orbitDesk }));
   mount(app, '/api/public/orbit', createOpenDataRouter({ pool }));
   mount(app, '/api/public/orbit', createPublicOrbitRouter({ module: orbitDesk }));

@@ -81,6 +81,10 @@ const configSchema = z.object({
   MAIL_QUEUE_KEEP_DAYS: z.coerce.number().int().min(1).default(90),
   // A previewed upload nobody imports or cancels releases its held text after this long.
   UPLOAD_HOLD_HOURS: z.coerce.number().int().min(1).default(48),
+  // An element-set preview or import whose worker went silent this long is handed to another worker (pg-boss expiry).
+  INGEST_JOB_EXPIRE_SECONDS: z.coerce.number().int().min(2).default(900),
+  // Stored images (dispatch heroes, frozen charts) that no dispatch or version uses any more are removed after this long.
+  ORPHAN_FILE_HOURS: z.coerce.number().int().min(1).default(24),
   /** How long a repeated pledge submit waits for the first one to open the checkout before answering 202. */
   PLEDGE_CHECKOUT_WAIT_MS: z.coerce.number().int().min(0).max(120_000).default(15_000),
 });

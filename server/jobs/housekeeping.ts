@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { defineQueue, type JobContext } from './queue';
+import { createLocalDiskStorage, type FileStorage } from '../lib/storage';
 
 const TASKS = ['tokens', 'rate-limits', 'sessions', 'uploads', 'mail'] as const;
 
@@ -15,14 +16,24 @@ export const housekeepingQueue = defineQueue({
   options: { retryLimit: 2, retryDelay: 60, expireInSeconds: 600, policy: 'singleton' },
   // Hourly, at a minute nobody else picks.
   schedule: { cron: '17 * * * *', data: { tasks: [...TASKS] } },
-  handler: async ({ tasks }, { ctx }) => runHousekeeping(ctx, tasks),
+  handler: async ({ tasks }, { ctx }) =>
+    runHousekeeping(
+      { ...ctx, storage: (ctx.deps.storage as FileStorage | undefined) ?? createLocalDiskStorage(ctx.config.UPLOADS_DIR) },
+      tasks,
+    ),
 });
 
 export type HousekeepingResult = Partial<Record<(typeof TASKS)[number], number>>;
 
 const LIMIT = 10_000;
 
-export async function runHousekeeping(ctx: Pick<JobContext, 'pool' | 'config'>, tasks: readonly (typeof TASKS)[number][]) {
+/** Stored images looked at per pass: each orphan costs a row delete and a file removal. */
+const FILE_LIMIT = 500;
+
+export async function runHousekeeping(
+  ctx: Pick<JobContext, 'pool' | 'config'> & { storage?: FileStorage },
+  tasks: readonly (typeof TASKS)[number][],
+) {
   const { pool, config } = ctx;
   const out: HousekeepingResult = {};
   const del = async (sql: string, params: unknown[] = []) => (await pool.query(sql, params)).rowCount ?? 0;
@@ -51,6 +62,7 @@ export async function runHousekeeping(ctx: Pick<JobContext, 'pool' | 'config'>, 
       out.uploads += await del(
         `update orbit_ingest_jobs set content = null where content is not null and status in ('imported', 'cancelled', 'failed')`,
       );
+      if (ctx.storage) out.uploads += await removeOrphanedFiles(pool, ctx.storage, config.ORPHAN_FILE_HOURS);
     } else if (task === 'mail') {
       // Sent messages are kept for MAIL_QUEUE_KEEP_DAYS (the admin's view of what went out); failed ones stay.
       out.mail = await del(
@@ -60,4 +72,26 @@ export async function runHousekeeping(ctx: Pick<JobContext, 'pool' | 'config'>, 
     }
   }
   return out;
+}
+
+/**
+ * Dispatch images (hero uploads, frozen chart PNGs) that no dispatch and no published version uses, older than
+ * `hours`: replaced heroes, charts frozen for a save that failed or was edited away before publishing. The row goes
+ * first (under the same "still unused" check), then the bytes; a failed removal leaves only unlisted bytes behind.
+ */
+async function removeOrphanedFiles(pool: JobContext['pool'], storage: FileStorage, hours: number) {
+  const { rows } = await pool.query<{ key: string }>(
+    `delete from stored_files f where f.key in (
+        select s.key from stored_files s
+         where s.purpose in ('dispatch-hero', 'dispatch-chart') and s.created_at < now() - make_interval(hours => $1::int)
+           and not exists (select 1 from dispatches d where d.hero_image_key = s.key
+                              or d.charts @> jsonb_build_array(jsonb_build_object('imageKey', s.key)))
+           and not exists (select 1 from dispatch_versions v where v.hero_image_key = s.key
+                              or v.charts @> jsonb_build_array(jsonb_build_object('imageKey', s.key)))
+         limit ${FILE_LIMIT})
+      returning f.key`,
+    [hours],
+  );
+  for (const { key } of rows) await storage.remove(key);
+  return rows.length;
 }

@@ -18,7 +18,7 @@
  * queueMail(tx, …) inside the causing transaction); work() also starts the mail sender (mail-sender.ts).
  */
 import PgBoss from 'pg-boss';
-import type pg from 'pg';
+import pg from 'pg';
 import type { Logger } from 'pino';
 import type { Db } from '../db/client';
 import type { Config } from '../config';
@@ -30,11 +30,12 @@ import { dispatchFanOutQueue } from './dispatch-fan-out';
 import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcile';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 import { queueOptions } from './queue';
+import { elementSetIngestQueue, elementSetIngestFailedQueue } from './element-set-ingest';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
 
-// Every queue the product has. Order does not matter.
+// Every queue the product has. Order does not matter (a dead-letter queue is created before the queue naming it).
 export const queues: QueueDefinition[] = [
   housekeepingQueue,
   accountMailQueue,
@@ -42,7 +43,15 @@ export const queues: QueueDefinition[] = [
   dispatchFanOutQueue,
   booksReconcileQueue,
   booksReconcileGaveUpQueue,
+  elementSetIngestQueue as QueueDefinition,
+  elementSetIngestFailedQueue as QueueDefinition,
 ];
+
+/**
+ * The channel a sender NOTIFYs (inside its transaction, so only once the job is committed) with the queue's name:
+ * idle workers of that queue fetch at once instead of at their next poll. Polling stays the fallback.
+ */
+export const WAKE_CHANNEL = 'lightkeel_jobs';
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';
@@ -114,7 +123,9 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
       const q = byName.get(queue);
       if (!q) throw new Error(`unknown queue "${queue}"`);
       const data = q.schema.parse(payload) as object;
-      return boss.send(queue, data, options ?? {});
+      const id = await boss.send(queue, data, options ?? {});
+      if (id) await (options?.db ?? bossDb(pool)).executeSql('select pg_notify($1, $2)', [WAKE_CHANNEL, queue]);
+      return id;
     },
   };
 
@@ -138,10 +149,11 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     if (!opts.worker) throw new Error('createJobs({ worker: true }) is needed to run workers');
     if (working) return;
     working = true;
+    const workerIds = new Map<string, string[]>();
     for (const q of list) {
       const concurrency = q.work?.concurrency ?? 1;
       for (let i = 0; i < concurrency; i++) {
-        await boss.work<unknown>(
+        const workerId = await boss.work<unknown>(
           q.name,
           { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: q.work?.pollingIntervalSeconds ?? 2 },
           async (batch) => {
@@ -167,9 +179,15 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
             }
           },
         );
+        workerIds.set(q.name, [...(workerIds.get(q.name) ?? []), workerId]);
       }
       if (q.schedule) await boss.schedule(q.name, q.schedule.cron, q.schema.parse(q.schedule.data) as object, { tz: 'UTC' });
     }
+    const wake = createWakeListener(pool, log, (queue) => {
+      for (const id of workerIds.get(queue) ?? []) boss.notifyWorker(id);
+    });
+    await wake.start();
+    loops.push(wake);
     if (opts.mailSender !== false) {
       const sender = createMailSender(pool, mailSenderOptionsFrom(ctx), log.child({ part: 'mail' }));
       await sender.start();
@@ -220,4 +238,36 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
   }
 
   return { boss, send: sender.send, start, work, stop, runPending, addLoop: (l) => void loops.push(l) };
+}
+
+/** LISTENs on WAKE_CHANNEL on a connection of its own (outside the pool), reconnecting after a drop. */
+function createWakeListener(pool: pg.Pool, log: Logger, onWake: (queue: string) => void) {
+  let client: pg.Client | null = null;
+  let stopping = false;
+  let retry: ReturnType<typeof setTimeout> | undefined;
+  async function connect() {
+    const c = new pg.Client(pool.options);
+    c.on('notification', (m) => {
+      if (m.channel === WAKE_CHANNEL && m.payload) onWake(m.payload);
+    });
+    c.on('error', (err) => {
+      log.warn({ err }, 'job wake-up listener lost its connection; polling until it is back');
+      void c.end().catch(() => undefined);
+      if (client === c) client = null;
+      // unref: a retry alone never keeps a process alive (a worker left running when its database went away).
+      if (!stopping) retry = setTimeout(() => void connect().catch(() => undefined), 5000).unref();
+    });
+    await c.connect();
+    await c.query(`listen ${WAKE_CHANNEL}`);
+    client = c;
+  }
+  return {
+    start: () => connect().catch((err: unknown) => log.warn({ err }, 'job wake-up listener did not start; workers poll')),
+    async stop() {
+      stopping = true;
+      clearTimeout(retry);
+      await client?.end().catch(() => undefined);
+      client = null;
+    },
+  };
 }

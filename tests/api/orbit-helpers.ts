@@ -1,4 +1,8 @@
 import { expect } from 'vitest';
+import pino from 'pino';
+import { createDb } from '../../server/db/client';
+import { createJobs, type QueueDefinition } from '../../server/jobs';
+import { elementSetIngestFailedQueue, elementSetIngestQueue } from '../../server/jobs/element-set-ingest';
 import { createTestApp, agentFor, signIn, type Agent, type TestApp } from '../setup/test-app';
 import { seedDemoAccounts, DEMO_PASSWORD } from '../../server/demo/accounts';
 import { TERN1 } from '../../shared/orbit/simulate';
@@ -19,8 +23,44 @@ export const tern1Record = {
   sailDeployedAt: '2025-11-01T00:00:00Z',
 };
 
-export async function orbitDesk(env: Record<string, string> = {}) {
+export const ingestQueues = [elementSetIngestQueue as QueueDefinition, elementSetIngestFailedQueue as QueueDefinition];
+
+/** A worker "process" for the element-set queues on the test database: its own pool and pg-boss. */
+export async function startIngestWorker(t: TestApp, deps: Record<string, unknown> = {}) {
+  const { db, pool } = createDb(t.database.url, { max: 4 });
+  const jobs = createJobs({
+    pool,
+    db,
+    config: t.config,
+    logger: pino({ level: 'silent' }),
+    queues: ingestQueues,
+    worker: true,
+    mailSender: false,
+    deps,
+  });
+  await jobs.start();
+  await jobs.work();
+  return {
+    jobs,
+    pool,
+    stop: async () => {
+      await jobs.stop();
+      await pool.end();
+    },
+  };
+}
+
+/** The orbit desk with an engineer signed in, Tern-1 on file and one worker for uploads (stopped by t.close). */
+export async function orbitDesk(env: Record<string, string> = {}, opts: { worker?: boolean } = {}) {
   const t: TestApp = await createTestApp({ SIGN_IN_LIMIT_PER_IP: '1000', ...env });
+  if (opts.worker !== false) {
+    const worker = await startIngestWorker(t);
+    const close = t.close;
+    t.close = async () => {
+      await worker.stop();
+      await close();
+    };
+  }
   await seedDemoAccounts(t.database.db);
   const engineer = agentFor(t.app);
   await signIn(engineer, 'engineer@saltmarsh.example', DEMO_PASSWORD);

@@ -4,11 +4,14 @@ import { randomBytes } from 'node:crypto';
 import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
+import pino from 'pino';
 import request from 'supertest';
 import { from as copyFrom } from 'pg-copy-streams';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { createDb } from '../../server/db/client';
+import { createJobs, type Jobs, type QueueDefinition } from '../../server/jobs';
+import { elementSetIngestFailedQueue, elementSetIngestQueue } from '../../server/jobs/element-set-ingest';
 import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
 import { DEMO_PASSWORD, seedDemoAccounts } from '../../server/demo/accounts';
 import { writeTle, type TleWriteInput } from '../../shared/orbit/tle-write';
@@ -52,11 +55,14 @@ async function freshDatabase(ctx: BenchContext) {
   await admin.end();
   const url = ctx.pgAdminUrl.replace(/\/[^/]*$/, `/${name}`);
   const { db, pool } = createDb(url);
+  const jobs: Jobs[] = [];
   return {
     db,
     pool,
     url,
+    jobs,
     drop: async () => {
+      for (const j of jobs) await j.stop();
       await pool.end();
       const c = new pg.Client({ connectionString: ctx.pgAdminUrl });
       await c.connect();
@@ -75,7 +81,27 @@ async function appOn(d: Awaited<ReturnType<typeof freshDatabase>>) {
     UPLOAD_LIMIT_BYTES: String(64 * 1024 * 1024),
     SIGN_IN_LIMIT_PER_IP: '1000',
   });
-  const app = createApp({ db: d.db, pool: d.pool, config, mailer: createMailerFromConfig(config), stripe: createStripeFromConfig(config) });
+  // Uploads are previewed and imported by a worker (as npm start runs them); this one works in the same process.
+  const jobs = createJobs({
+    pool: d.pool,
+    db: d.db,
+    config,
+    logger: pino({ level: 'silent' }),
+    queues: [elementSetIngestQueue as QueueDefinition, elementSetIngestFailedQueue as QueueDefinition],
+    worker: true,
+    mailSender: false,
+  });
+  await jobs.start();
+  await jobs.work();
+  d.jobs.push(jobs);
+  const app = createApp({
+    db: d.db,
+    pool: d.pool,
+    config,
+    jobs,
+    mailer: createMailerFromConfig(config),
+    stripe: createStripeFromConfig(config),
+  });
   await seedDemoAccounts(d.db);
   const agent = request.agent(app);
   let csrf = (await agent.get('/api/auth/csrf')).body.csrfToken as string;

@@ -6,6 +6,8 @@ import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import { from as copyFrom } from 'pg-copy-streams';
 import type { Db } from '../../db/client';
+import type { JobSender } from '../../jobs/queue';
+import { withTransaction } from '../../lib/pg-transaction';
 import { recordAudit } from '../audit/audit.repository';
 import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
@@ -13,7 +15,15 @@ import { deriveElementSet, type OrbitSummary } from '../../../shared/orbit/deriv
 import type { ElementSet, ParseError } from '../../../shared/orbit/types';
 import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
-import { emptyUpload, notText, unrecognisedFormat, uploadNotFound, uploadNotReady, spacecraftNotFound } from './orbit.errors';
+import {
+  emptyUpload,
+  ingestUnavailable,
+  notText,
+  unrecognisedFormat,
+  uploadNotFound,
+  uploadNotReady,
+  spacecraftNotFound,
+} from './orbit.errors';
 
 type JobRow = Omit<typeof ingestJobs.$inferSelect, 'content'>;
 
@@ -21,12 +31,17 @@ type JobRow = Omit<typeof ingestJobs.$inferSelect, 'content'>;
 const { content: _content, ...jobColumns } = getTableColumns(ingestJobs);
 type Logger = { error: (obj: unknown, msg?: string) => void };
 
+/** The queue whose worker previews and imports uploads, and the dead-letter queue that marks an upload failed. */
+export const ELEMENT_SET_INGEST_QUEUE = 'element-set-ingest';
+export const ELEMENT_SET_INGEST_FAILED_QUEUE = 'element-set-ingest-failed';
+export type IngestStep = { uploadId: string; step: 'preview' | 'import'; accountId: string | null };
+/** Attempts after the first: a job lost with its worker (or failing on a passing fault) runs again this often. */
+export const INGEST_RETRY_LIMIT = 3;
+
 /** How many errors a preview keeps to show (all are counted). */
 const PREVIEW_ERRORS = 50;
 /** Rows per COPY chunk and per duplicate-check query. */
 const INSERT_BATCH = 10_000;
-/** A running job whose process is gone (restart) is reported failed after this long without progress. */
-const STALE_AFTER_MS = 5 * 60_000;
 const PARSED_CACHE_MAX = 8;
 
 /** An element set ready to store: the parsed fields and the derived orbit. */
@@ -300,10 +315,19 @@ export function jobView(row: JobRow, existingFile?: { id: string; filename: stri
 }
 export type JobView = ReturnType<typeof jobView>;
 
-export function createIngestService({ db, logger }: { db: Db; logger?: Logger }) {
+export type IngestServiceDeps = {
+  db: Db;
+  logger?: Logger;
+  /** Where the upload request enqueues the preview and import (a web process built without workers answers 503). */
+  jobs?: JobSender;
+  /** A worker lost mid-step is replaced after this long (pg-boss expiry); default 900 s. */
+  expireInSeconds?: number;
+};
+
+export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestServiceDeps) {
   // The bulk statements use the pool drizzle was built on.
   const pool = (db as unknown as { $client: pg.Pool }).$client;
-  const running = new Map<string, Promise<void>>();
+  // What a preview prepared, for the import that usually follows on the same worker (a retry or another worker re-parses).
   const parsedCache = new Map<string, PreparedSet[]>();
 
   function remember(jobId: string, rows: PreparedSet[]) {
@@ -311,22 +335,27 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     while (parsedCache.size > PARSED_CACHE_MAX) parsedCache.delete(parsedCache.keys().next().value!);
   }
 
-  function track(jobId: string, work: () => Promise<void>) {
-    const p = work()
-      .catch(async (err) => {
-        logger?.error({ err, jobId }, 'element-set ingest failed');
-        await db
-          .update(ingestJobs)
-          .set({
-            status: 'failed',
-            message: 'The import failed on our side and nothing was stored. Try again; if it fails again, report it.',
-            updatedAt: new Date(),
-          })
-          .where(eq(ingestJobs.id, jobId))
-          .catch(() => undefined);
-      })
-      .finally(() => running.delete(jobId));
-    running.set(jobId, p);
+  const sendOptions = () => ({
+    expireInSeconds,
+    retryLimit: INGEST_RETRY_LIMIT,
+    retryDelay: 1,
+    retryBackoff: true,
+    deadLetter: ELEMENT_SET_INGEST_FAILED_QUEUE,
+  });
+
+  /** Progress rows written in order on their own connections (visible while the import's transaction is open). */
+  function progressWriter(jobId: string) {
+    let chain: Promise<unknown> = Promise.resolve();
+    return {
+      report(n: number) {
+        chain = chain.then(() =>
+          pool
+            .query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1 and processed < $2', [jobId, n])
+            .catch(() => undefined),
+        );
+      },
+      settled: () => chain,
+    };
   }
 
   async function loadCraft(spacecraftId: string) {
@@ -335,34 +364,16 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     return craft;
   }
 
-  async function runPreview(jobId: string, text: string, craft: typeof spacecraft.$inferSelect) {
-    // The database stores (and compresses) the held text while this process parses it: the query is handed to
-    // the connection first, then the parse runs; the job is previewed only once both are done.
-    const writer = await pool.connect();
-    const held = writer
-      .query('update orbit_ingest_jobs set content = $2 where id = $1', [jobId, text])
-      .then(
-        () => null,
-        (error: unknown) => ({ error }),
-      )
-      .finally(() => writer.release());
-    // Let the socket take the text before the parse holds the event loop (bounded: a slow reader only costs overlap).
-    const socket = (writer as unknown as { connection?: { stream?: NodeJS.WritableStream & { writableLength?: number } } }).connection
-      ?.stream;
-    if (socket && (socket.writableLength ?? 0) > 0) {
-      await new Promise<void>((resolve) => {
-        const timer = setTimeout(done, 2000);
-        function done() {
-          clearTimeout(timer);
-          socket!.removeListener('drain', done);
-          resolve();
-        }
-        socket.once('drain', done);
-      });
-    }
+  async function runPreview(jobId: string) {
+    const [held] = await db
+      .select({ status: ingestJobs.status, content: ingestJobs.content, spacecraftId: ingestJobs.spacecraftId })
+      .from(ingestJobs)
+      .where(eq(ingestJobs.id, jobId));
+    // Gone (its craft deleted), or previewed by an earlier attempt: nothing to do.
+    if (!held || held.status !== 'parsing') return;
+    const craft = await loadCraft(held.spacecraftId);
+    const text = held.content ?? '';
     const result = prepareSets(text, craft);
-    const heldResult = await held;
-    if (heldResult) throw heldResult.error;
     const total = result.prepared.length;
     await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
     // Count what the history already holds, in batches so progress moves on large files.
@@ -417,10 +428,13 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         message: previewMessage(fresh.length, stored + result.inFileDuplicates, result.invalidCount),
         updatedAt: new Date(),
       })
-      .where(eq(ingestJobs.id, jobId));
+      .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.status, 'parsing')));
   }
 
-  async function runImport(job: JobRow, accountId: string | null) {
+  async function runImport(jobId: string, accountId: string | null) {
+    const [job] = await db.select(jobColumns).from(ingestJobs).where(eq(ingestJobs.id, jobId));
+    // Imported (or cancelled) already: a retry after the commit changes nothing.
+    if (!job || job.status !== 'importing') return;
     const craft = await loadCraft(job.spacecraftId);
     let rows = parsedCache.get(job.id);
     parsedCache.delete(job.id);
@@ -440,7 +454,7 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
           message: importMessage(0, job.duplicateCount),
           updatedAt: new Date(),
         })
-        .where(eq(ingestJobs.id, job.id));
+        .where(and(eq(ingestJobs.id, job.id), eq(ingestJobs.status, 'importing')));
       return;
     }
     let lo = Infinity,
@@ -452,11 +466,22 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     const client = await pool.connect();
     let imported = 0;
     let fileId: string;
+    const progressRows = progressWriter(job.id);
     try {
       await client.query('begin');
+      // A large import on a busy database outlasts the pool's per-statement limit (meant for requests); the job's own
+      // expiry bounds it instead.
+      await client.query(`set local statement_timeout = ${Math.round(expireInSeconds * 1000)}`);
       // One import per spacecraft at a time: the outlier flags below are worked out from the stored sets around the
       // new ones, which must not change under them. A concurrent import of the same bytes waits here, then reuses the file row.
       await client.query('select pg_advisory_xact_lock(hashtext($1))', [`element_sets:${craft.id}`]);
+      // The job row turns "imported" in this same transaction: an attempt that waited here behind one that finished
+      // the same job (a worker given up for lost, still running) finds it done and stores nothing.
+      const { rows: now } = await client.query<{ status: string }>('select status from orbit_ingest_jobs where id = $1', [job.id]);
+      if (now[0]?.status !== 'importing') {
+        await client.query('commit');
+        return;
+      }
       // One row per distinct file content.
       // The original text moves from the job row to the file row inside the database, not through this process again.
       const ins = await client.query<{ id: string }>(
@@ -486,8 +511,7 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
         fileId = ex[0]!.id;
       }
       await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [job.id, rows.length]);
-      const progress = (n: number) =>
-        pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [job.id, n]).catch(() => undefined);
+      const progress = (n: number) => progressRows.report(n);
       // The outlier screen of the touched bins runs in turns while the COPY streams (the database does most of
       // that work), so the rows go in once, unflagged, and only the few outliers are marked after.
       // (Its SELECT is queued on this client ahead of the COPY; the settled form keeps a failure from going unhandled.)
@@ -554,6 +578,13 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
           JSON.stringify({ jobId: job.id, filename: job.filename, imported, duplicates: job.duplicateCount + (rows.length - imported) }),
         ],
       );
+      // The last progress row lands before this transaction takes the job row (it would wait for the commit).
+      await progressRows.settled();
+      await client.query(
+        `update orbit_ingest_jobs set status = 'imported', imported_count = $2, file_id = $3, content = null, processed = $4,
+                message = $5, updated_at = now() where id = $1`,
+        [job.id, imported, fileId, rows.length, importMessage(imported, job.duplicateCount + (rows.length - imported))],
+      );
       await client.query('commit');
     } catch (err) {
       await client.query('rollback').catch(() => undefined);
@@ -561,40 +592,11 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     } finally {
       client.release();
     }
-    const skipped = rows.length - imported;
-    await db
-      .update(ingestJobs)
-      .set({
-        status: 'imported',
-        importedCount: imported,
-        fileId,
-        content: null,
-        processed: rows.length,
-        message: importMessage(imported, job.duplicateCount + skipped),
-        updatedAt: new Date(),
-      })
-      .where(eq(ingestJobs.id, job.id));
   }
 
   async function getRow(jobId: string): Promise<JobRow> {
     const [row] = await db.select(jobColumns).from(ingestJobs).where(eq(ingestJobs.id, jobId));
     if (!row) throw uploadNotFound();
-    if (
-      (row.status === 'parsing' || row.status === 'importing') &&
-      !running.has(row.id) &&
-      Date.now() - row.updatedAt.getTime() > STALE_AFTER_MS
-    ) {
-      const [failed] = await db
-        .update(ingestJobs)
-        .set({
-          status: 'failed',
-          message: 'This upload was interrupted (the server restarted) and nothing was imported. Upload the file again.',
-          updatedAt: new Date(),
-        })
-        .where(eq(ingestJobs.id, row.id))
-        .returning(jobColumns);
-      return failed!;
-    }
     return row;
   }
 
@@ -610,50 +612,68 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
     return jobView(row, existing);
   }
 
+  /** Writes the upload row, holding the text, in the caller's transaction: the row is what the worker reads. */
+  async function insertUpload(tx: Db, input: UploadInput) {
+    const craft = await loadCraft(input.spacecraftId);
+    const { text, format } = decodeUpload(input.bytes);
+    const sha = createHash('sha256').update(input.bytes).digest('hex');
+    const [existing] = await tx
+      .select({ id: elementSetFiles.id })
+      .from(elementSetFiles)
+      .where(and(eq(elementSetFiles.spacecraftId, craft.id), eq(elementSetFiles.contentSha256, sha)));
+    const [row] = await tx
+      .insert(ingestJobs)
+      .values({
+        spacecraftId: craft.id,
+        createdBy: input.accountId,
+        status: 'parsing',
+        filename: input.filename.slice(0, 200) || 'pasted.txt',
+        byteSize: input.bytes.length,
+        contentSha256: sha,
+        content: text,
+        format,
+        existingFileId: existing?.id ?? null,
+      })
+      .returning(jobColumns);
+    return row!;
+  }
+
   const service = {
-    /** Stores the upload as a job and starts the preview; nothing goes into element_sets. */
+    /**
+     * Stores the upload (its text on the job row) and enqueues its preview in one transaction; nothing goes into
+     * element_sets. A worker parses it; the client polls getJob for progress.
+     */
     async startUpload(input: UploadInput): Promise<JobView> {
-      const craft = await loadCraft(input.spacecraftId);
-      const { text, format } = decodeUpload(input.bytes);
-      const sha = createHash('sha256').update(input.bytes).digest('hex');
-      const [existing] = await db
-        .select({ id: elementSetFiles.id })
-        .from(elementSetFiles)
-        .where(and(eq(elementSetFiles.spacecraftId, craft.id), eq(elementSetFiles.contentSha256, sha)));
-      const [row] = await db
-        .insert(ingestJobs)
-        .values({
-          spacecraftId: craft.id,
-          createdBy: input.accountId,
-          status: 'parsing',
-          filename: input.filename.slice(0, 200) || 'pasted.txt',
-          byteSize: input.bytes.length,
-          contentSha256: sha,
-          format,
-          existingFileId: existing?.id ?? null,
-        })
-        .returning(jobColumns);
-      // The text is held on the job row (for an import after a restart, and to move into the file row) by the
-      // preview, which writes it while it parses.
-      track(row!.id, () => runPreview(row!.id, text, craft));
-      return view(row!);
+      if (!jobs) throw ingestUnavailable();
+      const row = await withTransaction(pool, async (tx, executor) => {
+        const row = await insertUpload(tx, input);
+        const step: IngestStep = { uploadId: row.id, step: 'preview', accountId: input.accountId };
+        await jobs.send(ELEMENT_SET_INGEST_QUEUE, step, { db: executor, ...sendOptions() });
+        return row;
+      });
+      return view(row);
     },
 
     async getJob(jobId: string): Promise<JobView> {
       return view(await getRow(jobId));
     },
 
-    /** Starts the import of a previewed upload: one transaction, every new set or none. */
+    /** Enqueues the import of a previewed upload (the worker stores every new set in one transaction, or none). */
     async importUpload(jobId: string, accountId: string | null): Promise<JobView> {
+      if (!jobs) throw ingestUnavailable();
       const current = await getRow(jobId);
-      // Only one caller moves a previewed job on; a second click or request finds it no longer previewed.
-      const [row] = await db
-        .update(ingestJobs)
-        .set({ status: 'importing', processed: 0, updatedAt: new Date() })
-        .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.status, 'previewed')))
-        .returning(jobColumns);
-      if (!row) throw uploadNotReady(current.status);
-      track(row.id, () => runImport(row, accountId));
+      const row = await withTransaction(pool, async (tx, executor) => {
+        // Only one caller moves a previewed job on; a second click or request finds it no longer previewed.
+        const [row] = await tx
+          .update(ingestJobs)
+          .set({ status: 'importing', processed: 0, updatedAt: new Date() })
+          .where(and(eq(ingestJobs.id, jobId), eq(ingestJobs.status, 'previewed')))
+          .returning(jobColumns);
+        if (!row) throw uploadNotReady(current.status);
+        const step: IngestStep = { uploadId: jobId, step: 'import', accountId };
+        await jobs.send(ELEMENT_SET_INGEST_QUEUE, step, { db: executor, ...sendOptions() });
+        return row;
+      });
       return view(row);
     },
 
@@ -676,19 +696,51 @@ export function createIngestService({ db, logger }: { db: Db; logger?: Logger })
       return view(row);
     },
 
-    /** Resolves when the job's background work (preview or import) has finished. */
-    async settle(jobId: string): Promise<JobView> {
-      await running.get(jobId);
-      return service.getJob(jobId);
+    /** The worker's part (server/jobs/element-set-ingest.ts): idempotent, so a retried or repeated step changes nothing twice. */
+    async runStep({ uploadId, step, accountId }: IngestStep): Promise<void> {
+      if (step === 'preview') await runPreview(uploadId);
+      else await runImport(uploadId, accountId);
     },
 
-    /** Upload, preview and import in one call — the demo seed and scripts use the same path as the browser. */
+    /** Every attempt of a step failed (or its workers were lost every time): the upload says so and lets go of its text. */
+    async markFailed({ uploadId, step }: IngestStep): Promise<void> {
+      parsedCache.delete(uploadId);
+      await withTransaction(pool, async (tx, executor) => {
+        // An attempt given up for lost may still be importing for this craft (it holds the craft's lock): the upload is
+        // not failed while it runs. Throwing hands this job back to its queue, to look again later.
+        if (step === 'import') {
+          const { rows } = await executor.executeSql(
+            `select pg_try_advisory_xact_lock(hashtext('element_sets:' || spacecraft_id::text)) as free from orbit_ingest_jobs where id = $1`,
+            [uploadId],
+          );
+          if ((rows[0] as { free?: boolean } | undefined)?.free === false) throw new Error('an import for this craft is still running');
+        }
+        await tx
+          .update(ingestJobs)
+          .set({
+            status: 'failed',
+            content: null,
+            message:
+              step === 'preview'
+                ? 'The file could not be checked on our side, so nothing was stored. Upload it again; if it fails again, report it.'
+                : 'The import failed on our side and nothing was stored. Upload the file again; if it fails again, report it.',
+            updatedAt: new Date(),
+          })
+          .where(and(eq(ingestJobs.id, uploadId), eq(ingestJobs.status, step === 'preview' ? 'parsing' : 'importing')));
+      });
+    },
+
+    /** Upload, preview and import in this process, one after the other — the demo seed and scripts (no queue). */
     async ingestText(input: { spacecraftId: string; accountId: string | null; filename: string; text: string }) {
-      const job = await service.startUpload({ ...input, bytes: Buffer.from(input.text, 'utf8') });
-      const previewed = await service.settle(job.id);
-      if (previewed.status !== 'previewed') return previewed;
-      await service.importUpload(job.id, input.accountId);
-      return service.settle(job.id);
+      const row = await insertUpload(db, { ...input, bytes: Buffer.from(input.text, 'utf8') });
+      await runPreview(row.id);
+      const [previewed] = await db
+        .update(ingestJobs)
+        .set({ status: 'importing', processed: 0, updatedAt: new Date() })
+        .where(and(eq(ingestJobs.id, row.id), eq(ingestJobs.status, 'previewed')))
+        .returning({ id: ingestJobs.id });
+      if (previewed) await runImport(row.id, input.accountId);
+      return service.getJob(row.id);
     },
   };
 

@@ -7,6 +7,12 @@ export const spacecraftTaken = (what: 'slug' | 'catalog number') =>
   conflict(`orbit.spacecraft_${what === 'slug' ? 'slug' : 'catalog'}_taken`, `Another spacecraft already uses this ${what}.`);
 export const missionCraftRace = () =>
   conflict('orbit.mission_craft_changed', 'Another craft was marked as the mission craft at the same moment. Reload and try again.');
+export const ingestUnavailable = () =>
+  new AppError(
+    503,
+    'orbit.ingest_unavailable',
+    'Reading element sets needs the background workers, which this server was started without.',
+  );
 export const uploadNotFound = () => notFound('orbit.upload_not_found', 'No upload with this id.');
 export const uploadNotReady = (status: string) =>
   conflict('orbit.upload_not_ready', `This upload is ${status}; only a previewed upload can be imported or cancelled.`);

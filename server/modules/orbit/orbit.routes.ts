@@ -3,6 +3,7 @@ import multer from 'multer';
 import { z } from 'zod';
 import type { Db } from '../../db/client';
 import type { Config } from '../../config';
+import type { JobSender } from '../../jobs/queue';
 import { validated } from '../../middleware/validate';
 import { safeText } from '../../../shared/schemas/text';
 import { requireRole } from '../../middleware/auth';
@@ -30,9 +31,23 @@ type Logger = { error: (obj: unknown, msg?: string) => void };
 
 export type OrbitModule = { ingest: IngestService; orbit: OrbitService; snapshots: SnapshotsService };
 
-export function createOrbitModule({ db, logger }: { db: Db; logger?: Logger }): OrbitModule {
+export function createOrbitModule({
+  db,
+  logger,
+  jobs,
+  config,
+}: {
+  db: Db;
+  logger?: Logger;
+  jobs?: JobSender;
+  config?: Pick<Config, 'INGEST_JOB_EXPIRE_SECONDS'>;
+}): OrbitModule {
   const orbit = createOrbitService({ db });
-  return { ingest: createIngestService({ db, logger }), orbit, snapshots: createSnapshotsService({ db, orbit }) };
+  return {
+    ingest: createIngestService({ db, logger, jobs, expireInSeconds: config?.INGEST_JOB_EXPIRE_SECONDS }),
+    orbit,
+    snapshots: createSnapshotsService({ db, orbit }),
+  };
 }
 
 const engineers = requireRole('engineer', 'admin');

@@ -32,6 +32,33 @@ const slugOf = (name: string) =>
     .replace(/^-+|-+$/g, '')
     .slice(0, 40) || 'object';
 
+/** What the worker has done so far; before it starts, the upload waits in the queue (held, nothing lost). */
+function WorkProgress({ upload }: { upload: Upload }) {
+  const { processed, total } = upload.progress;
+  const parsing = upload.status === 'parsing';
+  const waiting = total === 0;
+  const percent = total > 0 ? Math.floor((processed / total) * 100) : 0;
+  const counted = `${processed.toLocaleString('en-GB')} of ${countOf(total, 'set')}`;
+  const text = waiting
+    ? parsing
+      ? 'Waiting for a worker to read the file — it is stored and will not be lost'
+      : 'Waiting for a worker to start the import'
+    : !parsing && processed >= total
+      ? `Importing — all ${countOf(total, 'set')} sent to the database; storing them and updating the outlier flags`
+      : `${parsing ? 'Checking the sets' : 'Importing'} — ${counted} (${percent} %)`;
+  return (
+    <div className="mb-4 space-y-1.5" data-testid="upload-progress">
+      <p className="text-sm text-foil-200">{text}</p>
+      <ProgressBar
+        label={parsing ? 'Checking the file' : 'Importing the sets'}
+        value={processed}
+        max={total || 1}
+        valueText={waiting ? 'waiting for a worker' : `${counted}, ${percent} %`}
+      />
+    </div>
+  );
+}
+
 export function UploadPanel({ craft }: { craft: Spacecraft }) {
   const queryClient = useQueryClient();
   const fileInput = useRef<HTMLInputElement>(null);
@@ -169,19 +196,7 @@ export function UploadPanel({ craft }: { craft: Spacecraft }) {
               </Badge>
             }
           />
-          {(upload.status === 'parsing' || upload.status === 'importing') && (
-            <div className="space-y-1.5">
-              <p className="text-sm text-foil-200">
-                {upload.status === 'parsing' ? 'Reading and checking the sets' : 'Importing'} —{' '}
-                {upload.progress.processed.toLocaleString('en-GB')} of {upload.progress.total.toLocaleString('en-GB')}
-              </p>
-              <ProgressBar
-                label={upload.status === 'parsing' ? 'Checking' : 'Import'}
-                value={upload.progress.processed}
-                max={upload.progress.total || 1}
-              />
-            </div>
-          )}
+          {(upload.status === 'parsing' || upload.status === 'importing') && <WorkProgress upload={upload} />}
           {upload.status !== 'parsing' && (
             <>
               <dl className="grid grid-cols-3 gap-2 text-center" data-testid="upload-counts">
