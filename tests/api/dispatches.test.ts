@@ -243,6 +243,8 @@ describe('the dispatch desk', () => {
     expect(ok.body.dispatch.heroImagePath).toMatch(/^\/api\/files\/heroes\/[0-9a-f]{24}\.png$/);
     const served = await agentFor(ctx.t.app).get(ok.body.dispatch.heroImagePath).expect(200);
     expect(served.headers['content-type']).toBe('image/png');
+    // Mail clients on other origins must be allowed to draw it.
+    expect(served.headers['cross-origin-resource-policy']).toBe('cross-origin');
 
     const svg = await outreach
       .post(`/api/dispatches/${d.id}/hero`)
@@ -275,6 +277,17 @@ describe('the dispatch desk', () => {
       .set('x-csrf-token', outreach.csrf)
       .attach('file', Buffer.concat([png, Buffer.alloc(ctx.t.config.HERO_IMAGE_MAX_BYTES)]), { filename: 'big.png' });
     expect(tooBig.status).toBe(413);
+
+    // A good image without its description is refused, naming the field; a blank one too.
+    for (const alt of [undefined, '   ']) {
+      const req = outreach.post(`/api/dispatches/${d.id}/hero`).set('x-csrf-token', outreach.csrf);
+      if (alt !== undefined) void req.field('alt', alt);
+      const noAlt = await req.attach('file', png, { filename: 'sail.png' });
+      expect(noAlt.status).toBe(400);
+      expect(noAlt.body.error.code).toBe('dispatches.hero_alt');
+      expect(noAlt.body.error.message).toMatch(/describe the image/i);
+      expect(noAlt.body.error.details).toEqual([{ path: 'alt', message: 'Describe the image for readers who cannot see it' }]);
+    }
     // The failed uploads changed nothing: the first image is still the hero.
     expect((await outreach.get(`/api/dispatches/${d.id}`).expect(200)).body.dispatch.heroImagePath).toBe(ok.body.dispatch.heroImagePath);
   });
