@@ -84,7 +84,7 @@ let world: Awaited<ReturnType<typeof insertTiers>>;
 beforeAll(async () => {
   ctx = await dispatchDesk();
   outreach = ctx.outreach;
-  world = await insertTiers(ctx.t.database.db);
+  world = await insertTiers(ctx.t);
 });
 afterAll(async () => ctx.t.close());
 
@@ -300,7 +300,7 @@ describe('audiences', () => {
     const c = world.campaignId;
     ids = {
       patch: await insertMember(db, c, { email: 'patch@members.example', tierId: world.patch.id }),
-      station: await insertMember(db, c, { email: 'station@members.example', tierId: world.station.id }),
+      station: await insertMember(db, c, { email: 'station@members.example', tierId: world.fragment.id }),
       crew: await insertMember(db, c, { email: 'crew@members.example', tierId: world.crew.id, crewStatus: 'active' }),
       crewEnded: await insertMember(db, c, { email: 'ended@members.example', tierId: world.crew.id, crewStatus: 'canceled' }),
       refunded: await insertMember(db, c, { email: 'refunded@members.example', tierId: world.patch.id, pledgeState: 'refunded' }),
@@ -319,7 +319,7 @@ describe('audiences', () => {
 
   it('selects backers of chosen tiers, crew members, all backers; unsubscribed, refunded, ended and deleted are left out', async () => {
     expect(await emails('tiers', [world.patch.id])).toEqual(['patch@members.example']);
-    expect(await emails('tiers', [world.patch.id, world.station.id])).toEqual(['patch@members.example', 'station@members.example']);
+    expect(await emails('tiers', [world.patch.id, world.fragment.id])).toEqual(['patch@members.example', 'station@members.example']);
     expect(await emails('crew')).toEqual(['crew@members.example']);
     // A crew membership that ended still leaves a paid pledge: that person backed the mission.
     expect(await emails('backers')).toEqual([
@@ -361,7 +361,7 @@ describe('audiences', () => {
     const [demo] = await db.select().from(accounts).where(eq(accounts.email, 'backer@saltmarsh.example'));
     await ctx.t.database.pool.query(
       `insert into pledges (campaign_id, tier_id, backer_id, kind, amount_minor, currency, state, idempotency_key)
-       values ($1, $2, $3, 'one-time', 2500, 'EUR', 'paid', 'demo-backer-patch')`,
+       values ($1, $2, $3, 'one-time', 2500, 'USD', 'paid', 'demo-backer-patch')`,
       [world.campaignId, world.patch.id, demo!.id],
     );
     const open = await backer.get(`/api/public/dispatches/${d.slug}`).expect(200);
