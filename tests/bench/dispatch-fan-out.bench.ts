@@ -58,6 +58,14 @@ function probeLatency(url: string) {
   };
 }
 
+function withinMs<T>(work: Promise<T>, ms: number, what: string): Promise<T> {
+  let timer: NodeJS.Timeout | undefined;
+  const late = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(new Error(`${what} did not answer within ${ms / 1000} s`)), ms);
+  });
+  return Promise.race([work, late]).finally(() => clearTimeout(timer));
+}
+
 async function waitUntil(check: () => boolean | Promise<boolean>, ms: number) {
   const until = Date.now() + ms;
   while (!(await check())) {
@@ -267,10 +275,12 @@ export const benchmarks: Benchmark[] = [
                   tags: [{ name: 'template', value: 'dispatch' }],
                 });
               }
-              const { data: sent, error } = await resend.batch.send(payloads, {
-                idempotencyKey: `bare/${round}/${b}`,
-                batchValidation: 'strict',
-              });
+              // A call that never answers fails the bench in words instead of holding it for ever.
+              const { data: sent, error } = await withinMs(
+                resend.batch.send(payloads, { idempotencyKey: `bare/${round}/${b}`, batchValidation: 'strict' }),
+                120_000,
+                `baseline batch ${b}`,
+              );
               if (!sent) throw new Error(`baseline batch ${b}: ${error?.message}`);
               await bare.pool.query(
                 `update ${table} o set state = 'sent', provider_id = k.pid from unnest($1::bigint[], $2::text[]) as k(id, pid) where o.id = k.id`,
