@@ -135,7 +135,8 @@ export function layoutText(content: EmailContent): string {
         parts.push(htmlToText(renderMarkdown(block.markdown, { baseUrl: block.baseUrl })), '');
         break;
       case 'image':
-        parts.push(`[Chart: ${block.alt}]`, block.src);
+        // Only orbit charts carry the caution line; a hero image is a picture, not a chart.
+        parts.push(`[${block.caution ? 'Chart' : 'Image'}: ${block.alt}]`, block.src);
         if (block.caption) parts.push(wrap(block.caption));
         if (block.caution) parts.push(wrap(block.caution));
         parts.push('');

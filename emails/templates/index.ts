@@ -34,7 +34,9 @@ export const emailDataSchemas = {
     currency,
     receiptUrl: link,
     /** A monthly crew membership: the confirmation says it renews, when, and how to stop it. */
-    renewsMonthly: z.object({ nextRenewalAt: z.union([z.date(), z.iso.datetime({ offset: true })]), manageUrl: link }).optional(),
+    renewsMonthly: z
+      .object({ nextRenewalAt: z.union([z.date(), z.iso.datetime({ offset: true })]).optional(), manageUrl: link })
+      .optional(),
   }),
   'sign-up-attempt': z.object({ displayName: text, signInUrl: link, resetUrl: link }),
   'password-changed': z.object({ displayName: text, changedAt: z.union([z.date(), z.iso.datetime({ offset: true })]), resetUrl: link }),
@@ -151,7 +153,9 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
           ? [
               {
                 kind: 'paragraph' as const,
-                text: `This is a monthly crew membership: ${amount} renews every month. The next renewal is on ${formatWhen(d.renewsMonthly.nextRenewalAt)}. You can stop it at any time from your membership page; stop it before that date and it is not renewed.`,
+                text: d.renewsMonthly.nextRenewalAt
+                  ? `This is a monthly crew membership: ${amount} renews every month. The next renewal is on ${formatWhen(d.renewsMonthly.nextRenewalAt)}. You can stop it at any time from your membership page; stop it before that date and it is not renewed.`
+                  : `This is a monthly crew membership: ${amount} renews every month, a month after each payment. You can stop it at any time from your membership page; it is then not renewed.`,
               },
               { kind: 'button' as const, label: 'Manage or stop my membership', url: d.renewsMonthly.manageUrl },
             ]

@@ -305,11 +305,11 @@ export async function createMailFake(opts: MailFakeOptions = {}): Promise<MailFa
   app.get('/outbox/:id/html', (req, res) => {
     const m = store.find((s) => s.id === req.params.id);
     if (!m || !m.html) return void res.status(404).type('text').send('No HTML part.');
-    // The message HTML is untrusted: no scripts, no network, only framed by the outbox itself.
+    // The message HTML is untrusted: no scripts, no network beyond images on loopback (the local app's charts), framed by the outbox only.
     res
       .set({
         'Content-Security-Policy':
-          "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:; font-src data:; frame-ancestors 'self'",
+          "sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data: http://127.0.0.1:* http://localhost:*; font-src data:; frame-ancestors 'self'",
         'X-Content-Type-Options': 'nosniff',
         'Cache-Control': 'no-store',
       })

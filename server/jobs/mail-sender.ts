@@ -230,17 +230,26 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     await settle(rows, answer, ids);
   }
 
-  /** One pass: claims and sends until nothing is due. Returns how many rows it handled. */
+  /**
+   * One pass: claims and sends until nothing is due. Returns how many rows it handled. Each round takes up to
+   * `concurrency` single messages and up to `concurrency` batches and sends them side by side, so account mail
+   * queued behind a large dispatch waits one round at most, and batch calls overlap the next batch's rendering.
+   */
   async function drain(): Promise<number> {
     let handled = 0;
     for (;;) {
       const singles = await claimSingles(opts.concurrency);
       for (const r of singles) inFlight.add(r.id);
-      await Promise.all(singles.map((r) => sendOne(r).finally(() => inFlight.delete(r.id))));
-      const batch = await claimBatch();
-      if (batch.length) await sendBatch(batch);
-      handled += singles.length + batch.length;
-      if (!singles.length && !batch.length) return handled;
+      const batches: Row[][] = [];
+      while (batches.length < opts.concurrency) {
+        const batch = await claimBatch();
+        if (!batch.length) break;
+        batches.push(batch);
+      }
+      await Promise.all([...singles.map((r) => sendOne(r).finally(() => inFlight.delete(r.id))), ...batches.map((b) => sendBatch(b))]);
+      const batched = batches.reduce((n, b) => n + b.length, 0);
+      handled += singles.length + batched;
+      if (!singles.length && !batched) return handled;
     }
   }
 

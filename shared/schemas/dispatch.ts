@@ -65,6 +65,15 @@ const audience = z
       ctx.addIssue({ code: 'custom', path: ['tierIds'], message: 'Choose at least one tier' });
   });
 
+/** The image types a hero image may be; the server sniffs the bytes, the browser's claim only helps the form. */
+export const HERO_IMAGE_TYPES = ['image/png', 'image/jpeg', 'image/webp', 'image/gif'] as const;
+
+/** The hero image's description: required with every upload, since the image says nothing to a screen reader. */
+export const heroAltSchema = safeText()
+  .trim()
+  .min(1, 'Describe the image for readers who cannot see it')
+  .max(300, 'Keep the description under 300 characters');
+
 export const saveDispatchSchema = z.object({
   title,
   bodyMarkdown,

@@ -111,7 +111,9 @@ async function toApiError(response: Response): Promise<ApiError> {
 
 async function send<T>(method: Method, path: string, body?: unknown, options: RequestOptions = {}, csrf?: string): Promise<T> {
   const headers: Record<string, string> = { accept: 'application/json' };
-  if (body !== undefined) headers['content-type'] = 'application/json';
+  const isForm = typeof FormData !== 'undefined' && body instanceof FormData;
+  // A form (a file upload) sets its own multipart content type with the boundary.
+  if (body !== undefined && !isForm) headers['content-type'] = 'application/json';
   if (csrf) headers[CSRF_HEADER] = csrf;
 
   let response: Response;
@@ -119,7 +121,7 @@ async function send<T>(method: Method, path: string, body?: unknown, options: Re
     response = await fetch(path, {
       method,
       headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
       credentials: 'same-origin',
       signal: options.signal,
     });

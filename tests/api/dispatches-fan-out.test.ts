@@ -64,11 +64,11 @@ function spawnWorker(): Promise<ChildProcess> {
 describe('e-mailing a dispatch to 2,000 members', () => {
   it('delivers exactly one message per member through 429s and a worker killed mid-send', async () => {
     const db = ctx.t.database.db;
-    const world = await insertTiers(db);
+    const world = await insertTiers(ctx.t);
     const ids = await insertManyBackers(db, world.campaignId, world.patch.id, N, 'fan');
     // Two who must not get it: unsubscribed from dispatches, and a backer of another tier.
     await insertMember(db, world.campaignId, { email: 'quiet@members.example', tierId: world.patch.id, dispatches: false });
-    await insertMember(db, world.campaignId, { email: 'other@members.example', tierId: world.station.id });
+    await insertMember(db, world.campaignId, { email: 'other@members.example', tierId: world.fragment.id });
     expect(ids).toHaveLength(N);
 
     const d = await createDispatch(outreach, {
@@ -144,11 +144,11 @@ describe('e-mailing a dispatch to 2,000 members', () => {
 
   it('lists failures per recipient and sends them again on retry', async () => {
     const db = ctx.t.database.db;
-    const world = await insertTiers(db);
-    await insertManyBackers(db, world.campaignId, world.station.id, 150, 'retry');
+    const world = await insertTiers(ctx.t);
+    await insertManyBackers(db, world.campaignId, world.fragment.id, 150, 'retry');
     const d = await createDispatch(outreach, {
       title: 'Station hour holders: a pass tonight',
-      audience: { kind: 'tiers', tierIds: [world.station.id] },
+      audience: { kind: 'tiers', tierIds: [world.fragment.id] },
     });
     await transition(outreach, d.id, { to: 'published' }).expect(200);
     // Publish without e-mail, then e-mail it by hand while the service refuses everything.

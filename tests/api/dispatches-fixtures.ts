@@ -4,11 +4,11 @@ import os from 'node:os';
 import path from 'node:path';
 import type { Db } from '../../server/db/client';
 import { accounts, emailPreferences } from '../../server/modules/accounts/accounts.tables';
-import { campaigns, tiers } from '../../server/modules/campaigns/campaigns.tables';
 import { memberships, pledges } from '../../server/modules/pledges/pledges.tables';
 import { snapshots, spacecraft } from '../../server/modules/orbit/orbit.tables';
 import type { SnapshotData } from '../../shared/charts/snapshot-chart';
 import { createTestApp, agentFor, signIn, type Agent, type TestApp } from '../setup/test-app';
+import { insertCampaign } from './pledges-fixtures';
 import { DEMO_PASSWORD, seedDemoAccounts } from '../../server/demo/accounts';
 
 export const uploadsDir = () => mkdtempSync(path.join(os.tmpdir(), 'lightkeel-uploads-'));
@@ -27,27 +27,10 @@ export async function as(t: TestApp, email: string, password = DEMO_PASSWORD): P
   return a;
 }
 
-export async function insertTiers(db: Db) {
-  const [c] = await db
-    .insert(campaigns)
-    .values({
-      slug: `tern-1-${randomBytes(3).toString('hex')}`,
-      title: 'Tern-1 sail campaign',
-      goalMinor: 4_800_000,
-      currency: 'EUR',
-      startsAt: new Date(Date.now() - 86_400_000),
-      endsAt: new Date(Date.now() + 30 * 86_400_000),
-    })
-    .returning();
-  const rows = await db
-    .insert(tiers)
-    .values([
-      { campaignId: c!.id, title: 'Mission patch', minAmountMinor: 2500, kind: 'one-time' as const, position: 1 },
-      { campaignId: c!.id, title: 'Ground-station hour', minAmountMinor: 9000, kind: 'one-time' as const, position: 2 },
-      { campaignId: c!.id, title: 'Crew membership', minAmountMinor: 800, kind: 'monthly' as const, position: 3 },
-    ])
-    .returning();
-  return { campaignId: c!.id, patch: rows[0]!, station: rows[1]!, crew: rows[2]! };
+/** The shared test campaign (pledges-fixtures) under a fresh slug; its one-time tiers are a patch and a sail fragment. */
+export async function insertTiers(t: TestApp) {
+  const { campaign, tier } = await insertCampaign(t, `tern-1-${randomBytes(3).toString('hex')}`);
+  return { campaignId: campaign.id, patch: tier.patch, fragment: tier.limited, crew: tier.crew };
 }
 
 type Member = { email: string; tierId?: string; pledgeState?: 'paid' | 'refunded' | 'failed'; crewStatus?: string; dispatches?: boolean };
@@ -69,7 +52,7 @@ export async function insertMember(db: Db, campaignId: string, m: Member): Promi
         backerId: a!.id,
         kind,
         amountMinor: 2500,
-        currency: 'EUR',
+        currency: 'USD',
         state: m.pledgeState ?? 'paid',
         idempotencyKey: `fixture-${++seq}-${randomBytes(4).toString('hex')}`,
       })
@@ -98,7 +81,7 @@ export async function insertManyBackers(db: Db, campaignId: string, tierId: stri
   const ids = (made as unknown as { rows: { id: string }[] }).rows.map((r) => r.id);
   await db.execute(
     `insert into pledges (campaign_id, tier_id, backer_id, kind, amount_minor, currency, state, idempotency_key)
-       select '${campaignId}', '${tierId}', a.id, 'one-time', 2500, 'EUR', 'paid', 'bulk-' || a.id from accounts a
+       select '${campaignId}', '${tierId}', a.id, 'one-time', 2500, 'USD', 'paid', 'bulk-' || a.id from accounts a
         where a.email like '${prefix}-%@members.example'` as never,
   );
   return ids;

@@ -84,7 +84,7 @@ let world: Awaited<ReturnType<typeof insertTiers>>;
 beforeAll(async () => {
   ctx = await dispatchDesk();
   outreach = ctx.outreach;
-  world = await insertTiers(ctx.t.database.db);
+  world = await insertTiers(ctx.t);
 });
 afterAll(async () => ctx.t.close());
 
@@ -243,6 +243,8 @@ describe('the dispatch desk', () => {
     expect(ok.body.dispatch.heroImagePath).toMatch(/^\/api\/files\/heroes\/[0-9a-f]{24}\.png$/);
     const served = await agentFor(ctx.t.app).get(ok.body.dispatch.heroImagePath).expect(200);
     expect(served.headers['content-type']).toBe('image/png');
+    // Mail clients on other origins must be allowed to draw it.
+    expect(served.headers['cross-origin-resource-policy']).toBe('cross-origin');
 
     const svg = await outreach
       .post(`/api/dispatches/${d.id}/hero`)
@@ -275,6 +277,17 @@ describe('the dispatch desk', () => {
       .set('x-csrf-token', outreach.csrf)
       .attach('file', Buffer.concat([png, Buffer.alloc(ctx.t.config.HERO_IMAGE_MAX_BYTES)]), { filename: 'big.png' });
     expect(tooBig.status).toBe(413);
+
+    // A good image without its description is refused, naming the field; a blank one too.
+    for (const alt of [undefined, '   ']) {
+      const req = outreach.post(`/api/dispatches/${d.id}/hero`).set('x-csrf-token', outreach.csrf);
+      if (alt !== undefined) void req.field('alt', alt);
+      const noAlt = await req.attach('file', png, { filename: 'sail.png' });
+      expect(noAlt.status).toBe(400);
+      expect(noAlt.body.error.code).toBe('dispatches.hero_alt');
+      expect(noAlt.body.error.message).toMatch(/describe the image/i);
+      expect(noAlt.body.error.details).toEqual([{ path: 'alt', message: 'Describe the image for readers who cannot see it' }]);
+    }
     // The failed uploads changed nothing: the first image is still the hero.
     expect((await outreach.get(`/api/dispatches/${d.id}`).expect(200)).body.dispatch.heroImagePath).toBe(ok.body.dispatch.heroImagePath);
   });
@@ -287,7 +300,7 @@ describe('audiences', () => {
     const c = world.campaignId;
     ids = {
       patch: await insertMember(db, c, { email: 'patch@members.example', tierId: world.patch.id }),
-      station: await insertMember(db, c, { email: 'station@members.example', tierId: world.station.id }),
+      station: await insertMember(db, c, { email: 'station@members.example', tierId: world.fragment.id }),
       crew: await insertMember(db, c, { email: 'crew@members.example', tierId: world.crew.id, crewStatus: 'active' }),
       crewEnded: await insertMember(db, c, { email: 'ended@members.example', tierId: world.crew.id, crewStatus: 'canceled' }),
       refunded: await insertMember(db, c, { email: 'refunded@members.example', tierId: world.patch.id, pledgeState: 'refunded' }),
@@ -306,7 +319,7 @@ describe('audiences', () => {
 
   it('selects backers of chosen tiers, crew members, all backers; unsubscribed, refunded, ended and deleted are left out', async () => {
     expect(await emails('tiers', [world.patch.id])).toEqual(['patch@members.example']);
-    expect(await emails('tiers', [world.patch.id, world.station.id])).toEqual(['patch@members.example', 'station@members.example']);
+    expect(await emails('tiers', [world.patch.id, world.fragment.id])).toEqual(['patch@members.example', 'station@members.example']);
     expect(await emails('crew')).toEqual(['crew@members.example']);
     // A crew membership that ended still leaves a paid pledge: that person backed the mission.
     expect(await emails('backers')).toEqual([
@@ -348,7 +361,7 @@ describe('audiences', () => {
     const [demo] = await db.select().from(accounts).where(eq(accounts.email, 'backer@saltmarsh.example'));
     await ctx.t.database.pool.query(
       `insert into pledges (campaign_id, tier_id, backer_id, kind, amount_minor, currency, state, idempotency_key)
-       values ($1, $2, $3, 'one-time', 2500, 'EUR', 'paid', 'demo-backer-patch')`,
+       values ($1, $2, $3, 'one-time', 2500, 'USD', 'paid', 'demo-backer-patch')`,
       [world.campaignId, world.patch.id, demo!.id],
     );
     const open = await backer.get(`/api/public/dispatches/${d.slug}`).expect(200);

@@ -53,6 +53,42 @@ describe('crew memberships (monthly tiers)', () => {
     expect(ledger[0]!.processorInvoiceId).toMatch(/^in_/);
   });
 
+  it('confirms a monthly pledge saying it renews monthly, on the processor period end, and how to stop it', async () => {
+    const agent = await signedInAgent(w, 'admin@saltmarsh.example');
+    const { pledgeId, membership } = await subscribe(agent, 900);
+    await w.t.flushMail();
+    const mails = w.t.mail
+      .messages()
+      .filter((m) => [m.to].flat().includes('admin@saltmarsh.example') && /Thank you for backing/.test(m.subject));
+    expect(mails).toHaveLength(1);
+    // The text alternative wraps its lines; compare words.
+    const text = String(mails[0]!.text).replace(/\s+/g, ' ');
+    expect(text).toMatch(/renews every month/);
+    // The date in the mail is the processor's own period end, read back through the SDK from the fake.
+    const sub = await w.stripe.subscriptions.retrieve((await pledgeRow(w, pledgeId)).subscriptionId!);
+    const periodEnd = new Date(sub.items.data[0]!.current_period_end * 1000);
+    expect(periodEnd.toISOString()).toBe(membership.currentPeriodEnd);
+    // en-GB long date, 24-hour time, UTC: "3 January 2027 at 09:04 UTC" (CLDR en-GB patterns, from memory).
+    const months = 'January February March April May June July August September October November December'.split(' ');
+    const hhmm = `${String(periodEnd.getUTCHours()).padStart(2, '0')}:${String(periodEnd.getUTCMinutes()).padStart(2, '0')}`;
+    const shown = `${periodEnd.getUTCDate()} ${months[periodEnd.getUTCMonth()]} ${periodEnd.getUTCFullYear()} at ${hhmm} UTC`;
+    expect(text).toContain(`The next renewal is on ${shown}`);
+    expect(text).toContain(`${w.baseUrl}/my-support/memberships`);
+    expect(text).toMatch(/stop it at any time/);
+
+    // A one-time pledge's confirmation says nothing about renewing.
+    const once = await startPledge(agent, { tierId: w.tier.patch.id, amountMinor: w.tier.patch.minAmountMinor });
+    expect(once.status, JSON.stringify(once.body)).toBe(201);
+    expect((await payOnHostedPage(once.body.checkoutUrl, CARDS.ok)).status).toBe(303);
+    await settle(w);
+    await w.t.flushMail();
+    const all = w.t.mail
+      .messages()
+      .filter((m) => [m.to].flat().includes('admin@saltmarsh.example') && /Thank you for backing/.test(m.subject));
+    expect(all).toHaveLength(2);
+    expect(String(all.find((m) => m !== mails[0])!.text)).not.toMatch(/renew/i);
+  });
+
   it('renews when the fake clock passes the period end: a second charge lands in the ledger', async () => {
     const agent = await signedInAgent(w, 'engineer@saltmarsh.example');
     const { pledgeId, membership } = await subscribe(agent, 1200);
@@ -87,6 +123,20 @@ describe('crew memberships (monthly tiers)', () => {
     expect(failed).toHaveLength(1);
     expect(String(failed[0]!.html)).toContain(`${w.baseUrl}/my-support/memberships/${membership.id}/card`);
     expect(String(failed[0]!.html)).toMatch(/try again on/i);
+    // The retry date in the mail is the processor's next attempt on the open renewal invoice.
+    const open = await w.stripe.invoices.list({ customer: row.processorCustomerId!, status: 'open' });
+    expect(open.data).toHaveLength(1);
+    const nextAttempt = new Date(open.data[0]!.next_payment_attempt! * 1000);
+    const months = 'January February March April May June July August September October November December'.split(' ');
+    const hhmm = `${String(nextAttempt.getUTCHours()).padStart(2, '0')}:${String(nextAttempt.getUTCMinutes()).padStart(2, '0')}`;
+    expect(String(failed[0]!.text).replace(/\s+/g, ' ')).toContain(
+      `We will try again on ${nextAttempt.getUTCDate()} ${months[nextAttempt.getUTCMonth()]} ${nextAttempt.getUTCFullYear()} at ${hhmm} UTC.`,
+    );
+    const { rows: queued } = await w.t.database.pool.query(
+      `select data->>'nextAttemptAt' as at from mail_queue where template = 'renewal-failed' and to_address = $1`,
+      ['finance@saltmarsh.example'],
+    );
+    expect(queued.map((r: { at: string }) => Date.parse(r.at))).toEqual([nextAttempt.getTime()]);
 
     const status = (await agent.get('/api/my-support/memberships').expect(200)).body.memberships.find(
       (m: { id: string }) => m.id === membership.id,

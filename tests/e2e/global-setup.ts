@@ -23,6 +23,8 @@ declare module 'vitest' {
     baseUrl: string;
     outboxUrl: string;
     paymentsUrl: string;
+    /** For tests that declare their own rows (backers of a tier …) beside the demo seed. */
+    databaseUrl: string;
   }
 }
 
@@ -76,6 +78,7 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', config.PUBLIC_URL);
   project.provide('outboxUrl', `http://127.0.0.1:${mailPort}`);
   project.provide('paymentsUrl', `http://127.0.0.1:${payPort}`);
+  project.provide('databaseUrl', config.DATABASE_URL);
 
   return async () => {
     await new Promise((r) => server.close(r));

@@ -39,3 +39,7 @@ export const imageTooManyPixels = (w: number, h: number, max: number) =>
   );
 export const imageMissing = () =>
   badRequest('dispatches.image_missing', 'Choose an image file to upload (field "file").', [{ path: 'file', message: 'required' }]);
+export const heroAltInvalid = (message: string) =>
+  badRequest('dispatches.hero_alt', `The hero image needs a description: ${message.charAt(0).toLowerCase()}${message.slice(1)}.`, [
+    { path: 'alt', message },
+  ]);

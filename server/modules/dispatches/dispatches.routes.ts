@@ -66,7 +66,7 @@ export function createDispatchesRouter({
   router.get(
     '/:id',
     validated({ params: idParams }, async (_req, res, { params }) => {
-      res.set('Cache-Control', 'no-store').json({ dispatch: await dispatches.get(params.id) });
+      res.set('Cache-Control', 'no-store').json({ dispatch: await dispatches.get(params.id), heroLimits: { maxBytes: heroLimitBytes } });
     }),
   );
   router.put(

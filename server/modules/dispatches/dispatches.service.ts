@@ -24,6 +24,7 @@ import {
   type PublicDispatchView,
   type SaveDispatch,
   type TransitionDispatch,
+  heroAltSchema,
 } from '../../../shared/schemas/dispatch';
 import { dispatches, dispatchSends, dispatchVersions, storedFiles, type StoredDispatchChart } from './dispatches.tables';
 import {
@@ -31,6 +32,7 @@ import {
   badTransition,
   dispatchNotFound,
   jobsUnavailable,
+  heroAltInvalid,
   notPublished,
   snapshotMissing,
   tierMissing,
@@ -269,6 +271,8 @@ export function createDispatchesService(deps: DispatchesServiceDeps) {
     async setHero(actor: Actor, id: string, file: Buffer | undefined, alt: string | undefined): Promise<DispatchDetail> {
       await load(id);
       const img = checkHeroImage(file, { maxBytes: deps.config.HERO_IMAGE_MAX_BYTES, maxPixels: deps.config.HERO_IMAGE_MAX_PIXELS });
+      const altParsed = heroAltSchema.safeParse(alt ?? '');
+      if (!altParsed.success) throw heroAltInvalid(altParsed.error.issues[0]!.message);
       const key = randomKey('heroes', img.ext);
       const row = await db.transaction(async (tx) => {
         await storeFile(tx, key, file!, {
@@ -280,7 +284,7 @@ export function createDispatchesService(deps: DispatchesServiceDeps) {
         });
         const [updated] = await tx
           .update(dispatches)
-          .set({ heroImageKey: key, ...(alt !== undefined ? { heroAlt: alt.trim().slice(0, 300) } : {}), updatedAt: new Date() })
+          .set({ heroImageKey: key, heroAlt: altParsed.data, updatedAt: new Date() })
           .where(eq(dispatches.id, id))
           .returning();
         await recordAudit(tx, { actorId: actor.id, action: 'dispatch.hero_set', subjectType: 'dispatch', subjectId: id, after: { key } });

@@ -42,6 +42,9 @@ export function createFilesRouter({ dispatches }: { dispatches: DispatchesServic
     res
       .set('Cache-Control', 'public, max-age=31536000, immutable')
       .set('Content-Disposition', 'inline')
+      // These images are shown inside e-mail, on a mail client's own origin: helmet's default (same-origin)
+      // would make a browser-based mail client refuse to draw them.
+      .set('Cross-Origin-Resource-Policy', 'cross-origin')
       .type(file.contentType)
       .send(file.bytes);
   });

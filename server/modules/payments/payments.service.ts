@@ -204,6 +204,7 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
         .select({ id: receipts.id })
         .from(receipts)
         .where(and(eq(receipts.ledgerEntryId, charge.id), isNull(receipts.voidedAt)));
+      const renewsMonthly = row.pledge.kind === 'monthly' ? await monthlyRenewal(tx, row.pledge) : null;
       // The pledge's confirmationSentAt claim (pledge-ledger.ts) and this row commit together.
       await queueMail(tx, {
         attachments: receipt ? [{ kind: 'receipt', receiptId: receipt.id }] : [],
@@ -219,9 +220,24 @@ export function createPaymentsService(deps: { db: Db; config: Config; processor:
           amountMinor: charge.amountMinor,
           currency: charge.currency,
           receiptUrl: `${config.PUBLIC_URL}/my-support/receipts/${charge.id}`,
+          ...(renewsMonthly ? { renewsMonthly } : {}),
         },
       });
     };
+  }
+
+  /**
+   * When a monthly pledge renews, for its confirmation. The membership row holds the processor's period end
+   * once an invoice event was applied; when the first charge's event came first, the subscription is read
+   * from the processor (and recorded), so the date in the mail is always the processor's own.
+   */
+  async function monthlyRenewal(tx: Tx, pledge: PledgeRow): Promise<{ nextRenewalAt?: Date; manageUrl: string } | null> {
+    let [membership] = await tx.select().from(memberships).where(eq(memberships.pledgeId, pledge.id));
+    if ((!membership || !membership.currentPeriodEnd) && pledge.subscriptionId) {
+      membership = await upsertMembership(tx, pledge, await stripe.subscriptions.retrieve(pledge.subscriptionId));
+    }
+    const manageUrl = `${config.PUBLIC_URL}/my-support/memberships`;
+    return membership?.currentPeriodEnd ? { nextRenewalAt: membership.currentPeriodEnd, manageUrl } : { manageUrl };
   }
 
   function renewalFailedMail(pledgeId: string, membershipId: string, invoice: Stripe.Invoice): AfterCommit {

@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 import { dispatchKeys } from './keys';
 
 export function getDispatch({ id, signal }: { id: string; signal?: AbortSignal }) {
-  return api.get<{ dispatch: DispatchDetail }>(`/api/dispatches/${encodeURIComponent(id)}`, { signal });
+  return api.get<{ dispatch: DispatchDetail; heroLimits: { maxBytes: number } }>(`/api/dispatches/${encodeURIComponent(id)}`, { signal });
 }
 export const getDispatchQueryOptions = (id: string) =>
   queryOptions({ queryKey: dispatchKeys.one(id), queryFn: ({ signal }) => getDispatch({ id, signal }) });

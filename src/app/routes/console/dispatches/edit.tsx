@@ -12,6 +12,8 @@ import { useDispatch } from '@/features/dispatches/api/get-dispatch';
 import { previewMarkdown, useSaveDispatch, useTransitionDispatch } from '@/features/dispatches/api/save-dispatch';
 import { useSnapshotChoices } from '@/features/dispatches/api/get-snapshot-choices';
 import { SendProgress } from '@/features/dispatches/components/send-progress';
+import { SnapshotPicker } from '@/features/dispatches/components/snapshot-picker';
+import { HeroImageField } from '@/features/dispatches/components/hero-image-field';
 import { useCampaignTiers } from '@/features/dispatches/api/get-tiers';
 
 export function Component() {
@@ -19,10 +21,23 @@ export function Component() {
   const q = useDispatch(id);
   if (id !== 'new' && q.isPending) return <Spinner label="Loading the dispatch…" />;
   if (q.isError) return <Alert title="This dispatch could not load">{errorMessage(q.error)}</Alert>;
-  return <Editor key={id} initial={id === 'new' ? null : (q.data?.dispatch ?? null)} />;
+  return (
+    <Editor
+      key={id}
+      initial={id === 'new' ? null : (q.data?.dispatch ?? null)}
+      heroMaxBytes={q.data?.heroLimits.maxBytes ?? DEFAULT_HERO_MAX_BYTES}
+    />
+  );
 }
 
-function Editor({ initial }: { initial: DispatchDetail | null }) {
+// The stylesheet has no typography plugin: lists, links and headings of the rendered Markdown get their shape here.
+const RENDERED_MARKDOWN =
+  '[&_p]:mt-2 [&_ul]:mt-2 [&_ul]:list-disc [&_ul]:pl-6 [&_ol]:mt-2 [&_ol]:list-decimal [&_ol]:pl-6 [&_a]:text-amber-300 [&_a]:underline [&_h2]:mt-4 [&_h2]:text-xl [&_h2]:font-bold [&_h3]:mt-3 [&_h3]:font-bold [&_blockquote]:border-l-2 [&_blockquote]:border-foil-600 [&_blockquote]:pl-3';
+
+// Only shown before the dispatch exists (the server's own limit arrives with the dispatch).
+const DEFAULT_HERO_MAX_BYTES = 5 * 1024 * 1024;
+
+function Editor({ initial, heroMaxBytes }: { initial: DispatchDetail | null; heroMaxBytes: number }) {
   useDocumentTitle(initial ? initial.title : 'New dispatch');
   const navigate = useNavigate();
   const [title, setTitle] = useState(initial?.title ?? '');
@@ -31,6 +46,7 @@ function Editor({ initial }: { initial: DispatchDetail | null }) {
   const [tierIds, setTierIds] = useState<string[]>(initial?.audience.tierIds ?? []);
   const [chartId, setChartId] = useState(initial?.charts[0]?.snapshotId ?? '');
   const [chartAlt, setChartAlt] = useState(initial?.charts[0]?.alt ?? '');
+  const [heroAlt, setHeroAlt] = useState(initial?.heroAlt ?? '');
   const [email, setEmail] = useState(initial?.emailOnPublish ?? false);
   const [publishAt, setPublishAt] = useState('');
   const [preview, setPreview] = useState(initial?.bodyHtml ?? '');
@@ -59,8 +75,16 @@ function Editor({ initial }: { initial: DispatchDetail | null }) {
     audience: { kind, tierIds: kind === 'tiers' ? tierIds : [] },
     charts: chartId ? [{ snapshotId: chartId, alt: chartAlt }] : [],
     emailOnPublish: email,
-    heroAlt: initial?.heroAlt ?? '',
+    heroAlt,
   };
+  // The saved chart shows its frozen PNG; a newly picked one shows the orbit desk's drawing until saved.
+  const savedChart = initial?.charts.find((c) => c.snapshotId === chartId);
+  const pickedChart = (snaps.data?.snapshots ?? []).find((s) => s.id === chartId);
+  const chosenChart = savedChart
+    ? { src: savedChart.imagePath, caption: savedChart.caption || savedChart.title }
+    : pickedChart
+      ? { src: `/api/orbit/snapshots/${pickedChart.id}/chart.svg`, caption: pickedChart.caption || pickedChart.title }
+      : null;
   const onSave = () =>
     save.mutate(input, { onSuccess: (d) => void (!initial && navigate(`/console/dispatches/${d.id}`, { replace: true })) });
 
@@ -117,23 +141,16 @@ function Editor({ initial }: { initial: DispatchDetail | null }) {
               </div>
             )}
           </fieldset>
-          <label className="block">
-            <span className="font-semibold">Chart snapshot</span>
-            <select
-              className="mt-1 block w-full rounded-md border border-foil-700 bg-night-900 p-2"
-              value={chartId}
-              onChange={(e) => setChartId(e.target.value)}
-            >
-              <option value="">No chart</option>
-              {(snaps.data?.snapshots ?? []).map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.title}
-                </option>
-              ))}
-            </select>
-          </label>
+          <SnapshotPicker value={chartId} onChange={setChartId} />
           {chartId && (
             <TextField label="Chart description (alt text)" value={chartAlt} onChange={(e) => setChartAlt(e.target.value)} required />
+          )}
+          {initial ? (
+            <HeroImageField dispatch={initial} maxBytes={heroMaxBytes} alt={heroAlt} onAltChange={setHeroAlt} />
+          ) : (
+            <p className="rounded-xl border border-foil-800 p-3 text-sm text-foil-300">
+              <span className="font-semibold text-foil-100">Hero image:</span> save the draft first, then add an image here.
+            </p>
           )}
           <label className="inline-flex items-center gap-2">
             <input type="checkbox" checked={email} onChange={(e) => setEmail(e.target.checked)} />
@@ -184,13 +201,14 @@ function Editor({ initial }: { initial: DispatchDetail | null }) {
           </h2>
           <h3 className="mt-2 text-2xl font-bold">{title || 'Untitled'}</h3>
           {/* Sanitised on the server by the one renderer shared with the public page and the e-mail. */}
-          <div className="prose prose-invert mt-3 max-w-none" dangerouslySetInnerHTML={{ __html: preview }} />
-          {initial?.charts.map((c) => (
-            <figure key={c.snapshotId} className="mt-4">
-              <img src={c.imagePath} alt={c.alt} className="w-full rounded-lg" />
-              <figcaption className="text-sm text-foil-300">{c.caption || c.title}</figcaption>
+          <div className={`prose prose-invert mt-3 max-w-none ${RENDERED_MARKDOWN}`} dangerouslySetInnerHTML={{ __html: preview }} />
+          {initial?.heroImagePath && <img src={initial.heroImagePath} alt={heroAlt} className="mt-3 w-full rounded-lg" />}
+          {chosenChart && (
+            <figure className="mt-4">
+              <img src={chosenChart.src} alt={chartAlt} className="w-full rounded-lg bg-night-900" />
+              <figcaption className="text-sm text-foil-300">{chosenChart.caption}</figcaption>
             </figure>
-          ))}
+          )}
         </section>
       </div>
       {initial && initial.state === 'published' && <SendProgress id={initial.id} />}

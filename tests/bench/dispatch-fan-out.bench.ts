@@ -1,0 +1,350 @@
+// dispatch.fan-out: a dispatch e-mailed to 10,000 members through the product's path — publish over HTTP, the
+// pg-boss fan-out job writing the mail queue, the mail sender rendering each message and sending batches
+// through the resend SDK to the local mail fake — timed from the publish request to the last message accepted.
+// The bare baseline does the same work in the same run without the machinery: the same recipients query, the
+// same per-member data rows written to a plain table in one transaction, the same template rendered per
+// message, the same batch calls (same size, same idempotency key, same concurrency) through the same SDK to the
+// same fake, and each batch marked sent in its own commit, on the same cluster (same durability).
+// Ratio = our delivered messages per second ÷ the baseline's. The web process's latency is probed throughout.
+import { mkdtempSync } from 'node:fs';
+import type { Server } from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
+import pg from 'pg';
+import pino from 'pino';
+import request from 'supertest';
+import { Resend } from 'resend';
+import { loadConfig } from '../../server/config';
+import { createApp } from '../../server/app';
+import { createDb } from '../../server/db/client';
+import { createJobs } from '../../server/jobs';
+import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
+import { DEMO_PASSWORD, seedDemoAccounts } from '../../server/demo/accounts';
+import { createMailFake } from '../../fakes/mail/server';
+import { renderEmail } from '../../emails/render';
+import { resolveRecipients } from '../../server/modules/dispatches/audience';
+import { listUnsubscribeHeaders, unsubscribeUrls } from '../../server/modules/dispatches/dispatch-sending';
+import { campaigns, tiers } from '../../server/modules/campaigns/campaigns.tables';
+import { median, type Benchmark } from './harness';
+
+const N = 10_000;
+const TITLE = 'Ten thousand backers: the sail at full stretch';
+
+function percentile(values: number[], p: number): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.floor((p / 100) * s.length))] ?? NaN;
+}
+
+/** GETs a public page one request after another until stopped; returns each latency in ms. */
+function probeLatency(url: string) {
+  const times: number[] = [];
+  let running = true;
+  const done = (async () => {
+    while (running) {
+      const t0 = performance.now();
+      const res = await fetch(url);
+      await res.arrayBuffer();
+      if (!res.ok) throw new Error(`probe answered ${res.status}`);
+      times.push(performance.now() - t0);
+      await new Promise((r) => setTimeout(r, 20));
+    }
+  })();
+  return {
+    stop: async () => {
+      running = false;
+      await done;
+      return times;
+    },
+  };
+}
+
+function withinMs<T>(work: Promise<T>, ms: number, what: string): Promise<T> {
+  let timer: NodeJS.Timeout | undefined;
+  const late = new Promise<never>((_, reject) => {
+    timer = setTimeout(() => reject(new Error(`${what} did not answer within ${ms / 1000} s`)), ms);
+  });
+  return Promise.race([work, late]).finally(() => clearTimeout(timer));
+}
+
+async function waitUntil(check: () => boolean | Promise<boolean>, ms: number) {
+  const until = Date.now() + ms;
+  while (!(await check())) {
+    if (Date.now() > until) throw new Error('timed out');
+    await new Promise((r) => setTimeout(r, 25));
+  }
+}
+
+export const benchmarks: Benchmark[] = [
+  {
+    id: 'dispatch.fan-out',
+    goal: 0.8,
+    better: 'higher',
+    run: async ({ pgAdminUrl, pgTemplate, log }) => {
+      const dbName = `bench_fanout_${process.pid}`;
+      const admin = new pg.Client({ connectionString: pgAdminUrl });
+      await admin.connect();
+      await admin.query(`DROP DATABASE IF EXISTS ${dbName}`);
+      await admin.query(`CREATE DATABASE ${dbName} TEMPLATE ${pgTemplate}`);
+      const url = pgAdminUrl.replace(/\/[^/]*$/, `/${dbName}`);
+      const mail = await createMailFake({ port: 0, apiKey: 're_bench_key' });
+      const config = loadConfig({
+        NODE_ENV: 'test',
+        LOG_LEVEL: 'silent',
+        DATABASE_URL: url,
+        PUBLIC_URL: 'http://127.0.0.1:3999',
+        RESEND_API_KEY: 're_bench_key',
+        RESEND_BASE_URL: mail.url,
+        SESSION_SECRET: 'bench-session-secret-0123456789',
+        UPLOADS_DIR: mkdtempSync(path.join(os.tmpdir(), 'lightkeel-bench-uploads-')),
+        // The mail sender wakes on the queue's notification; the poll is only its fallback.
+        MAIL_POLL_MS: '2000',
+      });
+      // Web and worker as `npm start` runs them: two pools, a job sender in the web app, workers beside it.
+      const web = createDb(url, { max: 10 });
+      const work = createDb(url, { max: 10 });
+      const bare = createDb(url, { max: 10 });
+      for (const p of [web.pool, work.pool, bare.pool]) p.on('error', () => undefined);
+      const logger = pino({ level: 'silent' });
+      const webJobs = createJobs({ pool: web.pool, db: web.db, config, logger });
+      const workerJobs = createJobs({ pool: work.pool, db: work.db, config, logger, worker: true });
+      let server: Server | undefined;
+      try {
+        await seedDemoAccounts(web.db);
+        const [c] = await web.db
+          .insert(campaigns)
+          .values({
+            slug: 'tern-1-bench',
+            title: 'Tern-1 sail campaign',
+            goalMinor: 4_800_000,
+            currency: 'EUR',
+            startsAt: new Date(Date.now() - 86_400_000),
+            endsAt: new Date(Date.now() + 30 * 86_400_000),
+          })
+          .returning();
+        const [patch] = await web.db
+          .insert(tiers)
+          .values({ campaignId: c!.id, title: 'Mission patch', minAmountMinor: 2500, kind: 'one-time', position: 1 })
+          .returning();
+        await web.pool.query(
+          `insert into accounts (email, display_name) select 'm' || g || '@members.example', 'Member ' || g from generate_series(1, $1::int) g`,
+          [N],
+        );
+        await web.pool.query(
+          `insert into pledges (campaign_id, tier_id, backer_id, kind, amount_minor, currency, state, idempotency_key)
+           select $1, $2, a.id, 'one-time', 2500, 'EUR', 'paid', 'bench-' || a.id from accounts a where a.email like 'm%@members.example'`,
+          [c!.id, patch!.id],
+        );
+        await web.pool.query('analyze');
+        log(`seeded ${N} members backing one tier`);
+
+        await webJobs.start();
+        await workerJobs.start();
+        await workerJobs.work();
+        const app = createApp({
+          db: web.db,
+          pool: web.pool,
+          config,
+          jobs: webJobs,
+          mailer: createMailerFromConfig(config),
+          stripe: createStripeFromConfig(config),
+        });
+        server = await new Promise<Server>((resolve) => {
+          const s = app.listen(0, '127.0.0.1', () => resolve(s));
+        });
+        const base = `http://127.0.0.1:${(server.address() as { port: number }).port}`;
+        const agent = request.agent(app);
+        const csrf = async () => (await agent.get('/api/auth/csrf').expect(200)).body.csrfToken as string;
+        const signInToken = await csrf();
+        await agent
+          .post('/api/auth/sign-in')
+          .set('x-csrf-token', signInToken)
+          .send({ email: 'outreach@saltmarsh.example', password: DEMO_PASSWORD })
+          .expect(200);
+        const token = await csrf();
+        const body = [
+          'The sail has been at **full stretch** for ten days.',
+          '',
+          '- apogee up 1.2 km',
+          '- perigee steady',
+          '',
+          'Thank you for backing the flight.',
+        ].join('\n');
+        const probeUrl = `${base}/api/public/dispatches`;
+        const resend = new Resend(config.RESEND_API_KEY, { baseUrl: mail.url });
+        const size = config.DISPATCH_BATCH_SIZE;
+
+        // Warm-up: the template engine's first render loads its modules; neither side should pay for it.
+        await renderEmail('verify-email', { displayName: 'Warm', verifyUrl: 'http://127.0.0.1:3999/v' });
+
+        // Idle latency of the web process, before any fan-out.
+        const idleProbe = probeLatency(probeUrl);
+        await new Promise((r) => setTimeout(r, 2000));
+        const idle = await idleProbe.stop();
+
+        /** Ours: a new dispatch published over HTTP; the jobs do the rest. Returns ms and the web latencies meanwhile. */
+        const runOurs = async (round: number) => {
+          const title = `${TITLE} (round ${round})`;
+          const created = await agent
+            .post('/api/dispatches')
+            .set('x-csrf-token', token)
+            .send({ title, bodyMarkdown: body, audience: { kind: 'tiers', tierIds: [patch!.id] }, emailOnPublish: true })
+            .expect(201);
+          const dispatchId = created.body.dispatch.id as string;
+          const ours = (m: { subject: string }) => m.subject === title;
+          mail.clear();
+          const probe = probeLatency(probeUrl);
+          const t0 = performance.now();
+          await agent.post(`/api/dispatches/${dispatchId}/transition`).set('x-csrf-token', token).send({ to: 'published' }).expect(200);
+          await waitUntil(() => mail.messages().some(ours), 600_000);
+          const firstMs = performance.now() - t0;
+          await waitUntil(() => mail.messages().filter(ours).length >= N, 600_000);
+          const ms = performance.now() - t0;
+          const latencies = await probe.stop();
+          const delivered = mail.messages().filter(ours);
+          const perAddress = new Set(delivered.flatMap((m) => m.to));
+          if (delivered.length !== N || perAddress.size !== N) throw new Error(`ours: ${delivered.length} messages to ${perAddress.size}`);
+          const { rows: states } = await web.pool.query<{ state: string; n: number }>(
+            `select state, count(*)::int n from mail_queue where template = 'dispatch' and idempotency_key like $1 group by state`,
+            [`dispatch/${dispatchId}/%`],
+          );
+          if (states.length !== 1 || states[0]!.state !== 'sent') throw new Error(`queue states: ${JSON.stringify(states)}`);
+          log(
+            `round ${round} ours: ${(ms / 1000).toFixed(1)} s (${((N / ms) * 1000).toFixed(0)} msg/s), first after ${(firstMs / 1000).toFixed(1)} s`,
+          );
+          return { ms, latencies, dispatchId };
+        };
+
+        /** The bare loop: the same recipients, data rows, renders and batch calls, without the queue machinery. */
+        const runBare = async (round: number, shared: Record<string, unknown>) => {
+          const table = `bare_outbox_${round}`;
+          await bare.pool.query(
+            `create table ${table} (id bigserial primary key, key text unique not null, batch int not null, to_address text not null,
+               data jsonb not null, headers jsonb not null, state text not null default 'queued', provider_id text)`,
+          );
+          mail.clear();
+          // The web process is probed during the baseline too, so both sides share the process with the same load.
+          const probe = probeLatency(probeUrl);
+          const t1 = performance.now();
+          const recipients = await resolveRecipients(bare.db, { kind: 'tiers', tierIds: [patch!.id] });
+          const keys: string[] = [];
+          const to: string[] = [];
+          const data: string[] = [];
+          const headers: string[] = [];
+          const batchNo: number[] = [];
+          recipients.forEach((r, i) => {
+            const links = unsubscribeUrls(config, r.accountId);
+            keys.push(`bare/${round}/${r.accountId}`);
+            to.push(r.email);
+            data.push(JSON.stringify({ ...shared, unsubscribeUrl: links.page }));
+            headers.push(JSON.stringify(listUnsubscribeHeaders(links.oneClick)));
+            batchNo.push(Math.floor(i / size));
+          });
+          const client = await bare.pool.connect();
+          try {
+            await client.query('begin');
+            for (let i = 0; i < keys.length; i += 2000) {
+              const s = (a: unknown[]) => a.slice(i, i + 2000);
+              await client.query(
+                `insert into ${table} (key, batch, to_address, data, headers)
+                 select k, b, t, d::jsonb, h::jsonb from unnest($1::text[], $2::int[], $3::text[], $4::text[], $5::text[]) as x(k, b, t, d, h)`,
+                [s(keys), s(batchNo), s(to), s(data), s(headers)],
+              );
+            }
+            await client.query('commit');
+          } finally {
+            client.release();
+          }
+          const batches = Math.ceil(recipients.length / size);
+          let next = 0;
+          const sendLoop = async () => {
+            for (let b = next++; b < batches; b = next++) {
+              const { rows } = await bare.pool.query<{ id: string; to_address: string; data: object; headers: Record<string, string> }>(
+                `select id, to_address, data, headers from ${table} where batch = $1 order by id`,
+                [b],
+              );
+              const payloads = [];
+              for (const r of rows) {
+                const rendered = await renderEmail('dispatch', r.data as never);
+                payloads.push({
+                  from: config.MAIL_FROM,
+                  to: r.to_address,
+                  subject: rendered.subject,
+                  html: rendered.html,
+                  text: rendered.text,
+                  headers: r.headers,
+                  tags: [{ name: 'template', value: 'dispatch' }],
+                });
+              }
+              // A call that never answers fails the bench in words instead of holding it for ever.
+              const { data: sent, error } = await withinMs(
+                resend.batch.send(payloads, { idempotencyKey: `bare/${round}/${b}`, batchValidation: 'strict' }),
+                120_000,
+                `baseline batch ${b}`,
+              );
+              if (!sent) throw new Error(`baseline batch ${b}: ${error?.message}`);
+              await bare.pool.query(
+                `update ${table} o set state = 'sent', provider_id = k.pid from unnest($1::bigint[], $2::text[]) as k(id, pid) where o.id = k.id`,
+                [rows.map((r) => r.id), sent.data.map((d) => d.id)],
+              );
+            }
+          };
+          // The same number of batch calls in flight as the mail sender keeps.
+          await Promise.all(Array.from({ length: config.MAIL_SEND_CONCURRENCY }, sendLoop));
+          const ms = performance.now() - t1;
+          const latencies = await probe.stop();
+          const count = new Set(mail.messages().flatMap((m) => m.to)).size;
+          if (mail.messages().length !== N || count !== N) throw new Error(`baseline delivered ${mail.messages().length} to ${count}`);
+          log(`round ${round} bare: ${(ms / 1000).toFixed(1)} s (${((N / ms) * 1000).toFixed(0)} msg/s)`);
+          return { ms, latencies };
+        };
+
+        // Two rounds, the order swapped in the second, so load on a shared machine hits both sides alike.
+        const first = await runOurs(1);
+        const { rows: sample } = await web.pool.query<{ data: Record<string, unknown> }>(
+          `select data from mail_queue where idempotency_key like $1 limit 1`,
+          [`dispatch/${first.dispatchId}/%`],
+        );
+        // The per-member data of a real row, minus its own link: the baseline builds the same rows from it.
+        const shared = { ...sample[0]!.data, title: `${TITLE} (bare)` };
+        const rounds = [{ ours: first, bare: await runBare(1, shared) }];
+        const bare2 = await runBare(2, shared);
+        rounds.push({ ours: await runOurs(2), bare: bare2 });
+        const ratios = rounds.map((r) => r.bare.ms / r.ours.ms);
+        const ratio = median(ratios);
+
+        // The fake's raw batch acceptance, for scale: pre-built payloads, no database, no rendering.
+        const rawPayloads = mail
+          .messages()
+          .slice(0, size)
+          .map((m) => ({ from: m.from, to: m.to, subject: m.subject, html: m.html, text: m.text }));
+        mail.clear();
+        const rawBatches = 20;
+        const t2 = performance.now();
+        for (let b = 0; b < rawBatches; b++) await resend.batch.send(rawPayloads as never, { idempotencyKey: `raw/${b}` });
+        const rawRate = ((rawBatches * size) / (performance.now() - t2)) * 1000;
+
+        const rate = (ms: number) => ((N / ms) * 1000).toFixed(0);
+        const oursMs = median(rounds.map((r) => r.ours.ms));
+        const bareMs = median(rounds.map((r) => r.bare.ms));
+        const busy = rounds.flatMap((r) => r.ours.latencies);
+        const bareBusy = rounds.flatMap((r) => r.bare.latencies);
+        const p = (v: number[]) =>
+          `p50 ${median(v).toFixed(1)} ms, p95 ${percentile(v, 95).toFixed(1)} ms, max ${Math.max(...v).toFixed(0)} ms`;
+        const detail =
+          `${N} members, 2 rounds (ratios ${ratios.map((r) => r.toFixed(2)).join(', ')}): ours ${rate(oursMs)} msg/s, bare ${rate(bareMs)} msg/s; ` +
+          `fake raw acceptance ${rawRate.toFixed(0)} msg/s; web latency idle ${p(idle)} (n=${idle.length}), ` +
+          `during our fan-out ${p(busy)} (n=${busy.length}), during the bare loop ${p(bareBusy)} (n=${bareBusy.length})`;
+        log(detail);
+        return { ratio, detail };
+      } finally {
+        await new Promise((r) => (server ? server.close(r) : r(undefined)));
+        await workerJobs.stop().catch(() => undefined);
+        await webJobs.stop().catch(() => undefined);
+        await Promise.all([web.pool.end(), work.pool.end(), bare.pool.end()]);
+        await mail.close();
+        await admin.query(`DROP DATABASE IF EXISTS ${dbName} WITH (FORCE)`).catch(() => undefined);
+        await admin.end();
+      }
+    },
+  },
+];
