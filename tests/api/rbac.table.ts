@@ -88,6 +88,14 @@ export const rbacTable: Row[] = [
   { route: 'POST /api/pledges', ...signedIn, backer: 400, admin: 400 },
   { route: 'GET /api/pledges/:id', sample: `/api/pledges/${someId}`, ...signedIn, backer: 404, admin: 404 },
   { route: 'POST /api/pledges/:id/cancel', sample: `/api/pledges/${someId}/cancel`, ...signedIn, backer: 404, admin: 404 },
+  {
+    route: 'POST /api/pledges/:id/again',
+    sample: `/api/pledges/${someId}/again`,
+    body: { attemptKey: someId },
+    ...signedIn,
+    backer: 404,
+    admin: 404,
+  },
   { route: 'GET /api/my-support/pledges', ...signedIn, backer: 200, finance: 200 },
   { route: 'GET /api/my-support/memberships', ...signedIn, backer: 200 },
   {
