@@ -27,13 +27,20 @@ import { housekeepingQueue } from './housekeeping';
 import { accountMailQueue } from './account-mail';
 import { dispatchPublishQueue } from './dispatch-publish';
 import { dispatchFanOutQueue } from './dispatch-fan-out';
+import { passRemindersQueue } from './pass-reminders';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
 export { defineQueue } from './queue';
 
 // Every queue the product has. Order does not matter.
-export const queues: QueueDefinition[] = [housekeepingQueue, accountMailQueue, dispatchPublishQueue, dispatchFanOutQueue];
+export const queues: QueueDefinition[] = [
+  housekeepingQueue,
+  accountMailQueue,
+  dispatchPublishQueue,
+  dispatchFanOutQueue,
+  passRemindersQueue,
+];
 
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';
