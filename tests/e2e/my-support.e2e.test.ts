@@ -160,3 +160,66 @@ describe('stopping a crew membership', () => {
     await context.close();
   });
 });
+
+describe('saved places', () => {
+  it(
+    'saves a place from sky watch only when asked, lists it in my support, turns reminders on and deletes it',
+    { timeout: 300_000 },
+    async () => {
+      const { page, context, problems } = await newPage(browser, { width: 390, height: 844 });
+      // Signed out, sky watch offers to sign in and stores nothing.
+      // Ten days of passes are computed in the page: give a loaded machine time.
+      await page.goto(`${baseUrl}/sky-watch?lat=-41.3&lon=174.8`, { timeout: 90_000 });
+      await page
+        .getByRole('heading', { name: /visible pass(es)? over 41\.3° S, 174\.8° E|No visible pass over/ })
+        .waitFor({ timeout: 90_000 });
+      await page.getByText('to save this place and get an e-mail before a good pass over it.').waitFor();
+
+      await signInAs(page, baseUrl, 'finance@saltmarsh.example', DEMO_PASSWORD);
+      const listed = async () =>
+        (await (await page.request.get(`${baseUrl}/api/my-support/places`)).json()) as { places: { name: string }[] };
+      expect((await listed()).places).toEqual([]);
+      await page.goto(`${baseUrl}/sky-watch?lat=-41.3&lon=174.8`, { timeout: 90_000 });
+      const form = page.getByRole('form', { name: 'Save this place' });
+      await form.waitFor({ timeout: 90_000 });
+      await form.getByRole('button', { name: 'Save place' }).click();
+      await form.getByText('Give the place a name, e.g. "Back garden"').waitFor();
+      expect((await listed()).places).toEqual([]);
+      await form.getByLabel('Save this place as').fill('Dune top');
+      await shot(page, 'support12-sky-watch-save-phone');
+      await form.getByRole('button', { name: 'Save place' }).click();
+      await page.getByText('Saved “Dune top”').waitFor();
+      expect((await listed()).places.map((p) => p.name)).toEqual(['Dune top']);
+
+      await page.getByRole('link', { name: 'My support → Saved places' }).click();
+      const row = page.getByTestId('saved-place');
+      await row.waitFor();
+      expect(await row.innerText()).toMatch(/Dune top[\s\S]*41\.30° S, 174\.80° E · times in /);
+      const reminders = page.getByLabel('E-mail me before a good pass over my saved places');
+      expect(await reminders.isChecked()).toBe(false);
+      await reminders.check();
+      await expect
+        .poll(
+          async () =>
+            ((await (await page.request.get(`${baseUrl}/api/my-support/places`)).json()) as { passReminders: boolean }).passReminders,
+        )
+        .toBe(true);
+      await shot(page, 'support12-saved-places-phone');
+      await page.setViewportSize({ width: 1280, height: 860 });
+      await shot(page, 'support12-saved-places-desktop');
+
+      await row
+        .getByRole('button', { name: 'Passes' })
+        .or(row.getByRole('link', { name: 'Passes over Dune top' }))
+        .click();
+      await page.waitForURL(/\/sky-watch\?lat=-41\.3&lon=174\.8$/);
+      await shot(page, 'support12-sky-watch-linked-desktop');
+      await page.goBack();
+      await page.getByRole('button', { name: 'Delete Dune top' }).click();
+      await page.getByText('No saved places yet').waitFor();
+      expect((await listed()).places).toEqual([]);
+      expect(problems).toEqual([]);
+      await context.close();
+    },
+  );
+});
