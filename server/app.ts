@@ -32,6 +32,8 @@ import { createDispatchSending } from './modules/dispatches/dispatch-sending';
 import { createDispatchesRouter } from './modules/dispatches/dispatches.routes';
 import { createFilesRouter, createPublicDispatchesRouter } from './modules/dispatches/public-dispatches.routes';
 import { createEmailChoicesRouter } from './modules/my-support/email-choices.routes';
+import { createPlacesRouter } from './modules/places/places.routes';
+import { createPlacesService } from './modules/places/places.service';
 import { createMailQueueRouter } from './modules/mail/mail.routes';
 
 export type AppDeps = {
@@ -140,6 +142,7 @@ export function createApp(deps: AppDeps): Express {
   mount(app, '/api/admin', createAdminRouter({ db }));
   mount(app, '/api/campaigns', funding.campaignsRouter);
   mount(app, '/api/pledges', funding.pledgesRouter);
+  mount(app, '/api/my-support/places', createPlacesRouter({ places: createPlacesService({ db }) }));
   mount(app, '/api/my-support', funding.mySupportRouter);
   mount(app, '/api/ledger', funding.ledgerRouter);
   mount(app, '/api/books', funding.booksRouter);

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { formatMoney } from '../../shared/money';
 import type { EmailContent } from '../layout';
 import { dispatchEmail, dispatchEmailSchema } from './dispatch';
+import { passReminderEmail, passReminderSchema } from './pass-reminder';
 
 const text = z
   .string()
@@ -49,6 +50,7 @@ export const emailDataSchemas = {
     nextAttemptAt: z.union([z.date(), z.iso.datetime({ offset: true })]).optional(),
   }),
   dispatch: dispatchEmailSchema,
+  'pass-reminder': passReminderSchema,
   'refund-issued': z.object({
     displayName: text,
     campaignTitle: text,
@@ -216,4 +218,5 @@ export const emailTemplates: { [N in EmailName]: (data: Parsed[N]) => EmailConte
     };
   },
   dispatch: dispatchEmail,
+  'pass-reminder': passReminderEmail,
 };

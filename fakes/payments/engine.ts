@@ -624,7 +624,13 @@ export class Engine {
     internal.subscriptionMetadata = subscriptionData?.metadata() ?? {};
     internal.paymentIntentMetadata = piData?.metadata() ?? {};
     internal.paymentIntentDescription = piData?.str('description');
+    internal.sessionDescription = (mode === 'subscription' ? subscriptionData : piData)?.str('description') ?? null;
     return session;
+  }
+
+  /** What the session pays for, as the caller described it (subscription_data / payment_intent_data description). */
+  sessionDescription(id: string): string | null {
+    return this.store.internal(id).sessionDescription ?? null;
   }
 
   sessionLineItems(id: string): ApiObject[] {

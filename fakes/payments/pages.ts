@@ -13,18 +13,6 @@ export function escapeHtml(value: unknown): string {
     .replaceAll("'", '&#39;');
 }
 
-export function formatMinor(amountMinor: number, currency: string): string {
-  const code = currency.toUpperCase();
-  let digits = 2;
-  try {
-    digits = new Intl.NumberFormat('en', { style: 'currency', currency: code }).resolvedOptions().maximumFractionDigits ?? 2;
-  } catch {
-    // unknown currency code: show two decimals
-  }
-  const major = amountMinor / 10 ** digits;
-  return `${code} ${major.toLocaleString('en', { minimumFractionDigits: digits, maximumFractionDigits: digits })}`;
-}
-
 export type FieldErrors = Partial<Record<'email' | 'card_number' | 'expiry' | 'cvc' | 'form', string>>;
 
 export interface CardForm {
@@ -88,6 +76,7 @@ input[aria-invalid="true"] { border-color:var(--bad); }
 button { margin-top:1.3rem; width:100%; font:inherit; font-weight:700; padding:.7rem; border:0; border-radius:4px; background:var(--accent); color:var(--accent-ink); cursor:pointer; }
 button:focus { outline:3px solid #e0b04a; outline-offset:2px; }
 .muted { color:var(--muted); font-size:.9rem; }
+.paying-for { margin:-.4rem 0 1rem; }
 a { color:var(--accent); }
 details { margin-top:1.2rem; } code { font-size:.9rem; }
 `;
@@ -147,13 +136,37 @@ function alert(errors: FieldErrors): string {
   return `<div class="alert" role="alert">Please correct ${count === 1 ? 'the field' : `the ${count} fields`} marked below.</div>`;
 }
 
-export function checkoutPage(session: ApiObject, lineItems: ApiObject[], form: CardForm, errors: FieldErrors): string {
+/** An amount in the currency's own sign where it has one ("$12.00", "€8.00"), else its code. */
+export function formatMinor(amountMinor: number, currency: string): string {
+  const code = currency.toUpperCase();
+  try {
+    const format = new Intl.NumberFormat('en-US', { style: 'currency', currency: code });
+    const digits = format.resolvedOptions().maximumFractionDigits ?? 2;
+    return format.format(amountMinor / 10 ** digits);
+  } catch {
+    // unknown currency code: show two decimals after the code
+    return `${code} ${(amountMinor / 100).toFixed(2)}`;
+  }
+}
+
+function cadence(recurring: { interval: string; interval_count: number }): string {
+  return recurring.interval_count === 1 ? `every ${recurring.interval}` : `every ${recurring.interval_count} ${recurring.interval}s`;
+}
+
+/**
+ * The card page of a checkout session, in plain words of our own: what is being paid for (the caller's
+ * description, e.g. the campaign and the reward tier), what is taken now, and for a recurring price what
+ * follows ("Pay $12.00 now, then every month").
+ */
+export function checkoutPage(
+  session: ApiObject,
+  lineItems: ApiObject[],
+  form: CardForm,
+  errors: FieldErrors,
+  description: string | null = null,
+): string {
   const recurring = lineItems.find((li) => li.price.type === 'recurring')?.price.recurring;
-  const every = recurring
-    ? recurring.interval_count === 1
-      ? `every ${recurring.interval}`
-      : `every ${recurring.interval_count} ${recurring.interval}s`
-    : '';
+  const every = recurring ? cadence(recurring) : '';
   const rows = lineItems
     .map(
       (li) =>
@@ -162,14 +175,16 @@ export function checkoutPage(session: ApiObject, lineItems: ApiObject[], form: C
     .join('\n');
   const total = formatMinor(session.amount_total, session.currency);
   const askEmail = !session.customer && !session.customer_email;
-  const action = session.mode === 'subscription' ? `Subscribe, ${total} now` : `Pay ${total}`;
+  const action = recurring ? `Pay ${total} now, then ${every}` : `Pay ${total}`;
   return page(
-    'Enter your card',
-    `<h1>${session.mode === 'subscription' ? 'Start your subscription' : 'Complete your payment'}</h1>
-<table aria-label="Order summary"><tbody>
+    'Pay by card',
+    `<h1>${recurring ? 'Pay by card, then regularly' : 'Pay by card'}</h1>
+${description ? `<p class="paying-for">Paying for <strong>${escapeHtml(description)}</strong></p>` : ''}
+<table aria-label="What you pay"><tbody>
 ${rows}
-<tr class="total"><td>Due today</td><td class="amount">${total}</td></tr>
+<tr class="total"><td>Taken now</td><td class="amount">${total}</td></tr>
 </tbody></table>
+${recurring ? `<p class="muted">After today, ${total} is taken ${every} on the same day until you stop it.</p>` : ''}
 ${session.customer_email ? `<p class="muted">Receipt to ${escapeHtml(session.customer_email)}</p>` : ''}
 ${alert(errors)}
 <form method="post" action="/pay/${escapeHtml(session.id)}" novalidate>

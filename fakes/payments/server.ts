@@ -551,14 +551,15 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       );
     }
     const lineItems = engine.sessionLineItems(session.id);
-    if (req.method === 'GET') return sendHtml(res, 200, checkoutPage(session, lineItems, {}, {}));
+    const description = engine.sessionDescription(session.id);
+    if (req.method === 'GET') return sendHtml(res, 200, checkoutPage(session, lineItems, {}, {}, description));
     const form = Object.fromEntries(new URLSearchParams(rawBody)) as CardForm;
     const keep: CardForm = { email: form.email, name: form.name, expiry: form.expiry };
     const read = readCardForm(form, engine.now(), {
       emailRequired: session.mode === 'subscription' && !session.customer && !session.customer_email,
     });
     if ('errors' in read)
-      return sendHtml(res, 400, checkoutPage(session, lineItems, { ...keep, card_number: form.card_number }, read.errors));
+      return sendHtml(res, 400, checkoutPage(session, lineItems, { ...keep, card_number: form.card_number }, read.errors, description));
     const result = engine.payCheckoutSession(session, read.card);
     persist();
     webhooks.kick();
@@ -567,7 +568,7 @@ export async function createPaymentsFake(opts: PaymentsFakeOptions): Promise<Pay
       result.decline.declineCode === 'insufficient_funds'
         ? 'Your card has insufficient funds. Try another card.'
         : 'Your card was declined. Try another card.';
-    return sendHtml(res, 402, checkoutPage(session, lineItems, keep, { form: reason }));
+    return sendHtml(res, 402, checkoutPage(session, lineItems, keep, { form: reason }, description));
   };
 
   const handlePortalPage = async (req: http.IncomingMessage, res: http.ServerResponse, portalId: string, rawBody: string) => {

@@ -53,6 +53,8 @@ export interface Internal {
   subscriptionMetadata?: Record<string, string>;
   paymentIntentMetadata?: Record<string, string>;
   paymentIntentDescription?: string;
+  /** checkout session: the caller's description of what is paid for, shown on the hosted page */
+  sessionDescription?: string | null;
   paymentIntent?: string;
   /** customer: every renewal charge is declined with this code while set */
   failRenewals?: string;

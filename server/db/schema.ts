@@ -10,3 +10,4 @@ export * from '../modules/payments/payments.tables';
 export * from '../modules/dispatches/dispatches.tables';
 export * from '../modules/books/books.tables';
 export * from '../modules/mail/mail.tables';
+export * from '../modules/places/places.tables';

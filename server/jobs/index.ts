@@ -28,6 +28,7 @@ import { accountMailQueue } from './account-mail';
 import { dispatchPublishQueue } from './dispatch-publish';
 import { dispatchFanOutQueue } from './dispatch-fan-out';
 import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcile';
+import { passRemindersQueue } from './pass-reminders';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 import { queueOptions } from './queue';
 import { elementSetIngestQueue, elementSetIngestFailedQueue } from './element-set-ingest';
@@ -45,6 +46,7 @@ export const queues: QueueDefinition[] = [
   booksReconcileGaveUpQueue,
   elementSetIngestQueue as QueueDefinition,
   elementSetIngestFailedQueue as QueueDefinition,
+  passRemindersQueue,
 ];
 
 /**

@@ -83,6 +83,12 @@ export const createPledgeSchema = z.object({
 });
 export type CreatePledgeInput = z.infer<typeof createPledgeSchema>;
 
+/** "Try again" on a failed or abandoned pledge: a fresh attempt for the same gift and amount. */
+export const retryPledgeSchema = z.object({
+  attemptKey: z.uuid({ message: 'must be a UUID made for this attempt' }),
+});
+export type RetryPledgeInput = z.infer<typeof retryPledgeSchema>;
+
 export const emailPreferencesSchema = z.object({
   dispatches: z.boolean(),
   receipts: z.boolean(),

@@ -143,6 +143,18 @@ const samples: Sample[] = [
     body: () => ({ dispatches: true, receipts: true, membership: false }),
   },
   {
+    route: 'POST /api/pledges/:id/again',
+    as: () => backer,
+    url: () => `/api/pledges/${someUuid}/again`,
+    body: () => ({ attemptKey: crypto.randomUUID() }),
+  },
+  {
+    route: 'POST /api/my-support/places',
+    as: () => backer,
+    url: () => '/api/my-support/places',
+    body: () => ({ name: 'Dune top', latitudeDeg: -41.3, longitudeDeg: 174.8, timeZone: 'Pacific/Auckland' }),
+  },
+  {
     route: 'DELETE /api/my-support/account',
     as: () => backer,
     url: () => '/api/my-support/account',
@@ -237,6 +249,7 @@ const withoutJsonBody = new Set([
   'DELETE /api/admin/accounts/:id/roles/:role',
   'POST /api/payments/webhook',
   'POST /api/pledges/:id/cancel',
+  'DELETE /api/my-support/places/:id',
   'POST /api/my-support/memberships/:id/cancel',
   'POST /api/my-support/memberships/:id/resume',
   'POST /api/my-support/memberships/:id/card',
@@ -247,6 +260,7 @@ const withoutJsonBody = new Set([
   'DELETE /api/orbit/snapshots/:id',
   // No text in their bodies (ids, dates and enums only, each validated), or a file upload:
   'POST /api/admin/mail-queue/:id/retry',
+  'PUT /api/my-support/places/reminders',
   'POST /api/books/reconciliations',
   'POST /api/books/months/:month/close',
   'POST /api/books/months/:month/publish',

@@ -156,3 +156,107 @@ describe('my support', () => {
     expect(res.body.error.code).toBe('account.staff_cannot_delete');
   });
 });
+
+async function started(pending: ReturnType<typeof startPledge>, status: number) {
+  const res = await pending;
+  expect(res.status, JSON.stringify(res.body)).toBe(status);
+  return res;
+}
+
+describe('trying a pledge again', () => {
+  it("names the campaign and the thank-you gift on the processor's card page", async () => {
+    const monthly = await started(startPledge(w.backer, { tierId: w.tier.crew.id, amountMinor: 800 }), 201);
+    const html = await (await fetch(monthly.body.checkoutUrl)).text();
+    expect(html).toContain('Paying for <strong>Tern-1 sail test campaign — Crew membership</strong>');
+    expect(html).toContain('Pay $8.00 now, then every month');
+    await w.backer.post(`/api/pledges/${monthly.body.pledge.id}/cancel`).set('x-csrf-token', w.backer.csrf).expect(200);
+
+    const noGift = await started(startPledge(w.backer, { amountMinor: 1500 }), 201);
+    const noGiftHtml = await (await fetch(noGift.body.checkoutUrl)).text();
+    expect(noGiftHtml).toContain('Paying for <strong>Tern-1 sail test campaign — Support without a gift</strong>');
+    expect(noGiftHtml).toContain('<button type="submit">Pay $15.00</button>');
+    await w.backer.post(`/api/pledges/${noGift.body.pledge.id}/cancel`).set('x-csrf-token', w.backer.csrf).expect(200);
+  });
+
+  it('starts a fresh checkout for the same gift and amount after a decline, and closes the old attempt', async () => {
+    const agent = await newBacker('sanderling@example.org');
+    const first = await started(startPledge(agent, { tierId: w.tier.limited.id, amountMinor: 26_000, publicName: 'Sanderling' }), 201);
+    const declined = await payOnHostedPage(first.body.checkoutUrl, CARDS.declined);
+    expect(declined.status).toBe(402);
+    await settle(w);
+    expect((await pledgeRow(w, first.body.pledge.id)).state).toBe('failed');
+    // The only slot of the limited gift is still held by the declined attempt…
+    await started(startPledge(w.backer, { tierId: w.tier.limited.id, amountMinor: 25_000 }), 409);
+
+    const attemptKey = crypto.randomUUID();
+    const again = await agent
+      .post(`/api/pledges/${first.body.pledge.id}/again`)
+      .set('x-csrf-token', agent.csrf)
+      .send({ attemptKey })
+      .expect(201);
+    const fresh = again.body.pledge;
+    expect(fresh.id).not.toBe(first.body.pledge.id);
+    expect(fresh).toMatchObject({
+      state: 'started',
+      tier: { id: w.tier.limited.id, title: 'Sail fragment' },
+      amountMinor: 26_000,
+      currency: 'USD',
+      kind: 'one-time',
+      publicName: 'Sanderling',
+    });
+    expect(again.body.checkoutUrl).not.toBe(first.body.checkoutUrl);
+    // …and passes to the new attempt: the old one is closed, its checkout can no longer be paid.
+    const old = await pledgeRow(w, first.body.pledge.id);
+    expect(old.state).toBe('abandoned');
+    expect(old.slotState).not.toBe('held');
+    expect((await fetch(first.body.checkoutUrl)).status).toBe(410);
+    expect((await pledgeRow(w, fresh.id)).slotState).toBe('held');
+
+    // A second click with the same key answers with the same new pledge.
+    const twice = await agent
+      .post(`/api/pledges/${first.body.pledge.id}/again`)
+      .set('x-csrf-token', agent.csrf)
+      .send({ attemptKey })
+      .expect(200);
+    expect(twice.body.pledge.id).toBe(fresh.id);
+
+    const paid = await payOnHostedPage(again.body.checkoutUrl, CARDS.ok);
+    expect(paid.status).toBe(303);
+    await settle(w);
+    expect((await pledgeRow(w, fresh.id)).state).toBe('paid');
+
+    const paidAgain = await agent
+      .post(`/api/pledges/${fresh.id}/again`)
+      .set('x-csrf-token', agent.csrf)
+      .send({ attemptKey: crypto.randomUUID() })
+      .expect(409);
+    expect(paidAgain.body.error).toMatchObject({
+      code: 'pledges.not_retryable',
+      message: 'This pledge went through; there is nothing to try again.',
+    });
+  });
+
+  it("refuses a bad attempt key and someone else's pledge", async () => {
+    const mine = await started(startPledge(w.backer, { amountMinor: 1000 }), 201);
+    await w.backer.post(`/api/pledges/${mine.body.pledge.id}/cancel`).set('x-csrf-token', w.backer.csrf).expect(200);
+    const bad = await w.backer
+      .post(`/api/pledges/${mine.body.pledge.id}/again`)
+      .set('x-csrf-token', w.backer.csrf)
+      .send({ attemptKey: 'twice' })
+      .expect(400);
+    expect(bad.body.error.details).toEqual([{ path: 'body.attemptKey', message: 'must be a UUID made for this attempt' }]);
+    const other = await newBacker('whimbrel@example.org');
+    await other
+      .post(`/api/pledges/${mine.body.pledge.id}/again`)
+      .set('x-csrf-token', other.csrf)
+      .send({ attemptKey: crypto.randomUUID() })
+      .expect(404);
+    const waiting = await started(startPledge(w.backer, { amountMinor: 1000 }), 201);
+    const open = await w.backer
+      .post(`/api/pledges/${waiting.body.pledge.id}/again`)
+      .set('x-csrf-token', w.backer.csrf)
+      .send({ attemptKey: crypto.randomUUID() })
+      .expect(409);
+    expect(open.body.error.message).toBe('This pledge is still waiting for its payment; finish paying on its checkout page.');
+  });
+});

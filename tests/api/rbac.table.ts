@@ -88,6 +88,14 @@ export const rbacTable: Row[] = [
   { route: 'POST /api/pledges', ...signedIn, backer: 400, admin: 400 },
   { route: 'GET /api/pledges/:id', sample: `/api/pledges/${someId}`, ...signedIn, backer: 404, admin: 404 },
   { route: 'POST /api/pledges/:id/cancel', sample: `/api/pledges/${someId}/cancel`, ...signedIn, backer: 404, admin: 404 },
+  {
+    route: 'POST /api/pledges/:id/again',
+    sample: `/api/pledges/${someId}/again`,
+    body: { attemptKey: someId },
+    ...signedIn,
+    backer: 404,
+    admin: 404,
+  },
   { route: 'GET /api/my-support/pledges', ...signedIn, backer: 200, finance: 200 },
   { route: 'GET /api/my-support/memberships', ...signedIn, backer: 200 },
   {
@@ -105,6 +113,10 @@ export const rbacTable: Row[] = [
   { route: 'POST /api/my-support/memberships/:id/card', sample: `/api/my-support/memberships/${someId}/card`, ...signedIn, backer: 404 },
   { route: 'GET /api/my-support/receipts/:entryId', sample: '/api/my-support/receipts/1', ...signedIn, backer: 404 },
   { route: 'GET /api/my-support/email-preferences', ...signedIn, backer: 200 },
+  { route: 'GET /api/my-support/places', ...signedIn, backer: 200 },
+  { route: 'POST /api/my-support/places', ...signedIn, backer: 400 },
+  { route: 'PUT /api/my-support/places/reminders', ...signedIn, backer: 400 },
+  { route: 'DELETE /api/my-support/places/:id', sample: `/api/my-support/places/${someId}`, ...signedIn, backer: 404 },
   { route: 'PUT /api/my-support/email-preferences', ...signedIn, backer: 400 },
   { route: 'GET /api/my-support/export', ...signedIn, backer: 200 },
   // An empty body never deletes: the e-mail confirmation is required.

@@ -101,7 +101,9 @@ describe('pledging in the browser', () => {
     await shot(page, 'pledge-10-declined-desktop');
 
     await page.goto(`${baseUrl}/my-support/pledges`);
-    const declined = page.getByTestId('my-pledge').filter({ hasText: '$20.00' });
+    // A cancelled attempt is folded away under "N earlier attempts".
+    await page.getByTestId('earlier-attempts').locator('summary').click();
+    const declined = page.getByTestId('earlier-attempt').filter({ hasText: '$20.00' });
     await declined.first().waitFor();
     expect(await declined.first().innerText()).toMatch(/Cancelled[\s\S]*Your card was declined\./);
     expect(problems).toEqual([]);
@@ -127,8 +129,11 @@ describe('pledging in the browser', () => {
     await membership.waitFor();
     expect(await membership.innerText()).toMatch(/Active[\s\S]*Renews on/);
     await shot(page, 'pledge-11-membership-desktop');
-    await membership.getByRole('button', { name: 'Cancel at period end' }).click();
-    await page.getByRole('dialog').getByRole('button', { name: 'Cancel at period end' }).click();
+    await membership.getByRole('button', { name: 'Stop renewing…' }).click();
+    await page
+      .getByRole('dialog')
+      .getByRole('button', { name: /^Stop renewing after / })
+      .click();
     await expect.poll(() => membership.innerText()).toMatch(/Stops at the end of the period/);
     await shot(page, 'pledge-12-membership-cancelled-desktop');
 

@@ -43,6 +43,18 @@ const samples: { [N in EmailName]: EmailData[N] } = {
     unsubscribeUrl: 'http://127.0.0.1:3000/unsubscribe?token=abc',
     choicesUrl: 'http://127.0.0.1:3000/my-support/email',
   },
+  'pass-reminder': {
+    displayName: hostile,
+    craftName: 'Tern-1',
+    placeName: 'Shed & "dune" top',
+    timeZone: 'Pacific/Auckland',
+    start: { at: '2026-11-26T13:40:03Z', elevationDeg: 10, compass: 'S' },
+    highest: { at: '2026-11-26T13:45:03Z', elevationDeg: 74.4, compass: 'WSW' },
+    end: { at: '2026-11-26T13:48:40Z', elevationDeg: 12.2, compass: 'NW' },
+    skyWatchUrl: 'http://127.0.0.1:3000/sky-watch?lat=-41.3&lon=174.8',
+    unsubscribeUrl: 'http://127.0.0.1:3000/unsubscribe?token=abc',
+    choicesUrl: 'http://127.0.0.1:3000/my-support/email',
+  },
   'refund-issued': {
     displayName: hostile,
     campaignTitle: hostileTitle,
@@ -55,7 +67,7 @@ const samples: { [N in EmailName]: EmailData[N] } = {
 
 function urlOf(name: EmailName): string {
   const d = samples[name] as Record<string, unknown>;
-  return String(d.verifyUrl ?? d.signInUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl ?? d.pageUrl);
+  return String(d.verifyUrl ?? d.signInUrl ?? d.resetUrl ?? d.receiptUrl ?? d.updateCardUrl ?? d.pageUrl ?? d.skyWatchUrl);
 }
 
 describe('e-mail templates', () => {
@@ -139,6 +151,22 @@ describe('e-mail templates', () => {
     const changed = await renderEmail('password-changed', samples['password-changed']);
     expect(changed.text.replace(/\s+/g, ' ')).toContain('6 May 2031 at 07:08 UTC');
     expect(changed.html).toContain('href="http://127.0.0.1:3000/forgot-password"');
+  });
+
+  it("states a pass in the place's own time zone, with both cautions and an unsubscribe link", async () => {
+    const r = await renderEmail('pass-reminder', samples['pass-reminder']);
+    // Expected local times from Python's zoneinfo (IANA tz database), not from the JS runtime under test:
+    // 13:40:03Z → Friday 27 November 02:40 NZDT (UTC+13); 13:45:03Z → 02:45; 13:48:40Z → 02:48.
+    expect(r.subject).toBe('Tern-1 passes over Shed & "dune" top, up to 74° high: Friday 27 November, 02:40 GMT+13');
+    expect(r.text).toContain('Friday 27 November, 02:40 GMT+13, S, 10° up');
+    expect(r.text).toContain('02:45, WSW, 74° up');
+    expect(r.text).toContain('02:48, NW, 12° up');
+    expect(r.html).toContain('Shed &amp; &quot;dune&quot; top');
+    for (const part of [r.html, r.text.replace(/\s*\n\s*/g, ' ')]) {
+      expect(part).toContain('Never look at or near the Sun');
+      expect(part).toContain('Times shift by minutes as the orbit slowly decays: check the newest times on the site');
+      expect(part).toContain('http://127.0.0.1:3000/unsubscribe?token=abc');
+    }
   });
 
   it('mentions the reset link lifetime in both parts', async () => {

@@ -211,7 +211,8 @@ describe('payments fake through the real SDK', () => {
     expect(session.url).toBe(`${fake.url}/pay/${session.id}`);
 
     const submitted = await submitCard(session.url!, { card_number: '4242 4242 4242 4242', name: 'Grace H' });
-    expect(submitted.pageHtml).toContain('USD 50.00');
+    expect(submitted.pageHtml).toContain('<td class="amount">$50.00</td>');
+    expect(submitted.pageHtml).toContain('<button type="submit">Pay $50.00</button>');
     expect(submitted.pageHtml).toContain('href="http://127.0.0.1:9/back"');
     expect(submitted.status).toBe(303);
     expect(submitted.location).toBe(`http://127.0.0.1:9/thanks?session=${session.id}`);
@@ -282,6 +283,40 @@ describe('payments fake through the real SDK', () => {
     expect(retry.location).toBe('http://127.0.0.1:9/ok');
     const charges = await stripe.charges.list({ payment_intent: open.payment_intent as string });
     expect(charges.data.map((c) => c.status)).toEqual(['succeeded', 'failed', 'failed']);
+  });
+
+  it('words the card page plainly: what is paid for, what is taken now and what follows', async () => {
+    const product = await stripe.products.create({ name: 'Harbour sail campaign' });
+    const monthly = await stripe.checkout.sessions.create({
+      mode: 'subscription',
+      customer_email: 'plover@example.test',
+      line_items: [
+        { quantity: 1, price_data: { currency: 'usd', unit_amount: 1200, product: product.id, recurring: { interval: 'month' } } },
+      ],
+      success_url: 'http://127.0.0.1:9/ok',
+      cancel_url: 'http://127.0.0.1:9/cancel',
+      subscription_data: { description: 'Harbour sail campaign — Night watch crew' },
+    });
+    const html = await (await fetch(monthly.url!)).text();
+    expect(html).toContain('<title>Pay by card</title>');
+    expect(html).toContain('Paying for <strong>Harbour sail campaign — Night watch crew</strong>');
+    expect(html).toContain('<tr class="total"><td>Taken now</td><td class="amount">$12.00</td></tr>');
+    expect(html).toContain('After today, $12.00 is taken every month on the same day until you stop it.');
+    expect(html).toContain('<button type="submit">Pay $12.00 now, then every month</button>');
+    // None of the processor's own checkout phrases.
+    for (const phrase of ['Subscribe', 'subscription', 'Due today', 'Complete your payment']) expect(html).not.toContain(phrase);
+
+    const once = await stripe.checkout.sessions.create({
+      mode: 'payment',
+      line_items: [{ quantity: 1, price_data: { currency: 'eur', unit_amount: 2500, product: product.id } }],
+      success_url: 'http://127.0.0.1:9/ok',
+      payment_intent_data: { description: 'Harbour sail campaign — Mission patch & <sticker>' },
+    });
+    const onceHtml = await (await fetch(once.url!)).text();
+    expect(onceHtml).toContain('Paying for <strong>Harbour sail campaign — Mission patch &amp; &lt;sticker&gt;</strong>');
+    expect(onceHtml).toContain('<button type="submit">Pay €25.00</button>');
+    expect(onceHtml).not.toContain('then every');
+    expect(onceHtml).not.toContain('id="cancel-link"');
   });
 
   it('refunds part of a charge, then the rest, and refuses more', async () => {

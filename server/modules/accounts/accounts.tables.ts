@@ -63,5 +63,7 @@ export const emailPreferences = pgTable('email_preferences', {
   dispatches: boolean('dispatches').notNull().default(true),
   receipts: boolean('receipts').notNull().default(true),
   membership: boolean('membership').notNull().default(true),
+  /** Reminder e-mails before good passes over saved places: off until the backer turns them on. */
+  passReminders: boolean('pass_reminders').notNull().default(false),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

@@ -9,7 +9,8 @@ import { badRequest } from '../../errors';
 // without signing in (and for the one-click POST a mail client makes, RFC 8058). The key is derived from
 // SESSION_SECRET for this one purpose, so a token can never pass as anything else.
 
-export const UNSUBSCRIBE_CATEGORIES = ['dispatches'] as const;
+// Each category is a column of email_preferences.
+export const UNSUBSCRIBE_CATEGORIES = ['dispatches', 'passReminders'] as const;
 export type UnsubscribeCategory = (typeof UNSUBSCRIBE_CATEGORIES)[number];
 
 const b64url = (b: Buffer) => b.toString('base64url');

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { validated } from '../../middleware/validate';
 import { requireAuth } from '../../middleware/auth';
 import type { PledgesService } from './pledges.service';
-import { createPledgeSchema } from '../../../shared/schemas/campaign';
+import { createPledgeSchema, retryPledgeSchema } from '../../../shared/schemas/campaign';
 
 const idParams = z.object({ id: z.uuid({ message: 'must be a pledge id' }) });
 
@@ -27,6 +27,16 @@ export function createPledgesRouter({ pledges }: { pledges: PledgesService }) {
     validated({ params: idParams }, async (req, res, { params }) => {
       res.set('Cache-Control', 'no-store');
       res.json({ pledge: await pledges.get(req.user!.id, params.id) });
+    }),
+  );
+
+  router.post(
+    '/:id/again',
+    requireAuth,
+    validated({ params: idParams, body: retryPledgeSchema }, async (req, res, { params, body }) => {
+      const result = await pledges.retry({ account: req.user!, pledgeId: params.id, attemptKey: body.attemptKey });
+      const status = result.checkoutUrl === null ? 202 : result.replayed ? 200 : 201;
+      res.status(status).json({ pledge: result.pledge, checkoutUrl: result.checkoutUrl });
     }),
   );
 

@@ -10,7 +10,7 @@ import { lockPledge, markAbandoned, type PledgeRow, type Tx } from './pledge-led
 import { isMissing, processorUnavailable, type Processor } from '../payments/processor';
 import type { CampaignsService } from '../campaigns/campaigns.service';
 import { AppError, badRequest, conflict, notFound } from '../../errors';
-import type { CreatePledgeInput, PaymentView, PledgeView } from '../../../shared/schemas/campaign';
+import { NO_GIFT_LABEL, type CreatePledgeInput, type PaymentView, type PledgeView } from '../../../shared/schemas/campaign';
 
 type Account = { id: string; email: string; displayName: string };
 
@@ -90,7 +90,8 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
     tier: typeof tiers.$inferSelect | undefined,
   ) {
     const metadata = { pledge_id: row.id, campaign_id: campaign.id, ...(tier ? { tier_id: tier.id } : {}) };
-    const description = `${campaign.title}${tier ? ` — ${tier.title}` : ''}`;
+    // The processor's page shows this as what is paid for: the campaign and the thank-you gift (or none).
+    const description = `${campaign.title} — ${tier ? tier.title : NO_GIFT_LABEL}`;
     const build = async (fresh: { customer?: boolean; product?: boolean }): Promise<Stripe.Checkout.SessionCreateParams> => {
       const customer = await processor.customerFor(account, { fresh: fresh.customer, db: exec });
       const product = await processor.productFor(fresh.product ? { ...campaign, processorProductId: null } : campaign, {
@@ -306,6 +307,38 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
         });
       }
       return out;
+    },
+
+    /**
+     * "Try again" on a pledge that was declined or left: close what is left of the old attempt (its checkout,
+     * its held slot), then start a new attempt for the same campaign, gift, amount and public name. The new
+     * attempt's key makes a repeated click answer with the same new pledge.
+     */
+    async retry({ account, pledgeId, attemptKey }: { account: Account; pledgeId: string; attemptKey: string }) {
+      const [replay] = await db.select().from(pledges).where(eq(pledges.idempotencyKey, attemptKey));
+      const old = await ownPledge(account.id, pledgeId);
+      if (!replay && old.state !== 'failed' && old.state !== 'abandoned') {
+        throw conflict(
+          'pledges.not_retryable',
+          old.state === 'started'
+            ? 'This pledge is still waiting for its payment; finish paying on its checkout page.'
+            : 'This pledge went through; there is nothing to try again.',
+        );
+      }
+      if (!replay && old.state === 'failed') await this.cancel(account.id, old.id);
+      const [campaign] = await db.select({ slug: campaigns.slug }).from(campaigns).where(eq(campaigns.id, old.campaignId));
+      return this.create({
+        account,
+        input: {
+          campaignSlug: campaign!.slug,
+          tierId: old.tierId,
+          amountMinor: old.amountMinor,
+          anonymous: old.publicName === null,
+          ...(old.publicName ? { publicName: old.publicName } : {}),
+          ...(old.message ? { message: old.message } : {}),
+          attemptKey,
+        },
+      });
     },
 
     /** The backer left the checkout: close it at the processor so it cannot be paid later, give the slot back. */

@@ -5,12 +5,24 @@ import { useDocumentTitle } from '@/lib/document-title';
 import { errorMessage } from '@/lib/form-errors';
 import { MISSION_CRAFT_SLUG, useLatestSet } from '@/features/live-orbit/api/get-latest-set';
 import { SkyWatch } from '@/features/live-orbit/components/sky-watch';
+import { useMe } from '@/features/auth/api/get-me';
+import { SavePlaceForm } from '@/features/my-support/components/save-place-form';
+import { useLocation, useSearchParams } from 'react-router-dom';
+import { observerPlaceSchema } from '@shared/schemas/sky-watch';
 
 /** Sky watch: when the mission craft can be seen from a place, with the cautions every watcher needs. */
 export function Component() {
   const q = useLatestSet(MISSION_CRAFT_SLUG);
   const name = q.data?.spacecraft.name ?? 'the craft';
   useDocumentTitle('Sky watch');
+  const me = useMe();
+  const location = useLocation();
+  const [params] = useSearchParams();
+  // ?lat=&lon= (from a saved place or a reminder e-mail) forecasts that place at once; anything else is ignored.
+  const linked = observerPlaceSchema.safeParse({
+    latitudeDeg: params.get('lat') || undefined,
+    longitudeDeg: params.get('lon') || undefined,
+  });
   return (
     <div className="mx-auto w-full max-w-5xl space-y-6 px-4 py-8 sm:px-6">
       <header className="space-y-2">
@@ -33,7 +45,15 @@ export function Component() {
         <Alert title="No element set yet">The engineers have not published an element set for {name} yet.</Alert>
       ) : (
         <Card>
-          <SkyWatch name={q.data.spacecraft.name} line1={q.data.latest.line1} line2={q.data.latest.line2} />
+          <SkyWatch
+            name={q.data.spacecraft.name}
+            line1={q.data.latest.line1}
+            line2={q.data.latest.line2}
+            initialPlace={linked.success ? linked.data : null}
+            afterPasses={(place) => (
+              <SavePlaceForm place={place} signedIn={Boolean(me.data)} returnTo={`${location.pathname}${location.search}`} />
+            )}
+          />
         </Card>
       )}
       <p className="text-sm text-foil-400">{q.data?.caution}</p>

@@ -8,6 +8,11 @@ import { useDocumentTitle } from '@/lib/document-title';
 import { errorMessage } from '@/lib/form-errors';
 import { useUnsubscribe } from '@/features/dispatches/api/public-dispatches';
 
+const WHAT: Record<string, { name: string; undo: string }> = {
+  dispatches: { name: 'dispatches', undo: 'Undo: keep sending me dispatches' },
+  passReminders: { name: 'pass reminders', undo: 'Undo: keep sending me pass reminders' },
+};
+
 /** The footer link: unsubscribes at once (no sign-in), and offers to undo. */
 export function Component() {
   useDocumentTitle('Unsubscribe');
@@ -27,12 +32,15 @@ export function Component() {
         ) : m.isError ? (
           <Alert title="This link did not work">{errorMessage(m.error)}</Alert>
         ) : m.data.subscribed ? (
-          <p className="mt-3">You will receive dispatches by e-mail again.</p>
+          <p className="mt-3">You will receive {(WHAT[m.data.category] ?? WHAT.dispatches!).name} by e-mail again.</p>
         ) : (
           <>
-            <p className="mt-3">You will no longer receive dispatches by e-mail. Receipts and account messages still arrive.</p>
+            <p className="mt-3">
+              You will no longer receive {(WHAT[m.data.category] ?? WHAT.dispatches!).name} by e-mail. Receipts and account messages still
+              arrive.
+            </p>
             <Button className="mt-3" variant="secondary" onClick={() => m.mutate({ token, subscribed: true })}>
-              Undo: keep sending me dispatches
+              {(WHAT[m.data.category] ?? WHAT.dispatches!).undo}
             </Button>
           </>
         )}

@@ -18,6 +18,7 @@ export const mySupportPages: MySupportPage[] = [
     lazy: () => import('@/app/routes/my-support/receipts'),
     children: [{ path: ':entryId', lazy: () => import('@/app/routes/my-support/receipt') }],
   },
+  { path: 'places', label: 'Saved places', order: 45, lazy: () => import('@/app/routes/my-support/places') },
   { path: 'email', label: 'E-mail choices', order: 50, lazy: () => import('@/app/routes/my-support/email') },
   { path: 'data', label: 'Your data', order: 60, lazy: () => import('@/app/routes/my-support/data') },
 ];

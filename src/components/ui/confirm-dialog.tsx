@@ -7,6 +7,7 @@ export function ConfirmDialog({
   title,
   children,
   confirmLabel,
+  cancelLabel = 'Cancel',
   tone = 'primary',
   pending = false,
   onConfirm,
@@ -16,6 +17,8 @@ export function ConfirmDialog({
   title: ReactNode;
   children?: ReactNode;
   confirmLabel: string;
+  /** What the dismiss button says; name what stays as it is when "Cancel" could be read as the action. */
+  cancelLabel?: string;
   tone?: 'primary' | 'danger';
   pending?: boolean;
   onConfirm: () => void;
@@ -52,7 +55,7 @@ export function ConfirmDialog({
         </div>
         <div className="flex flex-wrap justify-end gap-2 pt-2">
           <Button variant="ghost" onClick={onCancel} disabled={pending} autoFocus>
-            Cancel
+            {cancelLabel}
           </Button>
           <Button variant={tone === 'danger' ? 'danger' : 'primary'} onClick={onConfirm} loading={pending}>
             {confirmLabel}

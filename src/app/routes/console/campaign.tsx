@@ -10,6 +10,7 @@ import { FEATURED_CAMPAIGN } from '@/features/campaign/api/get-campaign';
 import { useCampaignManage } from '@/features/campaign/api/get-campaign-manage';
 import { CampaignDetailsForm } from '@/features/campaign/components/campaign-details-form';
 import { StretchTargetsEditor } from '@/features/campaign/components/stretch-targets-editor';
+import { FlightBudgetEditor } from '@/features/campaign/components/flight-budget-editor';
 import { TierForm } from '@/features/campaign/components/tier-form';
 import { money } from '@/features/campaign/format';
 import { useDocumentTitle } from '@/lib/document-title';
@@ -89,6 +90,13 @@ export function Component() {
               ),
             )}
           </ul>
+        </Card>
+        <Card>
+          <CardHeader
+            title="Flight budget"
+            description="What the money pays for, in the order it is filled. The goal is the sum of the lines."
+          />
+          <FlightBudgetEditor key={c.id} campaign={c} />
         </Card>
         <Card>
           <CardHeader title="Stretch targets" description="Shown as reached once progress passes their amount." />

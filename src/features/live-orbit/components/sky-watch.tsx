@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -37,13 +37,29 @@ function fades(p: VisiblePass) {
 }
 
 /** The visible passes over a place for the next ten days, computed in the browser: the place never leaves it. */
-export function SkyWatch({ name, line1, line2 }: { name: string; line1: string; line2: string }) {
-  const [place, setPlace] = useState<(ObserverPlace & { name: string }) | null>(null);
+export function SkyWatch({
+  name,
+  line1,
+  line2,
+  initialPlace = null,
+  afterPasses,
+}: {
+  name: string;
+  line1: string;
+  line2: string;
+  /** A place to forecast at once (a link from a saved place or a reminder e-mail). */
+  initialPlace?: ObserverPlace | null;
+  /** Shown under the forecast for the chosen place (e.g. saving it, which this feature does not do itself). */
+  afterPasses?: (place: ObserverPlace & { name: string }) => ReactNode;
+}) {
+  const [place, setPlace] = useState<(ObserverPlace & { name: string }) | null>(() =>
+    initialPlace ? { ...initialPlace, name: formatLatLon(initialPlace.latitudeDeg, initialPlace.longitudeDeg) } : null,
+  );
   const [geoError, setGeoError] = useState<string | null>(null);
   const [calendarError, setCalendarError] = useState<string | null>(null);
   const form = useForm<In, unknown, ObserverPlace>({
     resolver: zodResolver(observerPlaceSchema),
-    defaultValues: { latitudeDeg: '', longitudeDeg: '' },
+    defaultValues: { latitudeDeg: initialPlace?.latitudeDeg ?? '', longitudeDeg: initialPlace?.longitudeDeg ?? '' },
   });
   const satrec = useMemo(() => createSatrec({ line1, line2 }), [line1, line2]);
   const fromMs = useMemo(() => Math.floor(Date.now() / 60_000) * 60_000, []);
@@ -202,6 +218,7 @@ export function SkyWatch({ name, line1, line2 }: { name: string; line1: string; 
             </Table>
           )}
           {calendarError && <Alert title="No calendar file">{calendarError}</Alert>}
+          {afterPasses?.(place)}
         </section>
       )}
     </div>

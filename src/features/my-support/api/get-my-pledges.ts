@@ -10,6 +10,7 @@ export const mySupportKeys = {
   memberships: () => [...mySupportKeys.all, 'memberships'] as const,
   receipt: (entryId: number) => [...mySupportKeys.all, 'receipts', entryId] as const,
   emailPreferences: () => [...mySupportKeys.all, 'email-preferences'] as const,
+  places: () => [...mySupportKeys.all, 'places'] as const,
 };
 
 export function getMyPledges({ signal }: { signal?: AbortSignal } = {}) {

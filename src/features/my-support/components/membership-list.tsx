@@ -14,6 +14,7 @@ const LIVE = ['active', 'past_due', 'unpaid', 'trialing', 'incomplete', 'paused'
 export function MembershipList({ memberships }: { memberships: MembershipView[] }) {
   const [confirming, setConfirming] = useState<MembershipView | null>(null);
   const renewal = useSetMembershipRenewal();
+  const confirmingEnd = confirming?.currentPeriodEnd ? dateFormat.format(new Date(confirming.currentPeriodEnd)) : null;
   return (
     <>
       {renewal.isError && (
@@ -55,11 +56,11 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
                       loading={renewal.isPending && renewal.variables?.id === m.id}
                       onClick={() => renewal.mutate({ id: m.id, action: 'resume' })}
                     >
-                      Keep my membership
+                      Keep renewing
                     </Button>
                   ) : (
                     <Button variant="danger" size="sm" onClick={() => setConfirming(m)}>
-                      Cancel at period end
+                      Stop renewing…
                     </Button>
                   )}
                   <Link to={`/my-support/memberships/${m.id}/card`} className={buttonClasses({ variant: 'secondary', size: 'sm' })}>
@@ -73,8 +74,9 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
       </ul>
       <ConfirmDialog
         open={confirming !== null}
-        title="Cancel this membership?"
-        confirmLabel="Cancel at period end"
+        title="Stop renewing this crew membership?"
+        confirmLabel={confirmingEnd ? `Stop renewing after ${confirmingEnd}` : 'Stop renewing after this period'}
+        cancelLabel="Keep renewing"
         tone="danger"
         pending={renewal.isPending}
         onCancel={() => setConfirming(null)}
@@ -84,9 +86,8 @@ export function MembershipList({ memberships }: { memberships: MembershipView[] 
         }}
       >
         <p>
-          You stay a crew member until{' '}
-          {confirming?.currentPeriodEnd ? dateFormat.format(new Date(confirming.currentPeriodEnd)) : 'the end of this period'}; after that
-          nothing more is charged. You can change your mind until then.
+          You stay a crew member until {confirmingEnd ?? 'the end of this period'}; after that nothing more is charged. You can change your
+          mind until then.
         </p>
       </ConfirmDialog>
     </>
