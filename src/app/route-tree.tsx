@@ -11,9 +11,10 @@ import type { LazyPage } from './site-map/types';
 
 export const notFound: RouteObject = { path: '*', Component: NotFoundPage };
 
-export function pageRoute(page: { path: string; lazy: LazyPage; children?: RouteObject[] }): RouteObject {
-  if (page.children) return { path: page.path || undefined, children: [{ index: true, lazy: page.lazy }, ...page.children] };
-  return page.path ? { path: page.path, lazy: page.lazy } : { index: true, lazy: page.lazy };
+export function pageRoute(page: { path: string; lazy: LazyPage; eager?: ComponentType; children?: RouteObject[] }): RouteObject {
+  const load: Pick<RouteObject, 'lazy' | 'Component'> = page.eager ? { Component: page.eager } : { lazy: page.lazy };
+  if (page.children) return { path: page.path || undefined, children: [{ index: true, ...load }, ...page.children] };
+  return page.path ? { path: page.path, ...load } : { index: true, ...load };
 }
 
 /** A pathless child with its own error boundary, so a failing page keeps its layout's header and navigation. */
