@@ -7,7 +7,19 @@ import { fileURLToPath } from 'node:url';
 const apiPort = Number(process.env.PORT ?? 3000);
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    {
+      // The Open Graph image of the public pages, drawn by us as SVG and rendered to PNG at build time.
+      name: 'lightkeel-og-image',
+      apply: 'build',
+      async generateBundle() {
+        const { renderOgImagePng } = await import('./scripts/lib/og-image');
+        this.emitFile({ type: 'asset', fileName: 'og/lightkeel.png', source: renderOgImagePng() });
+      },
+    },
+  ],
   resolve: {
     alias: {
       // react-router-dom only re-exports react-router plus the data router's DOM provider, which we do not use;
@@ -44,7 +56,7 @@ export default defineConfig({
                   'src/features/campaign/(api/get-campaign|components/flight-budget|format)',
                   'src/features/dispatches/api/(public-dispatches|keys)',
                   'src/features/live-orbit/(api/(get-latest-set|get-orbit-summary)|components/orbit-status|open-data)',
-                  'shared/(roles|campaign-words|money)',
+                  'shared/(roles|campaign-words|money|site-meta)',
                 ]
                   .map((p) => p.replaceAll('/', '[\\\\/]'))
                   .join('|'),
