@@ -7,14 +7,66 @@ import { fileURLToPath } from 'node:url';
 const apiPort = Number(process.env.PORT ?? 3000);
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    {
+      // The Open Graph image of the public pages, drawn by us as SVG and rendered to PNG at build time.
+      name: 'lightkeel-og-image',
+      apply: 'build',
+      async generateBundle() {
+        const { renderOgImagePng } = await import('./scripts/lib/og-image');
+        this.emitFile({ type: 'asset', fileName: 'og/lightkeel.png', source: renderOgImagePng() });
+      },
+    },
+  ],
   resolve: {
     alias: {
+      // react-router-dom only re-exports react-router plus the data router's DOM provider, which we do not use;
+      // its production build leaves out the development warnings.
+      'react-router-dom': fileURLToPath(new URL('./node_modules/react-router/dist/production/index.mjs', import.meta.url)),
       '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
       '@': fileURLToPath(new URL('./src', import.meta.url)),
     },
   },
-  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1500 },
+  build: {
+    outDir: 'dist',
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 1500,
+    rollupOptions: {
+      output: {
+        // Every page needs React, the router and the query client: one file compresses better and saves requests.
+        // The mission page is in the entry (src/app/site-map/public-pages.ts); everything else stays split per page.
+        codeSplitting: {
+          groups: [
+            {
+              name: 'framework',
+              test: /node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|@tanstack[\\/](react-query|query-core))[\\/]/,
+            },
+            // The site's shell and the mission page in one file (they load together on every first visit).
+            {
+              name: 'shell',
+              test: new RegExp(
+                [
+                  'src/lib/(api-client|cn|document-title|money|roles|return-to|query-client|form-errors)',
+                  'src/components/ui/(button|spinner|alert|card|empty-state|chart-frame|theme-toggle|page-load-error)',
+                  'src/app/(router|route-tree|provider|layouts/(public-layout|root-layout|site-header|site-footer|skip-link|wordmark|use-dismiss))',
+                  'src/app/(routes/(not-found|route-error|home)|site-map/(public-pages|my-support-pages))',
+                  'src/features/auth/api/(get-me|sign-out)',
+                  'src/features/campaign/(api/get-campaign|components/flight-budget|format)',
+                  'src/features/dispatches/api/(public-dispatches|keys)',
+                  'src/features/live-orbit/(api/(get-latest-set|get-orbit-summary)|components/orbit-status|open-data)',
+                  'shared/(roles|campaign-words|money|site-meta)',
+                ]
+                  .map((p) => p.replaceAll('/', '[\\\\/]'))
+                  .join('|'),
+              ),
+            },
+          ],
+        },
+      },
+    },
+  },
   // satellite.js also ships an optional WebAssembly build with a threaded worker (top-level await): ES workers build it.
   worker: { format: 'es' },
   server: {

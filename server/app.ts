@@ -6,6 +6,8 @@ import { pinoHttp } from 'pino-http';
 import pino, { type Logger } from 'pino';
 import { csrfSync } from 'csrf-sync';
 import { existsSync } from 'node:fs';
+import { readFile } from 'node:fs/promises';
+import { withPageMeta } from './lib/page-meta';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
@@ -168,7 +170,14 @@ export function createApp(deps: AppDeps): Express {
   const clientDir = deps.clientDir;
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
-    app.get(['/', '/*rest'], (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    const indexFile = path.join(clientDir, 'index.html');
+    app.get(['/', '/*rest'], async (req, res) => {
+      const html = await readFile(indexFile, 'utf8');
+      res
+        .type('html')
+        .set('cache-control', 'no-cache')
+        .send(withPageMeta(html, req.path, config.PUBLIC_URL));
+    });
   }
 
   app.use(errorHandler);

@@ -1,18 +1,19 @@
-import { StrictMode, useState } from 'react';
+import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
-import { RouterProvider } from 'react-router-dom';
+import { BrowserRouter } from 'react-router-dom';
 import '@fontsource/nunito-sans/latin-400.css';
 import '@fontsource/nunito-sans/latin-600.css';
 import '@fontsource/nunito-sans/latin-700.css';
 import './index.css';
 import { AppProvider } from '@/app/provider';
-import { createRouter } from '@/app/router';
+import { AppRoutes } from '@/app/router';
 
 function App() {
-  const [router] = useState(createRouter);
   return (
     <AppProvider>
-      <RouterProvider router={router} />
+      <BrowserRouter>
+        <AppRoutes />
+      </BrowserRouter>
     </AppProvider>
   );
 }

@@ -1,7 +1,9 @@
 import { z } from 'zod';
 import { safeText } from './text';
 
-export const roles = ['backer', 'outreach', 'engineer', 'finance', 'admin'] as const;
+import { roles } from '../roles';
+
+export { roles };
 export const roleSchema = z.enum(roles);
 export type Role = z.infer<typeof roleSchema>;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { FilledBudgetLine } from '../flight-budget';
+import { NO_GIFT_LABEL, PLEDGE_MAX_MINOR, PLEDGE_MIN_MINOR, SAIL_ROLL_LABEL } from '../campaign-words';
 import { safeText } from './text';
 
 // Inputs and views of campaigns, tiers, stretch targets and pledges, shared by forms and the server.
@@ -16,9 +17,7 @@ export const currencySchema = safeText()
   .regex(/^[A-Za-z]{3}$/, 'must be a three-letter ISO 4217 code')
   .transform((c) => c.toUpperCase());
 
-/** Bounds of a custom pledge, in minor units of the campaign currency (1.00 … 25,000.00). */
-export const PLEDGE_MIN_MINOR = 100;
-export const PLEDGE_MAX_MINOR = 2_500_000;
+export { PLEDGE_MIN_MINOR, PLEDGE_MAX_MINOR };
 
 export const tierKinds = ['one-time', 'monthly'] as const;
 export const tierKindSchema = z.enum(tierKinds);
@@ -206,7 +205,4 @@ export type ReceiptView = {
   pledgeKind: TierKind;
 };
 
-/** The one name, on every screen and in every e-mail, for a pledge that picks no thank-you gift. */
-export const NO_GIFT_LABEL = 'Support without a gift';
-/** The one name of the public list of backers' names that some gifts promise. */
-export const SAIL_ROLL_LABEL = 'Sail roll';
+export { NO_GIFT_LABEL, SAIL_ROLL_LABEL };

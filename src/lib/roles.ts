@@ -1,4 +1,4 @@
-import { roles, type Role } from '@shared/schemas/auth';
+import { roles, type Role } from '@shared/roles';
 
 export const roleLabels: Record<Role, string> = {
   backer: 'Backer',

@@ -8,6 +8,8 @@ import { recordAudit, recordChange } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
 import { reduceMinMax } from '../../../shared/charts/reduce';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
+import { semiMajorAxisRateKmPerDay } from '../../../shared/orbit/physics';
+import { MU_WGS72_KM3_PER_S2 } from '../../../shared/orbit/constants';
 import { median } from '../../../shared/orbit/robust-stats';
 import { betaAngleDeg, sailThrustGeometry } from '../../../shared/orbit/sunlight';
 import { crossoverAltitudeKm, orbitEnergyBalance } from '../../../shared/orbit/sail-drag-balance';
@@ -27,6 +29,8 @@ import { overlapping, trimToFree } from '../../../shared/orbit/period-overlap';
 import { spacecraftView, type SpacecraftRow } from './spacecraft.repository';
 
 const DAY_MS = 86_400_000;
+/** Points of the public summary's small trend chart. */
+export const PUBLIC_TREND_POINTS = 60;
 /** Default window of the rate lines: the last 30 days of the history. */
 export const DEFAULT_RATE_WINDOW_DAYS = 30;
 /** Outliers drawn in one view at most (they are rare; a flood of them would be its own finding). */
@@ -284,6 +288,48 @@ export function createOrbitService({ db }: { db: Db }) {
       counts: trend.counts,
       spanDays: trend.spanDays,
       rateLines,
+    };
+  }
+
+  /** At most PUBLIC_TREND_POINTS averages of apogee and perigee over the whole history (outliers left out), for a small chart. */
+  async function publicTrend(spacecraftId: string) {
+    const { rows } = await pool.query<{ epoch_ms: number; apogee_km: number; perigee_km: number; sets: number }>(
+      `with span as (select min(epoch_ms) as lo, max(epoch_ms) as hi from element_sets where spacecraft_id = $1 and not outlier)
+       select avg(e.epoch_ms)::float8 as epoch_ms, avg(e.apogee_altitude_km)::float8 as apogee_km,
+              avg(e.perigee_altitude_km)::float8 as perigee_km, count(*)::int as sets
+         from element_sets e, span
+        where e.spacecraft_id = $1 and not e.outlier
+        group by least(floor((e.epoch_ms - span.lo) / greatest((span.hi - span.lo) / $2::float8, 1)), $2 - 1)
+        order by 1`,
+      [spacecraftId, PUBLIC_TREND_POINTS],
+    );
+    return rows.map((r) => ({ epochMs: Math.round(r.epoch_ms), apogeeKm: r.apogee_km, perigeeKm: r.perigee_km, sets: r.sets }));
+  }
+
+  /** The measured sail yield (raising minus edge-on periods), also as the semi-major axis it adds per day. */
+  async function publicSailYield(spacecraftId: string) {
+    const [periods, { rows }] = await Promise.all([
+      periodsOf(spacecraftId),
+      pool.query<{ epoch_ms: number; e: number; a: number; outlier: boolean }>(
+        'select epoch_ms, specific_energy_j_per_kg as e, semi_major_axis_km as a, outlier from element_sets where spacecraft_id = $1 order by epoch_ms',
+        [spacecraftId],
+      ),
+    ]);
+    const c = compareSailingPeriods(
+      rows.map((r) => ({ epochMs: r.epoch_ms, specificEnergyJPerKg: r.e, semiMajorAxisKm: r.a, outlier: r.outlier })),
+      periods.map((p) => ({ startMs: p.startAt.getTime(), endMs: p.endAt.getTime(), mode: p.mode })),
+    );
+    const last = rows.findLast((r) => !r.outlier);
+    if (c.sailYieldMPerS2 === null || c.sailYieldJPerKgPerDay === null || !last) return null;
+    return {
+      accelMPerS2: c.sailYieldMPerS2,
+      uncertaintyMPerS2: c.uncertaintyMPerS2,
+      energyJPerKgPerDay: c.sailYieldJPerKgPerDay,
+      // The sets' energies come from WGS-72's μ (derived.ts), so the conversion back uses the same μ.
+      semiMajorAxisKmPerDay: semiMajorAxisRateKmPerDay(c.sailYieldJPerKgPerDay, last.a, MU_WGS72_KM3_PER_S2 * 1e9),
+      atSemiMajorAxisKm: last.a,
+      raisingPeriods: c.raising.periodCount,
+      edgeOnPeriods: c.off.periodCount,
     };
   }
 
@@ -657,6 +703,7 @@ export function createOrbitService({ db }: { db: Db }) {
         [craft.id],
       );
       const latest = rows[0];
+      const [trend, sailYield] = await Promise.all([publicTrend(craft.id), publicSailYield(craft.id)]);
       const base = {
         spacecraft: {
           name: craft.name,
@@ -665,7 +712,7 @@ export function createOrbitService({ db }: { db: Db }) {
           sailDeployedAt: craft.sailDeployedAt?.toISOString() ?? null,
         },
       };
-      if (!latest) return { ...base, latest: null, sinceSailDeployment: null, caution: SAFETY_CAUTION };
+      if (!latest) return { ...base, latest: null, sinceSailDeployment: null, trend, sailYield, caution: SAFETY_CAUTION };
       const fromMs = craft.sailDeployedAt?.getTime();
       let since = null;
       if (fromMs !== undefined) {
@@ -696,6 +743,8 @@ export function createOrbitService({ db }: { db: Db }) {
           meanAltitudeKm: latest.mean_altitude_km,
         },
         sinceSailDeployment: since,
+        trend,
+        sailYield,
         caution: SAFETY_CAUTION,
       };
     },

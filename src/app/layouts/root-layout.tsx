@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import { Outlet, ScrollRestoration, useLocation } from 'react-router-dom';
+import { Outlet, useLocation } from 'react-router-dom';
 import { SkipLink } from './skip-link';
 
 /** After client-side navigation, focus moves to the new page's main region so screen readers start there. */
@@ -12,6 +12,8 @@ function useFocusMainOnNavigate() {
       return;
     }
     document.getElementById('main')?.focus({ preventScroll: true });
+    // A new page starts at its top (an in-page #anchor is left to the browser).
+    if (!window.location.hash) window.scrollTo(0, 0);
   }, [pathname]);
 }
 
@@ -21,7 +23,6 @@ export function RootLayout() {
     <>
       <SkipLink />
       <Outlet />
-      <ScrollRestoration />
     </>
   );
 }

@@ -2,6 +2,7 @@ import { useCallback, useEffect, useId, useRef, useState } from 'react';
 import { Link, NavLink, useLocation, useNavigate } from 'react-router-dom';
 import type { AccountView } from '@shared/schemas/auth';
 import { buttonClasses } from '@/components/ui/button';
+import { ThemeToggle } from '@/components/ui/theme-toggle';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { cn } from '@/lib/cn';
@@ -140,6 +141,7 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
         </nav>
 
         <div className="ml-auto hidden items-center gap-2 sm:flex">
+          <ThemeToggle />
           {me.isPending ? null : account ? (
             <AccountMenu account={account} onSignOut={() => signOut.mutate()} signingOut={signOut.isPending} />
           ) : (
@@ -154,13 +156,14 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
           )}
         </div>
 
+        <ThemeToggle className="ml-auto sm:hidden" />
         <button
           ref={button}
           type="button"
           aria-expanded={mobileOpen}
           aria-controls={mobileId}
           onClick={() => setMobileOpen((v) => !v)}
-          className="ml-auto inline-flex min-h-10 items-center gap-2 rounded-lg border border-foil-700 px-3 text-sm font-semibold text-foil-100 sm:hidden"
+          className="inline-flex min-h-10 items-center gap-2 rounded-lg border border-foil-700 px-3 text-sm font-semibold text-foil-100 sm:hidden"
         >
           <svg aria-hidden="true" viewBox="0 0 20 20" className="size-5">
             {mobileOpen ? (

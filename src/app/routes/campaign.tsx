@@ -11,7 +11,6 @@ import { ThankYouGift } from '@/features/campaign/components/thank-you-gift';
 import { money } from '@/features/campaign/format';
 import { useDocumentTitle } from '@/lib/document-title';
 import { isNotFoundError } from '@/lib/api-client';
-import { NotFoundPage } from './not-found';
 
 function GiftList({
   id,
@@ -44,6 +43,20 @@ function GiftList({
   );
 }
 
+/** An address naming no campaign: say so and point to the one that runs (asking again cannot help). */
+function MissingCampaign({ slug }: { slug: string }) {
+  useDocumentTitle('No such campaign');
+  return (
+    <div className="mx-auto max-w-xl px-4 py-16 text-center">
+      <h1 className="text-3xl font-bold text-foil-50">There is no campaign “{slug}”</h1>
+      <p className="mt-3 text-foil-300">The link may be old or mistyped. The mission’s current campaign is one click away.</p>
+      <Link to="/campaign" className={buttonClasses({ className: 'mt-8' })}>
+        See the current campaign
+      </Link>
+    </div>
+  );
+}
+
 /** The campaign: the flight budget first (what the money buys), the story, then the thank-you gifts and crew. */
 export function Component() {
   const { slug = FEATURED_CAMPAIGN } = useParams();
@@ -51,7 +64,7 @@ export function Component() {
   useDocumentTitle(campaign.data?.title ?? 'Campaign');
 
   if (campaign.isPending) return <PageSpinner label="Loading the campaign…" />;
-  if (campaign.isError && isNotFoundError(campaign.error)) return <NotFoundPage />;
+  if (campaign.isError && isNotFoundError(campaign.error)) return <MissingCampaign slug={slug} />;
   if (campaign.isError)
     return <PageLoadError title="Could not load the campaign" error={campaign.error} onRetry={() => campaign.refetch()} />;
   const c = campaign.data;

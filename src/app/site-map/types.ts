@@ -9,6 +9,8 @@ export type PublicPage = {
   /** Path below `/`, without a leading slash; '' is the home page. */
   path: string;
   lazy: LazyPage;
+  /** The page itself, bundled into the entry instead of loaded on first visit (only the mission page, where most visitors land). */
+  eager?: ComponentType;
   /** Present when the page gets a link in the public header, ordered by `order`. */
   nav?: { label: string; order: number };
   children?: RouteObject[];

@@ -8,9 +8,11 @@ import type { SailYield } from '../types';
 
 const pct = (v: number) => `${(v * 100).toFixed(0)} %`;
 
-function LifetimeRow({ lifetime }: { lifetime: NonNullable<SailYield['lifetime']> }) {
+/** Its own list, or (`inList`) one more term of the panel's list: a <dl> directly inside a <dl> is not valid. */
+function LifetimeRow({ lifetime, inList = false }: { lifetime: NonNullable<SailYield['lifetime']>; inList?: boolean }) {
+  const Wrapper = inList ? 'div' : 'dl';
   return (
-    <dl className="mt-3 text-sm">
+    <Wrapper className="mt-3 text-sm">
       <dt className="text-foil-400">Lifetime estimate — {lifetime.basis}</dt>
       <dd className="tabular-nums text-foil-100">
         {[lifetime.low, lifetime.mean, lifetime.high]
@@ -20,7 +22,7 @@ function LifetimeRow({ lifetime }: { lifetime: NonNullable<SailYield['lifetime']
           )
           .join(' · ')}
       </dd>
-    </dl>
+    </Wrapper>
   );
 }
 
@@ -100,7 +102,7 @@ export function SailYieldPanel({ spacecraftId }: { spacecraftId: string }) {
             </div>
           </>
         )}
-        {lifetime && <LifetimeRow lifetime={lifetime} />}
+        {lifetime && <LifetimeRow lifetime={lifetime} inList />}
       </dl>
       <p className="mt-4 rounded-lg border border-amber-500/50 bg-amber-950/30 px-3 py-2 text-xs text-amber-100" role="note">
         {caution}

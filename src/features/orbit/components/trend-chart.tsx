@@ -257,7 +257,10 @@ export function TrendChart({
         aria-label={`Orbit trend chart, ${formatUtcDate(view.fromMs)} to ${formatUtcDate(view.toMs)}`}
         aria-describedby="trend-help trend-summary"
         onKeyDown={onKeyDown}
-        className="rounded-lg focus-visible:outline-2 focus-visible:outline-amber-400"
+        // The canvas is drawn in the night palette (shared/charts colours, the same as the snapshot PNGs), so its
+        // window stays night-coloured in the light theme too.
+        style={{ backgroundColor: CHART_COLORS.background, color: CHART_COLORS.text }}
+        className="rounded-lg p-2 focus-visible:outline-2 focus-visible:outline-amber-400"
         data-testid="trend-chart"
       >
         <UPlotChart
