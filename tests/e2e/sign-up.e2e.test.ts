@@ -24,11 +24,10 @@ async function signUpThenSignIn(email: string, name: string) {
   await page.getByLabel(/^e-?mail( address)?$/i).fill(email);
   await page.getByLabel(/^password$/i).fill(PASSWORD);
   await page.getByRole('button', { name: /^create account$/i }).click();
-  await page
-    .getByRole('alert')
-    .filter({ hasText: /check your inbox/i })
-    .waitFor();
-  seen.afterSignUp = { path: new URL(page.url()).pathname, alert: await page.getByRole('alert').textContent() };
+  // An info notice is a polite status message, not an alert (src/components/ui/alert.tsx).
+  const notice = page.getByRole('status').filter({ hasText: /check your inbox/i });
+  await notice.waitFor();
+  seen.afterSignUp = { path: new URL(page.url()).pathname, notice: await notice.textContent() };
   await shot(page, `sign-up-${name}`);
   seen.meAfterSignUp = await page.evaluate(async () => (await fetch('/api/auth/me')).json());
 
