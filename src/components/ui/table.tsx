@@ -1,23 +1,46 @@
-import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
+import { useEffect, useRef, useState, type HTMLAttributes, type ReactNode, type TdHTMLAttributes, type ThHTMLAttributes } from 'react';
 import { cn } from '@/lib/cn';
 
+/**
+ * A data table in a box that scrolls sideways when the table is wider than the screen (a phone). While it is wider,
+ * the box is a named region in the tab order, so keyboard users can focus it and scroll with ← and →; when it fits,
+ * it is a plain box and no extra tab stop.
+ */
 export function Table({
   caption,
   className,
   children,
   scrollLabel,
   scrollDescribedBy,
+  onOverflowChange,
 }: {
   caption?: ReactNode;
   className?: string;
   children: ReactNode;
-  /** For a table that may be wider than the screen: its scroll box becomes a named region keyboard users can focus and scroll. */
+  /** The region's name while it scrolls; defaults to the caption (when it is text) and "scrolls sideways". */
   scrollLabel?: string;
   scrollDescribedBy?: string;
+  /** Told whenever the table starts or stops being wider than its box. */
+  onOverflowChange?: (overflows: boolean) => void;
 }) {
-  const region = scrollLabel ? { role: 'region', 'aria-label': scrollLabel, 'aria-describedby': scrollDescribedBy, tabIndex: 0 } : {};
+  const box = useRef<HTMLDivElement>(null);
+  const [overflows, setOverflows] = useState(false);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    const measure = () => setOverflows(el.scrollWidth > el.clientWidth + 1);
+    const ro = new ResizeObserver(measure);
+    ro.observe(el);
+    const table = el.querySelector('table');
+    if (table) ro.observe(table);
+    measure();
+    return () => ro.disconnect();
+  }, []);
+  useEffect(() => onOverflowChange?.(overflows), [overflows, onOverflowChange]);
+  const label = scrollLabel ?? (typeof caption === 'string' ? `${caption}, scrolls sideways` : 'Table, scrolls sideways');
+  const region = overflows ? { role: 'region', 'aria-label': label, 'aria-describedby': scrollDescribedBy, tabIndex: 0 } : {};
   return (
-    <div className={cn('overflow-x-auto rounded-xl border border-foil-700/60', className)} {...region}>
+    <div ref={box} className={cn('overflow-x-auto rounded-xl border border-foil-700/60', className)} {...region}>
       <table className="w-full border-collapse text-left text-sm">
         {caption && <caption className="sr-only">{caption}</caption>}
         {children}

@@ -318,7 +318,7 @@ function Months() {
         <TBody>
           {months.data.map((m) => (
             <Tr key={m.month}>
-              <Td>{m.month}</Td>
+              <Td className="whitespace-nowrap">{m.month}</Td>
               <Td>{m.closedAt ? <Badge tone="good">closed</Badge> : <Badge>open</Badge>}</Td>
               <Td>
                 <a className="text-amber-300 underline" href={`/api/books/months/${m.month}/report.pdf`}>
@@ -331,8 +331,13 @@ function Months() {
               </Td>
               <Td>
                 {!m.closedAt ? (
-                  <Button size="sm" onClick={() => close.mutate(m.month)} loading={close.isPending && close.variables === m.month}>
-                    Close {m.month}
+                  <Button
+                    size="sm"
+                    aria-label={`Close month ${m.month}`}
+                    onClick={() => close.mutate(m.month)}
+                    loading={close.isPending && close.variables === m.month}
+                  >
+                    Close month
                   </Button>
                 ) : !m.published ? (
                   <Button size="sm" variant="secondary" onClick={() => publish.mutate({ month: m.month, campaignSlug: 'tern-1' })}>

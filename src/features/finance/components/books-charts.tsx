@@ -13,9 +13,9 @@ export function MonthsChart({ months }: { months: BooksDashboard['months'] }) {
     <figure aria-label="Charges, refunds and net by month" className="h-64">
       <ResponsiveContainer width="100%" height="100%">
         <BarChart data={data}>
-          <CartesianGrid strokeDasharray="3 3" stroke="#334" />
-          <XAxis dataKey="month" stroke="#ccd" fontSize={12} />
-          <YAxis stroke="#ccd" fontSize={12} />
+          <CartesianGrid strokeDasharray="3 3" stroke="var(--lk-foil-700)" />
+          <XAxis dataKey="month" stroke="var(--lk-foil-300)" fontSize={12} />
+          <YAxis stroke="var(--lk-foil-300)" fontSize={12} />
           <Tooltip />
           <Legend />
           <Bar dataKey="charges" fill="#fbbf24" />
@@ -33,9 +33,9 @@ export function TierChart({ tiers }: { tiers: BooksDashboard['byTier'] }) {
     <figure aria-label="Money by tier" className="h-64">
       <ResponsiveContainer width="100%" height="100%">
         <BarChart data={data} layout="vertical">
-          <CartesianGrid strokeDasharray="3 3" stroke="#334" />
-          <XAxis type="number" stroke="#ccd" fontSize={12} />
-          <YAxis type="category" dataKey="tier" stroke="#ccd" fontSize={12} width={120} />
+          <CartesianGrid strokeDasharray="3 3" stroke="var(--lk-foil-700)" />
+          <XAxis type="number" stroke="var(--lk-foil-300)" fontSize={12} />
+          <YAxis type="category" dataKey="tier" stroke="var(--lk-foil-300)" fontSize={12} width={120} />
           <Tooltip />
           <Bar dataKey="amount" fill="#60a5fa" />
         </BarChart>

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { SavedPlacesView } from '@shared/schemas/places';
 import { Alert } from '@/components/ui/alert';
@@ -13,6 +14,8 @@ const coordinates = (lat: number, lon: number) =>
 export function SavedPlaces({ view }: { view: SavedPlacesView }) {
   const remove = useDeletePlace();
   const reminders = useSetPassReminders();
+  // The box shows the reader's choice at once, not after the server answers; on an error it goes back to what is stored.
+  const [wanted, setWanted] = useState<boolean | null>(null);
   return (
     <div className="space-y-6">
       <section aria-labelledby="reminders-heading" className="rounded-2xl border border-foil-700/60 bg-night-900/80 p-5">
@@ -23,9 +26,12 @@ export function SavedPlaces({ view }: { view: SavedPlacesView }) {
           <input
             type="checkbox"
             className="mt-1 size-4 accent-amber-400"
-            checked={reminders.isPending ? reminders.variables.enabled : view.passReminders}
+            checked={wanted ?? view.passReminders}
             disabled={reminders.isPending}
-            onChange={(e) => reminders.mutate({ enabled: e.target.checked })}
+            onChange={(e) => {
+              setWanted(e.target.checked);
+              reminders.mutate({ enabled: e.target.checked }, { onSettled: () => setWanted(null) });
+            }}
           />
           <span>
             <span className="block font-semibold text-foil-100">E-mail me before a good pass over my saved places</span>

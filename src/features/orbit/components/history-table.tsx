@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { Alert } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
@@ -58,18 +58,7 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
   );
   const q = useHistory(spacecraftId, params);
   // Says so when the table is wider than its box (a narrow window), so no column goes unseen.
-  const scroller = useRef<HTMLDivElement>(null);
   const [overflows, setOverflows] = useState(false);
-  useEffect(() => {
-    const el = scroller.current;
-    const box = el?.firstElementChild;
-    if (!el || !(box instanceof HTMLElement)) return;
-    const ro = new ResizeObserver(() => setOverflows(box.scrollWidth > box.clientWidth + 1));
-    ro.observe(box);
-    const table = box.querySelector('table');
-    if (table) ro.observe(table);
-    return () => ro.disconnect();
-  }, [q.isSuccess]);
   const table = useReactTable({
     data: q.data?.rows ?? [],
     columns,
@@ -138,54 +127,48 @@ export function HistoryTable({ spacecraftId }: { spacecraftId: string }) {
               The table is wider than this window: scroll it sideways to see all {columns.length} columns (with the table focused, ← and →).
             </p>
           )}
-          <div ref={scroller}>
-            <Table
-              caption="Element-set history"
-              scrollLabel="Element-set history, scrolls sideways"
-              scrollDescribedBy={overflows ? 'history-scroll-hint' : undefined}
-            >
-              <THead>
-                {table.getHeaderGroups().map((hg) => (
-                  <tr key={hg.id}>
-                    {hg.headers.map((h) => {
-                      const sorted = h.column.getIsSorted();
-                      return (
-                        <Th
-                          key={h.id}
-                          aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                          className="whitespace-nowrap px-2 py-2.5"
-                        >
-                          {h.column.getCanSort() ? (
-                            <button
-                              type="button"
-                              className="inline-flex items-center gap-1 uppercase hover:text-foil-50"
-                              onClick={h.column.getToggleSortingHandler()}
-                            >
-                              {flexRender(h.column.columnDef.header, h.getContext())}
-                              <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                            </button>
-                          ) : (
-                            flexRender(h.column.columnDef.header, h.getContext())
-                          )}
-                        </Th>
-                      );
-                    })}
-                  </tr>
-                ))}
-              </THead>
-              <TBody>
-                {table.getRowModel().rows.map((r) => (
-                  <Tr key={r.id} className={r.original.outlier ? 'bg-red-950/20' : undefined}>
-                    {r.getVisibleCells().map((c) => (
-                      <Td key={c.id} className="whitespace-nowrap px-2 py-2 tabular-nums">
-                        {flexRender(c.column.columnDef.cell, c.getContext())}
-                      </Td>
-                    ))}
-                  </Tr>
-                ))}
-              </TBody>
-            </Table>
-          </div>
+          <Table caption="Element-set history" scrollDescribedBy="history-scroll-hint" onOverflowChange={setOverflows}>
+            <THead>
+              {table.getHeaderGroups().map((hg) => (
+                <tr key={hg.id}>
+                  {hg.headers.map((h) => {
+                    const sorted = h.column.getIsSorted();
+                    return (
+                      <Th
+                        key={h.id}
+                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                        className="whitespace-nowrap px-2 py-2.5"
+                      >
+                        {h.column.getCanSort() ? (
+                          <button
+                            type="button"
+                            className="inline-flex items-center gap-1 uppercase hover:text-foil-50"
+                            onClick={h.column.getToggleSortingHandler()}
+                          >
+                            {flexRender(h.column.columnDef.header, h.getContext())}
+                            <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                          </button>
+                        ) : (
+                          flexRender(h.column.columnDef.header, h.getContext())
+                        )}
+                      </Th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </THead>
+            <TBody>
+              {table.getRowModel().rows.map((r) => (
+                <Tr key={r.id} className={r.original.outlier ? 'bg-red-950/20' : undefined}>
+                  {r.getVisibleCells().map((c) => (
+                    <Td key={c.id} className="whitespace-nowrap px-2 py-2 tabular-nums">
+                      {flexRender(c.column.columnDef.cell, c.getContext())}
+                    </Td>
+                  ))}
+                </Tr>
+              ))}
+            </TBody>
+          </Table>
           <div className="flex flex-wrap items-center justify-between gap-3 text-sm text-foil-300">
             <span>
               {countOf(q.data.total, 'set')} · page {q.data.page} of {q.data.pageCount}
