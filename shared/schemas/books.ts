@@ -52,3 +52,41 @@ export const findingKinds = [
 export type FindingKind = (typeof findingKinds)[number];
 /** Findings that stand in the way of a month close until resolved. */
 export const blockingFindingKinds: FindingKind[] = findingKinds.filter((k) => k !== 'payout_sums');
+
+/** One currency's money in a month's close report, in minor units. */
+export type CurrencyTotals = {
+  currency: string;
+  chargesMinor: number;
+  feesMinor: number;
+  refundsMinor: number;
+  disputesMinor: number;
+  disputeReversalsMinor: number;
+  payoutsMinor: number;
+  netMinor: number;
+};
+
+/** A month's close report: frozen at close, computed live while the month is open. */
+export type MonthReport = {
+  month: string;
+  totals: CurrencyTotals[];
+  byTier: { campaignTitle: string; tierTitle: string; currency: string; count: number; amountMinor: number }[];
+  /** Entries booked into this month that happened in an earlier, closed month (e.g. a later refund). */
+  lateEntries: {
+    entryId: number;
+    kind: string;
+    amountMinor: number;
+    currency: string;
+    occurredMonth: string;
+    processorChargeId: string | null;
+  }[];
+  payouts: { processorObjectId: string; amountMinor: number; currency: string; occurredAt: string }[];
+};
+export type MonthReportView = { month: string; closed: { at: string; runId: string } | null; report: MonthReport };
+
+/** Refund reasons in words, for people. */
+export const refundReasonWords: Record<RefundReason, string> = {
+  backer_asked: 'The backer asked',
+  duplicate: 'Paid twice',
+  fraudulent: 'Fraudulent payment',
+  goodwill: 'Goodwill',
+};

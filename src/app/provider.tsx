@@ -1,5 +1,6 @@
 import { useState, type ReactNode } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
+import { ToastProvider } from '@/components/ui/toast';
 import { createQueryClient } from '@/lib/query-client';
 import { getMeQueryOptions } from '@/features/auth/api/get-me';
 
@@ -12,5 +13,9 @@ export function AppProvider({ children }: { children: ReactNode }) {
     });
     return client;
   });
-  return <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>;
+  return (
+    <QueryClientProvider client={queryClient}>
+      <ToastProvider>{children}</ToastProvider>
+    </QueryClientProvider>
+  );
 }

@@ -35,6 +35,12 @@ export function applyApiError<T extends FieldValues>(
   return [error.message, ...leftOver].join(' ');
 }
 
+/** An API error's field details by field name, for forms that keep their own state (no react-hook-form). */
+export function fieldErrors(error: unknown): Record<string, string> {
+  if (!isApiError(error)) return {};
+  return Object.fromEntries(error.details.map((d) => [fieldOf(d.path), d.message]));
+}
+
 /** A detail's path without the request part it came from: "body.title" → "title". */
 export function fieldOf(path: string): string {
   return path.replace(/^(body|query|params|file)(\.|$)/, '');

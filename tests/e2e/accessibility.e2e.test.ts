@@ -93,6 +93,9 @@ describe('main console pages pass axe with no serious or critical violation', ()
     ['/console/campaign', 'campaign-desk', 'outreach@saltmarsh.example'],
     ['/console/dispatches', 'dispatch-desk', 'outreach@saltmarsh.example'],
     ['/console/books', 'books', 'finance@saltmarsh.example'],
+    ['/console/books/reconcile', 'books-reconcile', 'finance@saltmarsh.example'],
+    ['/console/books/pledges', 'books-pledges', 'finance@saltmarsh.example'],
+    ['/console/books/months', 'books-months', 'finance@saltmarsh.example'],
     ['/console/people', 'people', 'admin@saltmarsh.example'],
   ];
   for (const [path, name, account] of pages) it(`${path} as ${account.split('@')[0]}`, async () => check(path, name, account), 180_000);

@@ -1,6 +1,8 @@
 // Books in the browser: finance starts a reconciliation run, watches its progress bar (the worker stores
-// progress on the run; the page polls it), sees the findings and records the missing one; the backer downloads
-// the receipt PDF from my support, whose first page is rendered to PNG with poppler's pdftoppm and checked.
+// progress on the run; the page polls it), sees the findings and records the missing one, refunds part of a
+// pledge from its page (pending until the webhook books it), closes last month after a clean run, publishes its
+// account and downloads its report; the backer downloads the receipt PDF from my support, whose first page is
+// rendered to PNG with poppler's pdftoppm and checked.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
@@ -75,6 +77,7 @@ describe('books in the browser', () => {
     const finance = await newPage(browser);
     await signInAs(finance.page, baseUrl, 'finance@saltmarsh.example', DEMO_PASSWORD);
     await finance.page.goto(`${baseUrl}/console/books`);
+    await finance.page.getByRole('navigation', { name: 'Books' }).getByRole('link', { name: 'Reconcile' }).click();
     const today = new Date().toISOString().slice(0, 10);
     await finance.page.getByLabel('From', { exact: true }).fill(new Date(Date.now() - 3 * 86_400_000).toISOString().slice(0, 10));
     await finance.page.getByLabel('To', { exact: true }).fill(today);
@@ -106,6 +109,70 @@ describe('books in the browser', () => {
       .poll(async () => `${await missing.innerText()} ${await finance.page.getByRole('alert').allInnerTexts()}`, { timeout: 30_000 })
       .toMatch(/resolved \(record from processor\)/);
     await shot(finance.page, 'books-08-finding-resolved-desktop');
+
+    // Finance refunds $10 of the $37 pledge from its page in books: pending until the processor's webhook books it.
+    await finance.page.getByRole('navigation', { name: 'Books' }).getByRole('link', { name: 'Pledges and refunds' }).click();
+    await finance.page.getByLabel('Backer’s e-mail or name, or the pledge id').fill('backer@saltmarsh.example');
+    const pledges = finance.page.getByRole('table', { name: 'Pledges, newest first' });
+    await pledges.getByRole('link', { name: '$37.00' }).first().click();
+    await finance.page.getByRole('heading', { name: 'Payments and refunds' }).waitFor();
+    const amount = finance.page.getByLabel('Amount in USD');
+    expect(await amount.inputValue()).toBe('37.00'); // the whole payment is offered
+    await amount.fill('40');
+    await finance.page.getByRole('button', { name: 'Refund…' }).click();
+    await expect.poll(() => finance.page.getByText('At most $37.00 is left to refund on this payment.').count()).toBe(1);
+    await amount.fill('10');
+    await finance.page.getByLabel('Reason').selectOption({ label: 'Goodwill' });
+    await finance.page.getByRole('button', { name: 'Refund…' }).click();
+    const confirm = finance.page.getByRole('dialog', { name: 'Refund $10.00?' });
+    await confirm.getByRole('button', { name: 'Send the refund' }).click();
+    const refundRow = finance.page.getByTestId('refund').filter({ hasText: '$10.00' });
+    await expect.poll(() => refundRow.innerText(), { timeout: 30_000 }).toMatch(/Goodwill.*in the ledger/s);
+    await expect.poll(() => finance.page.getByText('$27.00 can still be refunded').count(), { timeout: 10_000 }).toBe(1);
+    await shot(finance.page, 'books-09-pledge-refunded-desktop');
+    await finance.page.setViewportSize({ width: 390, height: 844 });
+    await shot(finance.page, 'books-10-pledge-refunded-phone');
+    await finance.page.setViewportSize({ width: 1280, height: 860 });
+
+    // Last month: reconcile all of it (nothing differs), close it, read and download its report, publish its account.
+    const last = new Date(Date.UTC(new Date().getUTCFullYear(), new Date().getUTCMonth() - 1, 1)).toISOString().slice(0, 7);
+    await finance.page.getByRole('navigation', { name: 'Books' }).getByRole('link', { name: 'Reconcile' }).click();
+    await finance.page.getByRole('button', { name: 'All of last month' }).click();
+    expect(await finance.page.getByLabel('From', { exact: true }).inputValue()).toBe(`${last}-01`);
+    await finance.page.getByRole('button', { name: 'Compare with the processor' }).click();
+    await finance.page.getByText(/processor transactions, \d+ matched, 0 finding\(s\)/).waitFor({ timeout: 60_000 });
+    await finance.page.getByRole('navigation', { name: 'Books' }).getByRole('link', { name: 'Months' }).click();
+    await finance.page.getByRole('button', { name: `Close month ${last}` }).click();
+    await finance.page
+      .getByRole('dialog', { name: `Close ${last}?` })
+      .getByRole('button', { name: 'Close the month' })
+      .click();
+    const monthRow = finance.page.getByRole('row').filter({ hasText: last });
+    await monthRow.getByText('closed', { exact: true }).waitFor({ timeout: 15_000 });
+    await monthRow.getByRole('button', { name: `Publish the account of ${last}` }).click();
+    await finance.page
+      .getByRole('dialog', { name: `Publish the account of ${last}?` })
+      .getByRole('button', { name: 'Publish for backers' })
+      .click();
+    await monthRow.getByText('account published').waitFor({ timeout: 15_000 });
+    await shot(finance.page, 'books-11-month-closed-desktop');
+    await monthRow.getByRole('link', { name: `Close report for ${last}`, exact: true }).click();
+    await finance.page.getByRole('heading', { name: `Close report ${last}` }).waitFor();
+    await finance.page.getByRole('table', { name: `Totals for ${last}` }).waitFor();
+    await shot(finance.page, 'books-12-month-report-desktop');
+    await finance.page.setViewportSize({ width: 390, height: 844 });
+    await shot(finance.page, 'books-13-month-report-phone');
+    await finance.page.setViewportSize({ width: 1280, height: 860 });
+    const [reportDownload] = await Promise.all([
+      finance.page.waitForEvent('download'),
+      finance.page.getByRole('link', { name: 'Download as PDF' }).click(),
+    ]);
+    expect(reportDownload.suggestedFilename()).toBe(`close-report-${last}.pdf`);
+    const reportPath = path.join(mkdtempSync(path.join(os.tmpdir(), 'lightkeel-report-')), reportDownload.suggestedFilename());
+    await reportDownload.saveAs(reportPath);
+    ensurePdftoppm(); // poppler-utils brings pdftotext too
+    const reportText = spawnSync('/usr/bin/pdftotext', ['-layout', reportPath, '-'], { encoding: 'utf8' }).stdout;
+    expect(reportText).toContain(last);
     expect(finance.problems).toEqual([]);
 
     // The backer: my support → the $37 payment's receipt → the PDF.

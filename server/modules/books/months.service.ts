@@ -7,31 +7,9 @@ import { recordAudit } from '../audit/audit.repository';
 import { AppError, conflict, notFound } from '../../errors';
 import type { ReconciliationService } from './reconciliation.service';
 import { recordsToCsv } from '../../lib/csv';
+import type { CurrencyTotals, MonthReport } from '../../../shared/schemas/books';
 
-export type CurrencyTotals = {
-  currency: string;
-  chargesMinor: number;
-  feesMinor: number;
-  refundsMinor: number;
-  disputesMinor: number;
-  disputeReversalsMinor: number;
-  payoutsMinor: number;
-  netMinor: number;
-};
-export type MonthReport = {
-  month: string;
-  totals: CurrencyTotals[];
-  byTier: { campaignTitle: string; tierTitle: string; currency: string; count: number; amountMinor: number }[];
-  lateEntries: {
-    entryId: number;
-    kind: string;
-    amountMinor: number;
-    currency: string;
-    occurredMonth: string;
-    processorChargeId: string | null;
-  }[];
-  payouts: { processorObjectId: string; amountMinor: number; currency: string; occurredAt: string }[];
-};
+export type { CurrencyTotals, MonthReport };
 
 export const monthStart = (month: string) => new Date(`${month}-01T00:00:00Z`);
 export const nextMonth = (month: string) => {
@@ -138,6 +116,8 @@ export function createMonthsService(deps: { db: Db; reconciliation: Reconciliati
           select distinct booked_month as m from ledger_entries
           union select month from month_closes
           union select date_trunc('month', now() at time zone 'UTC')::date
+          -- the month just ended is the one finance closes next, also when no money moved in it
+          union select (date_trunc('month', now() at time zone 'UTC') - interval '1 month')::date
         ) x order by m desc limit 36`);
       const closes = await db.select().from(monthCloses);
       const published = await db.select({ month: monthlyAccounts.month }).from(monthlyAccounts);

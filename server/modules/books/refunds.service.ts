@@ -15,6 +15,7 @@ import { accounts } from '../accounts/accounts.tables';
 import { recordAudit } from '../audit/audit.repository';
 import { lockPledge, type Tx } from '../pledges/pledge-ledger';
 import { AppError, conflict, notFound } from '../../errors';
+import { formatMoney } from '../../../shared/money';
 import type { CreateRefundInput, RefundReason } from '../../../shared/schemas/books';
 import { receipts } from './books.tables';
 
@@ -120,11 +121,13 @@ export function createRefundsService(deps: { db: Db; config: Config; processor: 
         if (!left || left.charge.pledgeId !== pledgeId)
           throw notFound('books.charge_not_found', `Payment ${chargeId} is not a payment of this pledge.`);
         if (input.amountMinor > left.remainingMinor) {
+          const m = (minor: number) => formatMoney(minor, left.charge.currency, 'en-US');
+          const room = m(Math.max(0, left.remainingMinor));
           throw new AppError(
             409,
             'books.refund_exceeds_paid',
-            `A refund of ${input.amountMinor} would be more than is left of the payment: ${left.charge.amountMinor} paid, ${left.refundedMinor} refunded, ${left.pendingMinor} waiting for the processor, ${Math.max(0, left.remainingMinor)} left.`,
-            [{ path: 'amountMinor', message: `must be at most ${Math.max(0, left.remainingMinor)}` }],
+            `A refund of ${m(input.amountMinor)} would be more than is left of the payment: ${m(left.charge.amountMinor)} paid, ${m(left.refundedMinor)} refunded, ${m(left.pendingMinor)} waiting for the processor, ${room} left.`,
+            [{ path: 'amountMinor', message: `must be at most ${room}` }],
           );
         }
         const [row] = await tx

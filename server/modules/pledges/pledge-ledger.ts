@@ -68,6 +68,13 @@ export async function recordCharge(tx: Tx, pledge: PledgeRow, facts: ChargeFacts
   return inserted;
 }
 
+/** The processor's refund reasons, as the ledger and receipts say them. */
+const refundReasonInWords: Record<string, string> = {
+  requested_by_customer: 'the backer asked',
+  duplicate: 'paid twice',
+  fraudulent: 'fraudulent payment',
+};
+
 export async function recordRefund(tx: Tx, pledge: PledgeRow, refund: Stripe.Refund): Promise<boolean> {
   if (refund.status !== 'succeeded' && refund.status !== 'pending') return false;
   const inserted = await appendLedgerEntry(tx, {
@@ -80,7 +87,7 @@ export async function recordRefund(tx: Tx, pledge: PledgeRow, refund: Stripe.Ref
     processorChargeId: idOf(refund.charge),
     processorPaymentIntentId: idOf(refund.payment_intent),
     processorBalanceTransactionId: idOf(refund.balance_transaction),
-    description: refund.reason ? `Refund (${refund.reason})` : 'Refund',
+    description: refund.reason ? `Refund (${refundReasonInWords[refund.reason] ?? refund.reason.replaceAll('_', ' ')})` : 'Refund',
     occurredAt: at(refund.created),
   });
   const chargeId = idOf(refund.charge);

@@ -75,7 +75,15 @@ export const consoleSections: ConsoleSection[] = [
       'Start a reconciliation run against the processor’s records and work through its findings.',
       'Close the month once the ledger and the processor agree.',
     ],
-    lazy: () => import('@/app/routes/console/books'),
+    lazy: () => import('@/app/routes/console/books/overview'),
+    children: [
+      { path: 'reconcile', lazy: () => import('@/app/routes/console/books/reconcile') },
+      { path: 'pledges', lazy: () => import('@/app/routes/console/books/pledges') },
+      { path: 'pledges/:pledgeId', lazy: () => import('@/app/routes/console/books/pledge') },
+      { path: 'disputes', lazy: () => import('@/app/routes/console/books/disputes') },
+      { path: 'months', lazy: () => import('@/app/routes/console/books/months') },
+      { path: 'months/:month', lazy: () => import('@/app/routes/console/books/month') },
+    ],
   },
   {
     id: 'people',

@@ -1,10 +1,11 @@
+import type { PledgeState } from '@shared/schemas/campaign';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, withQuery } from '@/lib/api-client';
 import { booksKeys } from './keys';
 
 export type BooksPledgeRow = {
   id: string;
-  state: string;
+  state: PledgeState;
   amountMinor: number;
   currency: string;
   campaignTitle: string;

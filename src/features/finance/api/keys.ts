@@ -6,5 +6,6 @@ export const booksKeys = {
   pledges: (q: string) => [...booksKeys.all, 'pledges', q] as const,
   pledge: (id: string) => [...booksKeys.all, 'pledge', id] as const,
   months: () => [...booksKeys.all, 'months'] as const,
+  month: (month: string) => [...booksKeys.months(), month] as const,
   disputes: () => [...booksKeys.all, 'disputes'] as const,
 };

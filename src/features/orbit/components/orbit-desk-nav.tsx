@@ -1,5 +1,4 @@
-import { NavLink } from 'react-router-dom';
-import { cn } from '@/lib/cn';
+import { SectionNav } from '@/components/ui/section-nav';
 import type { Spacecraft } from '../types';
 
 const tabs = [
@@ -22,23 +21,7 @@ export function OrbitDeskNav({
 }) {
   return (
     <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
-      <nav aria-label="Orbit desk" className="-mx-1 flex flex-wrap gap-1">
-        {tabs.map((t) => (
-          <NavLink
-            key={t.to}
-            to={t.to}
-            end={t.end}
-            className={({ isActive }) =>
-              cn(
-                'rounded-lg px-3 py-1.5 text-sm font-semibold transition-colors',
-                isActive ? 'bg-amber-400 text-night-950' : 'text-foil-200 hover:bg-night-800 hover:text-foil-50',
-              )
-            }
-          >
-            {t.label}
-          </NavLink>
-        ))}
-      </nav>
+      <SectionNav label="Orbit desk" links={tabs} />
       {all.length > 1 && current && (
         <label className="flex items-center gap-2 text-sm text-foil-300">
           Spacecraft

@@ -1,0 +1,26 @@
+import type { ReactNode } from 'react';
+import { PageHeader } from '@/components/ui/page-header';
+import { SectionNav } from '@/components/ui/section-nav';
+import { useDocumentTitle } from '@/lib/document-title';
+
+const pages = [
+  { to: '/console/books', label: 'At a glance', end: true },
+  { to: '/console/books/reconcile', label: 'Reconcile' },
+  { to: '/console/books/pledges', label: 'Pledges and refunds' },
+  { to: '/console/books/disputes', label: 'Disputes' },
+  { to: '/console/books/months', label: 'Months' },
+];
+
+/** Header and page row shared by every books page. */
+export function BooksFrame({ title, description, children }: { title: string; description?: ReactNode; children: ReactNode }) {
+  useDocumentTitle(title === 'Books' ? 'Books' : `${title} · Books`);
+  return (
+    <>
+      <PageHeader eyebrow={title === 'Books' ? 'Console' : 'Console · Books'} title={title} description={description} />
+      <div className="mb-6">
+        <SectionNav label="Books" links={pages} />
+      </div>
+      <div className="space-y-6">{children}</div>
+    </>
+  );
+}
