@@ -18,6 +18,8 @@ export function PledgeFinder() {
   const search = useDeferredValue(q.trim());
   const list = usePledges(search);
   const shown = list.data?.slice(0, 50) ?? [];
+  // The campaign is a column only when the list spans more than one.
+  const manyCampaigns = new Set(shown.map((p) => p.campaignTitle)).size > 1;
   return (
     <Card>
       <h2 className="text-lg font-bold text-foil-50">Find a pledge</h2>
@@ -39,7 +41,7 @@ export function PledgeFinder() {
               <Tr>
                 <Th>Amount</Th>
                 <Th>Backer</Th>
-                <Th>For</Th>
+                {manyCampaigns && <Th>For</Th>}
                 <Th>State</Th>
               </Tr>
             </THead>
@@ -52,7 +54,7 @@ export function PledgeFinder() {
                     </Link>
                   </Td>
                   <Td>{p.backer ? (p.backer.name ?? p.backer.email) : <span className="text-foil-400">anonymised</span>}</Td>
-                  <Td>{p.campaignTitle}</Td>
+                  {manyCampaigns && <Td>{p.campaignTitle}</Td>}
                   <Td>
                     <Badge tone={p.state === 'paid' ? 'good' : 'neutral'}>{pledgeStateLabels[p.state]}</Badge>
                   </Td>
