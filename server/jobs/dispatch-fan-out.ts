@@ -3,7 +3,7 @@ import { defineQueue } from './queue';
 import { DISPATCH_FAN_OUT_QUEUE } from '../modules/dispatches/dispatches.service';
 import { createDispatchSending } from '../modules/dispatches/dispatch-sending';
 
-/** Resolves a published dispatch's audience now and fills the mail queue (one transaction; idempotent). */
+/** Resolves a published dispatch's audience now and fills the mail queue in committed chunks (idempotent). */
 export const dispatchFanOutQueue = defineQueue({
   name: DISPATCH_FAN_OUT_QUEUE,
   schema: z.object({ dispatchId: z.uuid() }),

@@ -111,17 +111,33 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     return rows;
   }
 
-  /** Claims every due row of one batch (the unit the service's batch key covers). */
-  async function claimBatch(): Promise<Row[]> {
-    const { rows } = await pool.query<Row>(
-      `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
+  /**
+   * Claims every due row of one batch (the unit the service's batch key covers). Claims in one process take turns:
+   * two claims at once could lock different rows of the same batch and deadlock. Between processes Postgres
+   * breaks such a deadlock by failing one claim, which is then simply made again.
+   */
+  let claiming: Promise<unknown> = Promise.resolve();
+  function claimBatch(): Promise<Row[]> {
+    const turn = claiming.then(() => claimBatchNow());
+    claiming = turn.catch(() => undefined);
+    return turn;
+  }
+  async function claimBatchNow(attempt = 1): Promise<Row[]> {
+    const result = await pool
+      .query<Row>(
+        `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
         where batch_key = (select batch_key from mail_queue where batch_key is not null and ${CLAIMABLE}
                             order by next_attempt_at limit 1 for update skip locked)
           and ${CLAIMABLE}
         returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
-      [opts.leaseSeconds],
-    );
-    return rows.sort((a, b) => a.idempotency_key.localeCompare(b.idempotency_key));
+        [opts.leaseSeconds],
+      )
+      .catch((err: unknown) => {
+        if ((err as { code?: string }).code === '40P01' && attempt < 5) return null; // deadlock_detected
+        throw err;
+      });
+    if (!result) return claimBatchNow(attempt + 1);
+    return result.rows.sort((a, b) => a.idempotency_key.localeCompare(b.idempotency_key));
   }
 
   async function settle(rows: Row[], answer: Answer, ids?: string[]) {
@@ -231,26 +247,32 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
   }
 
   /**
-   * One pass: claims and sends until nothing is due. Returns how many rows it handled. Each round takes up to
-   * `concurrency` single messages and up to `concurrency` batches and sends them side by side, so account mail
-   * queued behind a large dispatch waits one round at most, and batch calls overlap the next batch's rendering.
+   * One pass: claims and sends until nothing is due; returns how many rows it handled. `concurrency` batch lanes
+   * each claim the next batch as soon as their last call is answered (no round waits for its slowest batch), and
+   * one lane beside them sends single messages, `concurrency` at a time, so account mail queued behind a large
+   * dispatch never waits for the dispatch.
    */
   async function drain(): Promise<number> {
     let handled = 0;
-    for (;;) {
-      const singles = await claimSingles(opts.concurrency);
-      for (const r of singles) inFlight.add(r.id);
-      const batches: Row[][] = [];
-      while (batches.length < opts.concurrency) {
+    const batchLane = async () => {
+      for (;;) {
         const batch = await claimBatch();
-        if (!batch.length) break;
-        batches.push(batch);
+        if (!batch.length) return;
+        await sendBatch(batch);
+        handled += batch.length;
       }
-      await Promise.all([...singles.map((r) => sendOne(r).finally(() => inFlight.delete(r.id))), ...batches.map((b) => sendBatch(b))]);
-      const batched = batches.reduce((n, b) => n + b.length, 0);
-      handled += singles.length + batched;
-      if (!singles.length && !batched) return handled;
-    }
+    };
+    const singleLane = async () => {
+      for (;;) {
+        const singles = await claimSingles(opts.concurrency);
+        if (!singles.length) return;
+        for (const r of singles) inFlight.add(r.id);
+        await Promise.all(singles.map((r) => sendOne(r).finally(() => inFlight.delete(r.id))));
+        handled += singles.length;
+      }
+    };
+    await Promise.all([singleLane(), ...Array.from({ length: opts.concurrency }, batchLane)]);
+    return handled;
   }
 
   const inFlight = new Set<string>();

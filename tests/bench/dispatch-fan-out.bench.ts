@@ -1,11 +1,14 @@
 // dispatch.fan-out: a dispatch e-mailed to 10,000 members through the product's path — publish over HTTP, the
 // pg-boss fan-out job writing the mail queue, the mail sender rendering each message and sending batches
 // through the resend SDK to the local mail fake — timed from the publish request to the last message accepted.
-// The bare baseline does the same work in the same run without the machinery: the same recipients query, the
-// same per-member data rows written to a plain table in one transaction, the same template rendered per
-// message, the same batch calls (same size, same idempotency key, same concurrency) through the same SDK to the
-// same fake, and each batch marked sent in its own commit, on the same cluster (same durability).
-// Ratio = our delivered messages per second ÷ the baseline's. The web process's latency is probed throughout.
+// Ratio (the issue's measure) = our delivered messages per second ÷ the mail fake's raw batch-acceptance rate in
+// the same run: the same number of messages as pre-built payloads, the same batch size and calls in flight, no
+// database and no rendering — how close the whole path comes to what the mail service itself can take.
+// Beside it, a same-work bare loop without the machinery: the same recipients query, the same per-member data
+// rows written to a plain table in one transaction, the same template rendered per message (through the same
+// renderer), the same batch calls (size, idempotency key, concurrency) through the same SDK to the same fake,
+// each batch marked sent in its own commit, on the same cluster (same durability). The web process's latency is
+// probed throughout.
 import { mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
 import os from 'node:os';
@@ -203,11 +206,17 @@ export const benchmarks: Benchmark[] = [
           const delivered = mail.messages().filter(ours);
           const perAddress = new Set(delivered.flatMap((m) => m.to));
           if (delivered.length !== N || perAddress.size !== N) throw new Error(`ours: ${delivered.length} messages to ${perAddress.size}`);
-          const { rows: states } = await web.pool.query<{ state: string; n: number }>(
-            `select state, count(*)::int n from mail_queue where template = 'dispatch' and idempotency_key like $1 group by state`,
-            [`dispatch/${dispatchId}/%`],
-          );
-          if (states.length !== 1 || states[0]!.state !== 'sent') throw new Error(`queue states: ${JSON.stringify(states)}`);
+          // The fake has every message; the sender's last "sent" commits may still be on their way (not timed).
+          let states: { state: string; n: number }[] = [];
+          await waitUntil(async () => {
+            ({ rows: states } = await web.pool.query<{ state: string; n: number }>(
+              `select state, count(*)::int n from mail_queue where template = 'dispatch' and idempotency_key like $1 group by state`,
+              [`dispatch/${dispatchId}/%`],
+            ));
+            return states.length === 1 && states[0]!.state === 'sent';
+          }, 30_000).catch(() => {
+            throw new Error(`queue states 30 s after the last message: ${JSON.stringify(states)}`);
+          });
           log(
             `round ${round} ours: ${(ms / 1000).toFixed(1)} s (${((N / ms) * 1000).toFixed(0)} msg/s), first after ${(firstMs / 1000).toFixed(1)} s`,
           );
@@ -215,7 +224,7 @@ export const benchmarks: Benchmark[] = [
         };
 
         /** The bare loop: the same recipients, data rows, renders and batch calls, without the queue machinery. */
-        const runBare = async (round: number, shared: Record<string, unknown>) => {
+        const runBare = async (round: number, shared: (round: number) => Record<string, unknown>) => {
           const table = `bare_outbox_${round}`;
           await bare.pool.query(
             `create table ${table} (id bigserial primary key, key text unique not null, batch int not null, to_address text not null,
@@ -235,7 +244,7 @@ export const benchmarks: Benchmark[] = [
             const links = unsubscribeUrls(config, r.accountId);
             keys.push(`bare/${round}/${r.accountId}`);
             to.push(r.email);
-            data.push(JSON.stringify({ ...shared, unsubscribeUrl: links.page }));
+            data.push(JSON.stringify({ ...shared(round), unsubscribeUrl: links.page }));
             headers.push(JSON.stringify(listUnsubscribeHeaders(links.oneClick)));
             batchNo.push(Math.floor(i / size));
           });
@@ -305,23 +314,38 @@ export const benchmarks: Benchmark[] = [
           [`dispatch/${first.dispatchId}/%`],
         );
         // The per-member data of a real row, minus its own link: the baseline builds the same rows from it.
-        const shared = { ...sample[0]!.data, title: `${TITLE} (bare)` };
+        const shared = (round: number) => ({ ...sample[0]!.data, title: `${TITLE} (bare round ${round})` });
         const rounds = [{ ours: first, bare: await runBare(1, shared) }];
         const bare2 = await runBare(2, shared);
         rounds.push({ ours: await runOurs(2), bare: bare2 });
-        const ratios = rounds.map((r) => r.bare.ms / r.ours.ms);
-        const ratio = median(ratios);
+        const sameWork = rounds.map((r) => r.bare.ms / r.ours.ms);
 
-        // The fake's raw batch acceptance, for scale: pre-built payloads, no database, no rendering.
-        const rawPayloads = mail
+        // The fake's raw batch acceptance: the same number of messages as pre-built payloads (copies of the
+        // messages just delivered), the same batch size and calls in flight, no database, no rendering.
+        const template = mail
           .messages()
           .slice(0, size)
           .map((m) => ({ from: m.from, to: m.to, subject: m.subject, html: m.html, text: m.text }));
-        mail.clear();
-        const rawBatches = 20;
-        const t2 = performance.now();
-        for (let b = 0; b < rawBatches; b++) await resend.batch.send(rawPayloads as never, { idempotencyKey: `raw/${b}` });
-        const rawRate = ((rawBatches * size) / (performance.now() - t2)) * 1000;
+        const rawRound = async (round: number) => {
+          mail.clear();
+          const batches = Math.ceil(N / size);
+          let next = 0;
+          const t2 = performance.now();
+          const loop = async () => {
+            for (let b = next++; b < batches; b = next++) {
+              const { data, error } = await resend.batch.send(template as never, { idempotencyKey: `raw/${round}/${b}` });
+              if (!data) throw new Error(`raw batch ${b}: ${error?.message}`);
+            }
+          };
+          await Promise.all(Array.from({ length: config.MAIL_SEND_CONCURRENCY }, loop));
+          const ms = performance.now() - t2;
+          if (mail.messages().length !== batches * size) throw new Error(`raw: ${mail.messages().length} accepted`);
+          return ms;
+        };
+        const rawMs = median([await rawRound(1), await rawRound(2)]);
+        const rawRate = (N / rawMs) * 1000;
+        const ratios = rounds.map((r) => rawMs / r.ours.ms);
+        const ratio = median(ratios);
 
         const rate = (ms: number) => ((N / ms) * 1000).toFixed(0);
         const oursMs = median(rounds.map((r) => r.ours.ms));
@@ -331,8 +355,9 @@ export const benchmarks: Benchmark[] = [
         const p = (v: number[]) =>
           `p50 ${median(v).toFixed(1)} ms, p95 ${percentile(v, 95).toFixed(1)} ms, max ${Math.max(...v).toFixed(0)} ms`;
         const detail =
-          `${N} members, 2 rounds (ratios ${ratios.map((r) => r.toFixed(2)).join(', ')}): ours ${rate(oursMs)} msg/s, bare ${rate(bareMs)} msg/s; ` +
-          `fake raw acceptance ${rawRate.toFixed(0)} msg/s; web latency idle ${p(idle)} (n=${idle.length}), ` +
+          `${N} members, 2 rounds: ours ${rate(oursMs)} msg/s ÷ the fake's raw acceptance ${rawRate.toFixed(0)} msg/s ` +
+          `(rounds ${ratios.map((r) => r.toFixed(2)).join(', ')}); same-work bare loop ${rate(bareMs)} msg/s, ours ÷ bare ` +
+          `${sameWork.map((r) => r.toFixed(2)).join(', ')}; web latency idle ${p(idle)} (n=${idle.length}), ` +
           `during our fan-out ${p(busy)} (n=${busy.length}), during the bare loop ${p(bareBusy)} (n=${bareBusy.length})`;
         log(detail);
         return { ratio, detail };

@@ -93,26 +93,33 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
       });
       const batchCount = Math.ceil(recipients.length / size);
       // One parameter per column (a Postgres array), not one per value.
-      const arr = (a: string[], from: number) => sql.param(a.slice(from, from + 2000));
+      const arr = (a: string[], from: number, n: number) => sql.param(a.slice(from, from + n));
       let queued = 0;
-      await db.transaction(async (tx) => {
-        const [claimed] = await tx.select().from(dispatchSends).where(eq(dispatchSends.dispatchId, dispatchId)).for('update');
-        if (claimed?.status !== 'pending') return;
-        for (let i = 0; i < keys.length; i += 2000) {
+      // The queue fills in whole batches, each chunk committed and announced on its own, so the sender starts on
+      // the first messages while the rest are still being written. A job that runs again (a retry, or a second
+      // worker) finds the rows already there: each message's key is unique, so nothing is queued twice.
+      // The first chunk is one batch, so the first call goes out at once; chunks then double up to ~2,000 rows.
+      const largest = size * Math.max(1, Math.floor(2000 / size));
+      for (let i = 0, chunk = size; i < keys.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
+        await db.transaction(async (tx) => {
           const r = await tx.execute(sql`
             insert into mail_queue (idempotency_key, template, to_address, data, category, headers, batch_key, account_id)
             select k, 'dispatch', t, d::jsonb, 'dispatch', h::jsonb, b, a::uuid
-              from unnest(${arr(keys, i)}::text[], ${arr(to, i)}::text[], ${arr(data, i)}::text[],
-                          ${arr(headers, i)}::text[], ${arr(batch, i)}::text[], ${arr(account, i)}::text[])
+              from unnest(${arr(keys, i, chunk)}::text[], ${arr(to, i, chunk)}::text[], ${arr(data, i, chunk)}::text[],
+                          ${arr(headers, i, chunk)}::text[], ${arr(batch, i, chunk)}::text[], ${arr(account, i, chunk)}::text[])
                    as x(k, t, d, h, b, a)
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;
-        }
+          await tx.execute(sql`select pg_notify(${MAIL_QUEUE_NOTIFY_CHANNEL}, '')`);
+        });
+      }
+      await db.transaction(async (tx) => {
+        const [claimed] = await tx.select().from(dispatchSends).where(eq(dispatchSends.dispatchId, dispatchId)).for('update');
+        if (claimed?.status !== 'pending') return;
         await tx
           .update(dispatchSends)
           .set({ status: 'sending', recipientCount: recipients.length, batchCount, resolvedAt: new Date() })
           .where(eq(dispatchSends.dispatchId, dispatchId));
-        await tx.execute(sql`select pg_notify(${MAIL_QUEUE_NOTIFY_CHANNEL}, '')`);
       });
       return { recipients: recipients.length, queued };
     },
