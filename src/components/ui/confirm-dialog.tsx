@@ -1,7 +1,8 @@
-import { useEffect, useId, useRef, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
 import { Button } from './button';
+import { Dialog } from './dialog';
 
-/** A modal built on <dialog>: the browser traps focus, Escape cancels, focus returns to the opener. */
+/** A question before a step that matters: the dismiss button has the focus, so Enter never confirms by accident. */
 export function ConfirmDialog({
   open,
   title,
@@ -24,44 +25,22 @@ export function ConfirmDialog({
   onConfirm: () => void;
   onCancel: () => void;
 }) {
-  const ref = useRef<HTMLDialogElement>(null);
-  const titleId = useId();
-  const bodyId = useId();
-
-  useEffect(() => {
-    const dialog = ref.current;
-    if (!dialog) return;
-    if (open && !dialog.open) dialog.showModal();
-    if (!open && dialog.open) dialog.close();
-  }, [open]);
-
   return (
-    <dialog
-      ref={ref}
-      aria-labelledby={titleId}
-      aria-describedby={bodyId}
-      onCancel={(event) => {
-        event.preventDefault();
-        if (!pending) onCancel();
-      }}
-      className="m-auto w-[min(28rem,calc(100vw-2rem))] rounded-2xl border border-foil-600 bg-night-900 p-0 text-foil-100 shadow-2xl backdrop:bg-night-950/80"
+    <Dialog
+      open={open}
+      title={title}
+      onClose={() => !pending && onCancel()}
+      closeLabel={cancelLabel}
+      closeDisabled={pending}
+      closeAutoFocus
+      size="narrow"
+      actions={
+        <Button variant={tone === 'danger' ? 'danger' : 'primary'} onClick={onConfirm} loading={pending}>
+          {confirmLabel}
+        </Button>
+      }
     >
-      <div className="space-y-4 p-6">
-        <h2 id={titleId} className="text-lg font-bold text-foil-50">
-          {title}
-        </h2>
-        <div id={bodyId} className="space-y-3 text-sm text-foil-200">
-          {children}
-        </div>
-        <div className="flex flex-wrap justify-end gap-2 pt-2">
-          <Button variant="ghost" onClick={onCancel} disabled={pending} autoFocus>
-            {cancelLabel}
-          </Button>
-          <Button variant={tone === 'danger' ? 'danger' : 'primary'} onClick={onConfirm} loading={pending}>
-            {confirmLabel}
-          </Button>
-        </div>
-      </div>
-    </dialog>
+      {children}
+    </Dialog>
   );
 }
