@@ -1,7 +1,7 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { agentFor, signIn, type Agent } from '../setup/test-app';
+import { spawnWorkerProcess } from '../setup/worker-process';
 import { DEMO_PASSWORD } from '../../server/demo/accounts';
 import { createDispatch, dispatchDesk, insertManyBackers, insertMember, insertTiers, transition } from './dispatches-fixtures';
 import { appWithJobs, startWorker, waitFor } from './dispatches-jobs-helpers';
@@ -35,31 +35,7 @@ afterAll(async () => {
 });
 
 /** `npm run worker` as a real child process on the test database and mail fake. */
-function spawnWorker(): Promise<ChildProcess> {
-  const c = ctx.t.config;
-  const env = {
-    ...process.env,
-    NODE_ENV: 'test',
-    LOG_LEVEL: 'silent',
-    DATABASE_URL: c.DATABASE_URL,
-    PUBLIC_URL: c.PUBLIC_URL,
-    SESSION_SECRET: c.SESSION_SECRET,
-    RESEND_API_KEY: c.RESEND_API_KEY,
-    RESEND_BASE_URL: c.RESEND_BASE_URL,
-    UPLOADS_DIR: c.UPLOADS_DIR,
-    MAIL_LEASE_SECONDS: '5',
-    MAIL_POLL_MS: '200',
-    MAIL_MAX_BACKOFF_SECONDS: '2',
-  };
-  const proc = spawn(process.execPath, [path.resolve('node_modules/tsx/dist/cli.mjs'), 'server/worker.ts'], {
-    env,
-    stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
-  });
-  return new Promise((resolve, reject) => {
-    proc.on('message', (m) => (m as { ready?: string }).ready === 'worker' && resolve(proc));
-    proc.on('exit', (code) => reject(new Error(`worker exited early (${code})`)));
-  });
-}
+const spawnWorker = () => spawnWorkerProcess(ctx.t.config, { MAIL_LEASE_SECONDS: '5', MAIL_POLL_MS: '200', MAIL_MAX_BACKOFF_SECONDS: '2' });
 
 describe('e-mailing a dispatch to 2,000 members', () => {
   it('delivers exactly one message per member through 429s and a worker killed mid-send', async () => {

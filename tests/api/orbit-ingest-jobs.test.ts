@@ -1,11 +1,11 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
 import { createApp } from '../../server/app';
 import { createMailerFromConfig, createStripeFromConfig } from '../../server/deps';
 import { DEMO_PASSWORD } from '../../server/demo/accounts';
 import { agentFor, signIn, type Agent, type TestApp } from '../setup/test-app';
+import { spawnWorkerProcess } from '../setup/worker-process';
 import { countRows, orbitDesk, startIngestWorker, tern1Set, tleLines, upload, type UploadBody } from './orbit-helpers';
 
 // Element-set preview and import run on pg-boss workers (server/jobs/element-set-ingest.ts). These tests drive the
@@ -42,31 +42,8 @@ async function worker() {
   return w;
 }
 
-/**
- * `npm run worker` as a real child process on the test database. Node loads tsx itself (no tsx CLI in between, which
- * would run the worker as a grandchild that a SIGKILL of the CLI leaves running).
- */
-function spawnWorker(): Promise<ChildProcess> {
-  const c = t.config;
-  const proc = spawn(process.execPath, ['--import', 'tsx', path.resolve('server/worker.ts')], {
-    env: {
-      ...process.env,
-      NODE_ENV: 'test',
-      LOG_LEVEL: 'silent',
-      DATABASE_URL: c.DATABASE_URL,
-      PUBLIC_URL: c.PUBLIC_URL,
-      SESSION_SECRET: c.SESSION_SECRET,
-      RESEND_API_KEY: c.RESEND_API_KEY,
-      RESEND_BASE_URL: c.RESEND_BASE_URL,
-      UPLOADS_DIR: c.UPLOADS_DIR,
-    },
-    stdio: ['ignore', 'ignore', 'inherit', 'ipc'],
-  });
-  return new Promise((resolve, reject) => {
-    proc.on('message', (m) => (m as { ready?: string }).ready === 'worker' && resolve(proc));
-    proc.on('exit', (code) => reject(new Error(`worker exited early (${code})`)));
-  });
-}
+/** `npm run worker` as a real child process on the test database. */
+const spawnWorker = () => spawnWorkerProcess(t.config);
 
 async function getUpload(id: string): Promise<UploadBody> {
   return (await engineer.get(`/api/orbit/uploads/${id}`).expect(200)).body.upload as UploadBody;

@@ -1,16 +1,14 @@
 // Reconciliation runs through real workers: a worker process polling pg-boss, a worker process killed mid-run
 // (SIGKILL, as a crash or an out-of-memory kill would), and one open run per range of days.
-import { spawn, type ChildProcess } from 'node:child_process';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import type { ChildProcess } from 'node:child_process';
 import { afterEach, describe, expect, it } from 'vitest';
 import { CARDS, payOnHostedPage, paidPledge, settle, startPledge } from '../api/pledges-fixtures';
 import { brief, createBooksWorld, type BooksWorld } from '../api/books-fixtures';
 import { startWorker, waitFor } from '../api/dispatches-jobs-helpers';
+import { spawnWorkerProcess } from '../setup/worker-process';
 import { booksReconcileGaveUpQueue, booksReconcileQueue } from '../../server/jobs/books-reconcile';
 import type { QueueDefinition } from '../../server/jobs';
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const reconQueues = [booksReconcileQueue as QueueDefinition, booksReconcileGaveUpQueue as QueueDefinition];
 const day = (offsetDays: number) => new Date(Date.now() + offsetDays * 86_400_000).toISOString().slice(0, 10);
 const range = { from: day(-2), to: day(20) };
@@ -64,39 +62,8 @@ async function someMoney(world: BooksWorld) {
 
 /** `npm run worker` as its own process, on the world's database and fakes. */
 async function spawnWorker(world: BooksWorld) {
-  const c = world.t.config;
-  const env = {
-    ...process.env,
-    NODE_ENV: 'test',
-    LOG_LEVEL: 'silent',
-    DATABASE_URL: c.DATABASE_URL,
-    STRIPE_API_BASE_URL: c.STRIPE_API_BASE_URL ?? '',
-    STRIPE_SECRET_KEY: c.STRIPE_SECRET_KEY,
-    STRIPE_WEBHOOK_SECRET: c.STRIPE_WEBHOOK_SECRET,
-    RESEND_API_KEY: c.RESEND_API_KEY,
-    RESEND_BASE_URL: c.RESEND_BASE_URL ?? '',
-    SESSION_SECRET: c.SESSION_SECRET,
-    PUBLIC_URL: c.PUBLIC_URL,
-    ...ENV,
-  };
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'server/worker.ts')], {
-    cwd: root,
-    env,
-    stdio: ['ignore', 'ignore', 'pipe', 'ipc'],
-  });
+  const child = await spawnWorkerProcess(world.t.config, ENV);
   children.push(child);
-  let stderr = '';
-  child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()));
-  await new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`worker did not start: ${stderr.slice(0, 2000)}`)), 90_000);
-    child.on('message', (m) => {
-      if ((m as { ready?: string }).ready === 'worker') {
-        clearTimeout(timer);
-        resolve();
-      }
-    });
-    child.on('exit', (code) => reject(new Error(`worker exited (${code}): ${stderr.slice(0, 2000)}`)));
-  });
   return child;
 }
 
