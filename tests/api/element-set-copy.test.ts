@@ -131,3 +131,24 @@ describe('binary COPY of element sets', () => {
     expect(() => [...binaryCopyChunks(big)]).toThrow('element_set_no 2147483648 is not a 32-bit integer');
   });
 });
+
+describe('sets repeated within one file', () => {
+  it('keeps the first of each epoch + element-set number, and keeps sets that share only the epoch or only the number', () => {
+    const a = tern1Set(10, 5),
+      sameEpochOtherNo = tern1Set(10, 6),
+      sameNoOtherEpoch = tern1Set(10.5, 5),
+      thirdAtEpoch = tern1Set(10, 7);
+    const text = tleLines([a, a, sameEpochOtherNo, sameNoOtherEpoch, sameEpochOtherNo, thirdAtEpoch, thirdAtEpoch, a]).join('\n') + '\n';
+    const r = prepareSets(text, { ...TERN1, name: 'Tern-1' });
+    expect(r.errors).toEqual([]);
+    expect(r.inFileDuplicates).toBe(4);
+    // Kept in file order: lines 1, 5, 7 and 11 (each set is two lines).
+    expect(r.prepared.map((s) => [s.sourceLine, s.elementSetNo])).toEqual([
+      [1, 5],
+      [5, 6],
+      [7, 5],
+      [11, 7],
+    ]);
+    expect(r.recordCount).toBe(8);
+  });
+});

@@ -85,6 +85,7 @@ export function epochKey(catalogNumberInt: number, epochIso: string, elementSetN
  * on a "2 " line right after an error on its "1 " line is the same record.
  */
 function countInvalidRecords(errors: ParseError[], text: string, format: string): number {
+  if (errors.length === 0) return 0;
   const lines = [...new Set(errors.map((e) => e.line))].sort((a, b) => a - b);
   if (format !== 'tle') return lines.length;
   const textLines = text.split('\n');
@@ -104,7 +105,10 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
   const errors: ParseError[] = parsed.errors.slice();
   const parseInvalid = countInvalidRecords(parsed.errors, text, parsed.format);
   let ownInvalid = 0;
-  const seen = new Set<string>();
+  // Sets already seen in this file, by epoch (the ms its ISO text holds) → element-set number(s). Every set kept here
+  // has the craft's catalog number (others are refused above), so epoch + number is the stored key; numbers, not
+  // key strings: 100k of those cost more than the rest of this loop.
+  const seen = new Map<number, number | Set<number>>();
   const prepared: PreparedSet[] = [];
   let inFileDuplicates = 0;
   for (const r of parsed.records) {
@@ -138,12 +142,15 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
       });
       continue;
     }
-    const key = epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo);
-    if (seen.has(key)) {
+    const epochMs = Math.round(r.epochMs);
+    const had = seen.get(epochMs);
+    if (had === r.elementSetNo || (typeof had === 'object' && had.has(r.elementSetNo))) {
       inFileDuplicates++;
       continue;
     }
-    seen.add(key);
+    if (had === undefined) seen.set(epochMs, r.elementSetNo);
+    else if (typeof had === 'number') seen.set(epochMs, new Set([had, r.elementSetNo]));
+    else had.add(r.elementSetNo);
     // Field by field: spreading the parser's objects is an order of magnitude slower at 100k sets.
     prepared.push({
       catalogNumber: r.catalogNumber,
