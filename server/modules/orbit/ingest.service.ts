@@ -11,8 +11,9 @@ import { withTransaction } from '../../lib/pg-transaction';
 import { recordAudit } from '../audit/audit.repository';
 import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
-import { deriveElementSet, type OrbitSummary } from '../../../shared/orbit/derived';
-import type { ElementSet, ParseError } from '../../../shared/orbit/types';
+import { deriveElementSet } from '../../../shared/orbit/derived';
+import type { ParseError } from '../../../shared/orbit/types';
+import { binaryCopyChunks, ELEMENT_SET_COPY_COLUMNS, type PreparedSet } from './element-set-copy';
 import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
 import {
@@ -44,8 +45,7 @@ const PREVIEW_ERRORS = 50;
 const INSERT_BATCH = 10_000;
 const PARSED_CACHE_MAX = 8;
 
-/** An element set ready to store: the parsed fields and the derived orbit. */
-export type PreparedSet = ElementSet & OrbitSummary;
+export type { PreparedSet };
 
 export type UploadInput = { spacecraftId: string; accountId: string | null; filename: string; bytes: Buffer };
 
@@ -85,6 +85,7 @@ export function epochKey(catalogNumberInt: number, epochIso: string, elementSetN
  * on a "2 " line right after an error on its "1 " line is the same record.
  */
 function countInvalidRecords(errors: ParseError[], text: string, format: string): number {
+  if (errors.length === 0) return 0;
   const lines = [...new Set(errors.map((e) => e.line))].sort((a, b) => a - b);
   if (format !== 'tle') return lines.length;
   const textLines = text.split('\n');
@@ -104,7 +105,10 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
   const errors: ParseError[] = parsed.errors.slice();
   const parseInvalid = countInvalidRecords(parsed.errors, text, parsed.format);
   let ownInvalid = 0;
-  const seen = new Set<string>();
+  // Sets already seen in this file, by epoch (the ms its ISO text holds) → element-set number(s). Every set kept here
+  // has the craft's catalog number (others are refused above), so epoch + number is the stored key; numbers, not
+  // key strings: 100k of those cost more than the rest of this loop.
+  const seen = new Map<number, number | Set<number>>();
   const prepared: PreparedSet[] = [];
   let inFileDuplicates = 0;
   for (const r of parsed.records) {
@@ -138,12 +142,15 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
       });
       continue;
     }
-    const key = epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo);
-    if (seen.has(key)) {
+    const epochMs = Math.round(r.epochMs);
+    const had = seen.get(epochMs);
+    if (had === r.elementSetNo || (typeof had === 'object' && had.has(r.elementSetNo))) {
       inFileDuplicates++;
       continue;
     }
-    seen.add(key);
+    if (had === undefined) seen.set(epochMs, r.elementSetNo);
+    else if (typeof had === 'number') seen.set(epochMs, new Set([had, r.elementSetNo]));
+    else had.add(r.elementSetNo);
     // Field by field: spreading the parser's objects is an order of magnitude slower at 100k sets.
     prepared.push({
       catalogNumber: r.catalogNumber,
@@ -186,60 +193,11 @@ export function prepareSets(text: string, craft: { catalogNumberInt: number; cat
   };
 }
 
-const INSERT_COLUMNS = [
-  ['source_line', 'int4'],
-  ['catalog_number_int', 'int4'],
-  ['epoch', 'timestamptz'],
-  ['epoch_ms', 'float8'],
-  ['element_set_no', 'int4'],
-  ['classification', 'text'],
-  ['international_designator', 'text'],
-  ['mean_motion_rev_per_day', 'float8'],
-  ['mean_motion_dot_rev_per_day2', 'float8'],
-  ['mean_motion_ddot_rev_per_day3', 'float8'],
-  ['bstar', 'float8'],
-  ['inclination_deg', 'float8'],
-  ['raan_deg', 'float8'],
-  ['eccentricity', 'float8'],
-  ['arg_perigee_deg', 'float8'],
-  ['mean_anomaly_deg', 'float8'],
-  ['rev_at_epoch', 'int4'],
-  ['line1', 'text'],
-  ['line2', 'text'],
-  ['semi_major_axis_km', 'float8'],
-  ['apogee_altitude_km', 'float8'],
-  ['perigee_altitude_km', 'float8'],
-  ['mean_altitude_km', 'float8'],
-  ['period_min', 'float8'],
-  ['specific_energy_j_per_kg', 'float8'],
-] as const;
-
-const INCOMING_COLUMNS = INSERT_COLUMNS.map(([n, t]) => `${n} ${t}`).join(', ');
-const INSERT_FROM_INCOMING = (() => {
-  const names = INSERT_COLUMNS.map(([n]) => n).join(', ');
-  return `insert into element_sets (spacecraft_id, file_id, ${names})
-    select $1::uuid, $2::uuid, ${names} from element_sets_incoming
+const COPY_COLUMN_NAMES = ELEMENT_SET_COPY_COLUMNS.map(([n]) => n).join(', ');
+const INCOMING_COLUMNS = ELEMENT_SET_COPY_COLUMNS.map(([n, t]) => `${n} ${t}`).join(', ');
+const INSERT_FROM_INCOMING = `insert into element_sets (spacecraft_id, file_id, ${COPY_COLUMN_NAMES})
+    select $1::uuid, $2::uuid, ${COPY_COLUMN_NAMES} from element_sets_incoming
     on conflict (spacecraft_id, catalog_number_int, epoch, element_set_no) do nothing`;
-})();
-
-/** COPY text format: backslash, tab, newline and carriage return escaped. */
-function copyText(v: string): string {
-  return /[\\\t\n\r]/.test(v) ? v.replace(/\\/g, '\\\\').replace(/\t/g, '\\t').replace(/\n/g, '\\n').replace(/\r/g, '\\r') : v;
-}
-
-/** Rows as COPY text, in chunks; `onChunk` reports how many rows have been handed over. String(n) round-trips every double exactly. */
-function* copyChunks(rows: PreparedSet[], onChunk: (n: number) => unknown, prefix: string): Generator<string> {
-  for (let i = 0; i < rows.length; i += INSERT_BATCH) {
-    const end = Math.min(rows.length, i + INSERT_BATCH);
-    let out = '';
-    for (let k = i; k < end; k++) {
-      const r = rows[k]!;
-      out += `${prefix}${r.sourceLine}\t${r.catalogNumberInt}\t${r.epoch}\t${r.epochMs}\t${r.elementSetNo}\t${copyText(r.classification)}\t${copyText(r.internationalDesignator)}\t${r.meanMotionRevPerDay}\t${r.meanMotionDotRevPerDay2}\t${r.meanMotionDdotRevPerDay3}\t${r.bstar}\t${r.inclinationDeg}\t${r.raanDeg}\t${r.eccentricity}\t${r.argPerigeeDeg}\t${r.meanAnomalyDeg}\t${r.revAtEpoch}\t${copyText(r.line1)}\t${copyText(r.line2)}\t${r.semiMajorAxisKm}\t${r.apogeeAltitudeKm}\t${r.perigeeAltitudeKm}\t${r.meanAltitudeKm}\t${r.periodMin}\t${r.specificEnergyJPerKg}\n`;
-    }
-    yield out;
-    onChunk(end);
-  }
-}
 
 /** The 30-day bins that hold epochs between `fromMs` and `toMs`: [start, end). */
 function outlierRange(fromMs: number, toMs: number) {
@@ -526,9 +484,12 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
       let direct = true;
       try {
         const copy = client.query(
-          copyFrom(`copy element_sets (spacecraft_id, file_id, ${INSERT_COLUMNS.map(([n]) => n).join(', ')}) from stdin`),
+          copyFrom(`copy element_sets (spacecraft_id, file_id, ${COPY_COLUMN_NAMES}) from stdin with (format binary)`),
         );
-        await pipeline(Readable.from(copyChunks(rows, progress, `${craft.id}\t${fileId}\t`)), copy);
+        await pipeline(
+          Readable.from(binaryCopyChunks(rows, { ids: { spacecraftId: craft.id, fileId }, progressEvery: INSERT_BATCH, onRows: progress })),
+          copy,
+        );
         await client.query('release savepoint direct_copy');
         imported = rows.length;
       } catch (err) {
@@ -536,8 +497,8 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
         direct = false;
         await client.query('rollback to savepoint direct_copy');
         await client.query(`create temp table element_sets_incoming (${INCOMING_COLUMNS}) on commit drop`);
-        const copy = client.query(copyFrom(`copy element_sets_incoming from stdin`));
-        await pipeline(Readable.from(copyChunks(rows, progress, '')), copy);
+        const copy = client.query(copyFrom(`copy element_sets_incoming from stdin with (format binary)`));
+        await pipeline(Readable.from(binaryCopyChunks(rows, { progressEvery: INSERT_BATCH, onRows: progress })), copy);
         const res = await client.query(INSERT_FROM_INCOMING, [craft.id, fileId]);
         imported = res.rowCount ?? 0;
       }
