@@ -198,6 +198,51 @@ describe('the trend view for the chart', () => {
     expect(res.body.extent.total).toBe(rows.length + bad[0].n);
   });
 
+  it('reduces inside the database to exactly the columns the shared reduction gives, for any column count and view', async () => {
+    // The server groups per column in SQL; shared/charts/reduce.ts is the definition (and what snapshots reduce with).
+    const { rows } = await t.database.pool.query(
+      `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg
+         from element_sets where spacecraft_id = $1 and not outlier order by epoch_ms, element_set_no`,
+      [craftId],
+    );
+    const epochs = rows.map((r) => r.epoch_ms as number);
+    const cols = ['apogee_altitude_km', 'perigee_altitude_km', 'mean_altitude_km', 'semi_major_axis_km', 'specific_energy_j_per_kg'];
+    const views = [
+      { fromMs: epochs[0]!, toMs: epochs[epochs.length - 1]! },
+      // Boundaries on a set's own epoch, and a view whose column width is not a whole number of milliseconds.
+      { fromMs: epochs[101]!, toMs: epochs[900]! },
+      { fromMs: TERN1.startMs + 7 * DAY + 1, toMs: TERN1.startMs + 301 * DAY - 7 },
+    ];
+    // A view ending exactly on a set (the last column also takes the point at its right edge): a few epochs are
+    // whole milliseconds, which the query's ISO times can name.
+    const whole = epochs.filter((e) => Number.isInteger(e));
+    expect(whole.length).toBeGreaterThanOrEqual(2);
+    views.push({ fromMs: whole[0]!, toMs: whole[whole.length - 1]! });
+    let reducedViews = 0;
+    for (const v of views)
+      for (const columns of [10, 37, 123, 333]) {
+        const res = await engineer
+          .get(`/api/orbit/spacecraft/${craftId}/trend`)
+          .query({ viewFrom: new Date(v.fromMs).toISOString(), viewTo: new Date(v.toMs).toISOString(), columns })
+          .expect(200);
+        const fromMs = Date.parse(new Date(v.fromMs).toISOString()),
+          toMs = Date.parse(new Date(v.toMs).toISOString());
+        const want = reduceMinMax(
+          epochs,
+          cols.map((c) => rows.map((r) => r[c] as number)),
+          fromMs,
+          toMs,
+          columns,
+        );
+        const got = res.body.series;
+        expect(res.body.view).toMatchObject({ reduced: want.reduced, pointsInView: want.pointsInView });
+        expect(got.epochMs).toEqual(want.epochMs);
+        expect([got.apogeeKm, got.perigeeKm, got.meanAltitudeKm, got.semiMajorAxisKm, got.energyJPerKg]).toEqual(want.values);
+        if (want.reduced) reducedViews++;
+      }
+    expect(reducedViews).toBeGreaterThan(8);
+  });
+
   it('gives a zoomed view at full resolution', async () => {
     const viewFrom = new Date(TERN1.startMs + 100 * DAY).toISOString(),
       viewTo = new Date(TERN1.startMs + 110 * DAY).toISOString();

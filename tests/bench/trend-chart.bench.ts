@@ -130,7 +130,7 @@ function largeHistoryRows(spacecraftId: string, fileId: string, catalogInt: numb
   return { rows, periods };
 }
 
-async function seedLargeHistory(url: string, spacecraftId: string, catalogInt: number) {
+export async function seedLargeHistory(url: string, spacecraftId: string, catalogInt: number) {
   // Its own connection, without the app's statement timeout: a bulk load on a busy machine may take a while.
   const client = new pg.Client({ connectionString: url });
   await client.connect();
