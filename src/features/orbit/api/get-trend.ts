@@ -22,6 +22,9 @@ export function getTrendQueryOptions(spacecraftId: string, params: TrendParams) 
     queryFn: ({ signal }) => getTrend({ spacecraftId, ...params, signal }),
     // While a zoomed view loads, the chart keeps drawing the points it has at the new scale.
     placeholderData: keepPreviousData,
+    // Each view is a new reply of a few thousand numbers per series: comparing it deeply with the last one (to keep
+    // equal parts) costs a main-thread pass and saves nothing the chart could use.
+    structuralSharing: false,
   });
 }
 

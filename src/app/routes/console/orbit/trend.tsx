@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { memo, useDeferredValue, useState } from 'react';
 import { SERIES, type SnapshotSeriesKey } from '@shared/charts/snapshot-chart';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -17,6 +17,9 @@ import { DATE_HINT, fromDateInput, toDateInput } from '@/features/orbit/format';
 import type { Spacecraft } from '@/features/orbit/types';
 
 const LEFT = ['apogee', 'perigee', 'meanAltitude'] as const;
+// Re-rendered only when their own props change: a zoom step or a fetch state flip leaves them alone.
+const Rates = memo(RatesPanel);
+const SailYield = memo(SailYieldPanel);
 
 function TrendView({ craft }: { craft: Spacecraft }) {
   const [rateWindow, setRateWindow] = useState<{ from?: string; to?: string }>({});
@@ -34,6 +37,8 @@ function TrendView({ craft }: { craft: Spacecraft }) {
   });
   const [fromInput, setFromInput] = useState('');
   const [toInput, setToInput] = useState('');
+  // A reply that comes in is drawn in a background render React may slice (the query's own update is urgent).
+  const data = useDeferredValue(trend.data);
 
   if (trend.isPending)
     return (
@@ -44,7 +49,7 @@ function TrendView({ craft }: { craft: Spacecraft }) {
       </Card>
     );
   if (trend.isError) return <Alert title="Could not load the trend">{errorMessage(trend.error)}</Alert>;
-  const t = trend.data;
+  const t = data ?? trend.data;
   if (t.extent.total === 0) {
     return <EmptyState title="No element sets yet" description="Upload a file of element sets to see the orbit's trend." />;
   }
@@ -130,11 +135,11 @@ function TrendView({ craft }: { craft: Spacecraft }) {
           </Button>
           {trend.isFetching && <Spinner size="sm" label="Updating rates…" />}
         </form>
-        <RatesPanel trend={t} />
+        <Rates trend={t} />
       </Card>
 
       <div className="grid gap-6 xl:grid-cols-2">
-        <SailYieldPanel spacecraftId={craft.id} />
+        <SailYield spacecraftId={craft.id} />
         <Card>
           <CardHeader
             level={2}
