@@ -4,6 +4,7 @@ import { formatTleFile } from '../../shared/orbit/tle-write';
 import { parseElementSets } from '../../shared/orbit/parse-element-sets';
 import { computeTrend } from '../../shared/orbit/trends';
 import { reduceMinMax } from '../../shared/charts/reduce';
+import { trendRateWindowReplySchema, trendViewReplySchema } from '../../shared/schemas/orbit-replies';
 import { compareSailingPeriods } from '../../shared/orbit/sailing-periods';
 import { deriveElementSet } from '../../shared/orbit/derived';
 import { simulateTern1, TERN1 } from '../../shared/orbit/simulate';
@@ -241,6 +242,44 @@ describe('the trend view for the chart', () => {
         if (want.reduced) reducedViews++;
       }
     expect(reducedViews).toBeGreaterThan(8);
+  });
+
+  it("answers the chart's view and the rate window apart, each the same as its part of the whole trend", async () => {
+    const viewFrom = new Date(TERN1.startMs + 40 * DAY).toISOString(),
+      viewTo = new Date(TERN1.startMs + 250 * DAY).toISOString();
+    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(),
+      to = new Date(TERN1.startMs + 160 * DAY).toISOString();
+    const whole = (
+      await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ viewFrom, viewTo, columns: 150, from, to }).expect(200)
+    ).body;
+    const view = trendViewReplySchema.parse(
+      (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ viewFrom, viewTo, columns: 150 }).expect(200)).body,
+    );
+    const rates = trendRateWindowReplySchema.parse(
+      (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).query({ from, to }).expect(200)).body,
+    );
+    expect(view.view).toMatchObject({ reduced: true, columns: 150 });
+    expect({ ...view, ...rates }).toEqual(whole);
+    expect(rates.rates).not.toBeNull();
+    // The defaults: the whole history, and the last 30 days of it.
+    const fullView = (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).expect(200)).body;
+    expect(fullView.view.fromMs).toBe(fullView.extent.firstMs);
+    expect(fullView.view.toMs).toBe(fullView.extent.lastMs);
+    const lastRates = (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).expect(200)).body;
+    expect(lastRates.window.toMs).toBe(fullView.extent.lastMs);
+    expect(lastRates.window.toMs - lastRates.window.fromMs).toBe(30 * DAY);
+  });
+
+  it('refuses a view or a rate window that ends before it starts, naming the field', async () => {
+    const a = new Date(TERN1.startMs + 50 * DAY).toISOString(),
+      b = new Date(TERN1.startMs + 40 * DAY).toISOString();
+    const v = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ viewFrom: a, viewTo: b });
+    expect(v.status).toBe(400);
+    expect(JSON.stringify(v.body)).toContain('viewTo');
+    const r = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).query({ from: a, to: b });
+    expect(r.status).toBe(400);
+    expect(JSON.stringify(r.body)).toContain('must be after the window start');
+    expect((await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ columns: 5 })).status).toBe(400);
   });
 
   it('gives a zoomed view at full resolution', async () => {

@@ -21,7 +21,9 @@ import type {
   HistoryPageReply,
   SailingPeriodReply,
   SailYieldReply,
+  TrendRateWindowReply,
   TrendReply,
+  TrendViewReply,
 } from '../../../shared/schemas/orbit-replies';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
@@ -498,16 +500,11 @@ export function createOrbitService({ db }: { db: Db }) {
     },
 
     /**
-     * What the chart draws: the points of the view window reduced to min/max per pixel column (so a wider window
-     * comes at a lower resolution), the outliers in the view apart, and the rate window's fit as before. Nothing
-     * here reads the whole history into JavaScript: the reduction runs in PostgreSQL over the covering index, the
-     * rate window reads only its own rows.
+     * What the chart draws: the points of the view reduced to min/max per pixel column (so a wider view comes at a
+     * lower resolution) and the outliers in the view apart. Nothing here reads the whole history into JavaScript:
+     * the reduction runs in PostgreSQL over the covering index. No rate fit either: a zoom step asks only for this.
      */
-    async getTrendView(
-      spacecraftId: string,
-      window: { fromMs?: number; toMs?: number },
-      view: { fromMs?: number; toMs?: number; columns: number },
-    ): Promise<TrendReply> {
+    async getChartView(spacecraftId: string, view: { fromMs?: number; toMs?: number; columns: number }): Promise<TrendViewReply> {
       const [craft, periods, { rows: ext }] = await Promise.all([
         craftOf(spacecraftId),
         periodsOf(spacecraftId),
@@ -516,14 +513,10 @@ export function createOrbitService({ db }: { db: Db }) {
       const { first_ms: firstMs, last_ms: lastMs, n } = ext[0]!;
       const fromMs = view.fromMs ?? firstMs ?? 0,
         toMs = view.toMs ?? lastMs ?? 0;
-      const rateToMs = window.toMs ?? lastMs ?? Date.now();
-      const rateFromMs = window.fromMs ?? rateToMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
-      const [r, { rows: out }, rateRows] = await Promise.all([
+      const [r, { rows: out }] = await Promise.all([
         reducedView(craft.id, fromMs, toMs, view.columns, n),
         pool.query<number[]>({ text: VIEW_OUTLIERS_SQL, values: [craft.id, fromMs, toMs, OUTLIERS_SHOWN], rowMode: 'array' }),
-        windowRows(craft.id, rateFromMs, rateToMs),
       ]);
-      const rate = rateWindow(craft, rateRows, rateFromMs, rateToMs);
       const pick = (vals: number[][]) => ({
         apogeeKm: vals[0]!,
         perigeeKm: vals[1]!,
@@ -537,9 +530,34 @@ export function createOrbitService({ db }: { db: Db }) {
         outliers: { epochMs: out.map((o) => o[0]!), ...pick([1, 2, 3, 4, 5].map((j) => out.map((o) => o[j]!))) },
         view: { fromMs, toMs, columns: view.columns, reduced: r.reduced, pointsInView: r.pointsInView },
         extent: { firstMs, lastMs, total: n },
-        ...rate,
         sailingPeriods: periods.map(sailingPeriodView),
       };
+    },
+
+    /** The rate window's fit (Theil–Sen rates, intervals, rate lines), reading only the window's own rows. */
+    async getRateWindow(spacecraftId: string, window: { fromMs?: number; toMs?: number }): Promise<TrendRateWindowReply> {
+      const craft = await craftOf(spacecraftId);
+      let toMs = window.toMs;
+      if (toMs === undefined) {
+        const { rows } = await pool.query<{ last_ms: number | null }>(
+          'select max(epoch_ms) as last_ms from element_sets where spacecraft_id = $1',
+          [craft.id],
+        );
+        toMs = rows[0]?.last_ms ?? Date.now();
+      }
+      const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
+      return rateWindow(craft, await windowRows(craft.id, fromMs, toMs), fromMs, toMs);
+    },
+
+    /** The chart's view and the rate window in one reply. */
+    async getTrendView(
+      spacecraftId: string,
+      window: { fromMs?: number; toMs?: number },
+      view: { fromMs?: number; toMs?: number; columns: number },
+    ): Promise<TrendReply> {
+      const [chart, rate] = await Promise.all([this.getChartView(spacecraftId, view), this.getRateWindow(spacecraftId, window)]);
+      const { sailingPeriods, ...rest } = chart;
+      return { ...rest, ...rate, sailingPeriods };
     },
 
     async getSailYield(spacecraftId: string): Promise<SailYieldReply> {
