@@ -178,6 +178,28 @@ export const trendReplySchema = z.strictObject({
 });
 export type TrendReply = z.infer<typeof trendReplySchema>;
 
+/** GET …/trend/view: what the chart draws for one view (no rate fit). */
+export const trendViewReplySchema = trendReplySchema.pick({
+  spacecraft: true,
+  series: true,
+  outliers: true,
+  view: true,
+  extent: true,
+  sailingPeriods: true,
+});
+export type TrendViewReply = z.infer<typeof trendViewReplySchema>;
+
+/** GET …/trend/rates: the rate window's fit, rates and rate lines. */
+export const trendRateWindowReplySchema = trendReplySchema.pick({
+  window: true,
+  rates: true,
+  intervals: true,
+  counts: true,
+  spanDays: true,
+  rateLines: true,
+});
+export type TrendRateWindowReply = z.infer<typeof trendRateWindowReplySchema>;
+
 // Sail yield ---------------------------------------------------------------------------------------------------
 
 const modeSummarySchema = z.strictObject({

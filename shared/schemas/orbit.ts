@@ -113,6 +113,23 @@ export const trendQuerySchema = z
     path: ['viewTo'],
   });
 
+/** The chart's part of the trend alone: the view, reduced per pixel column (a zoom step asks only for this). */
+export const trendViewQuerySchema = z
+  .object({
+    viewFrom: isoDateTime.optional(),
+    viewTo: isoDateTime.optional(),
+    columns: z.coerce.number().int().min(10).max(4000).default(1000),
+  })
+  .refine((q) => !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom), {
+    message: 'must be after the view start',
+    path: ['viewTo'],
+  });
+
+/** The rate window's part alone: its robust rates and rate lines (defaults to the last 30 days of the history). */
+export const trendRatesQuerySchema = z
+  .object({ from: isoDateTime.optional(), to: isoDateTime.optional() })
+  .refine((q) => !q.from || !q.to || Date.parse(q.to) > Date.parse(q.from), { message: 'must be after the window start', path: ['to'] });
+
 export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
 export const snapshotSeriesSchema = z.enum(snapshotSeriesKeys);
 export type SnapshotSeries = z.infer<typeof snapshotSeriesSchema>;

@@ -4,6 +4,7 @@ import { formatTleFile } from '../../shared/orbit/tle-write';
 import { parseElementSets } from '../../shared/orbit/parse-element-sets';
 import { computeTrend } from '../../shared/orbit/trends';
 import { reduceMinMax } from '../../shared/charts/reduce';
+import { trendRateWindowReplySchema, trendViewReplySchema } from '../../shared/schemas/orbit-replies';
 import { compareSailingPeriods } from '../../shared/orbit/sailing-periods';
 import { deriveElementSet } from '../../shared/orbit/derived';
 import { simulateTern1, TERN1 } from '../../shared/orbit/simulate';
@@ -196,6 +197,89 @@ describe('the trend view for the chart', () => {
     ]);
     expect(res.body.outliers.epochMs.length).toBe(bad[0].n);
     expect(res.body.extent.total).toBe(rows.length + bad[0].n);
+  });
+
+  it('reduces inside the database to exactly the columns the shared reduction gives, for any column count and view', async () => {
+    // The server groups per column in SQL; shared/charts/reduce.ts is the definition (and what snapshots reduce with).
+    const { rows } = await t.database.pool.query(
+      `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg
+         from element_sets where spacecraft_id = $1 and not outlier order by epoch_ms, element_set_no`,
+      [craftId],
+    );
+    const epochs = rows.map((r) => r.epoch_ms as number);
+    const cols = ['apogee_altitude_km', 'perigee_altitude_km', 'mean_altitude_km', 'semi_major_axis_km', 'specific_energy_j_per_kg'];
+    const views = [
+      { fromMs: epochs[0]!, toMs: epochs[epochs.length - 1]! },
+      // Boundaries on a set's own epoch, and a view whose column width is not a whole number of milliseconds.
+      { fromMs: epochs[101]!, toMs: epochs[900]! },
+      { fromMs: TERN1.startMs + 7 * DAY + 1, toMs: TERN1.startMs + 301 * DAY - 7 },
+    ];
+    // A view ending exactly on a set (the last column also takes the point at its right edge): a few epochs are
+    // whole milliseconds, which the query's ISO times can name.
+    const whole = epochs.filter((e) => Number.isInteger(e));
+    expect(whole.length).toBeGreaterThanOrEqual(2);
+    views.push({ fromMs: whole[0]!, toMs: whole[whole.length - 1]! });
+    let reducedViews = 0;
+    for (const v of views)
+      for (const columns of [10, 37, 123, 333]) {
+        const res = await engineer
+          .get(`/api/orbit/spacecraft/${craftId}/trend`)
+          .query({ viewFrom: new Date(v.fromMs).toISOString(), viewTo: new Date(v.toMs).toISOString(), columns })
+          .expect(200);
+        const fromMs = Date.parse(new Date(v.fromMs).toISOString()),
+          toMs = Date.parse(new Date(v.toMs).toISOString());
+        const want = reduceMinMax(
+          epochs,
+          cols.map((c) => rows.map((r) => r[c] as number)),
+          fromMs,
+          toMs,
+          columns,
+        );
+        const got = res.body.series;
+        expect(res.body.view).toMatchObject({ reduced: want.reduced, pointsInView: want.pointsInView });
+        expect(got.epochMs).toEqual(want.epochMs);
+        expect([got.apogeeKm, got.perigeeKm, got.meanAltitudeKm, got.semiMajorAxisKm, got.energyJPerKg]).toEqual(want.values);
+        if (want.reduced) reducedViews++;
+      }
+    expect(reducedViews).toBeGreaterThan(8);
+  });
+
+  it("answers the chart's view and the rate window apart, each the same as its part of the whole trend", async () => {
+    const viewFrom = new Date(TERN1.startMs + 40 * DAY).toISOString(),
+      viewTo = new Date(TERN1.startMs + 250 * DAY).toISOString();
+    const from = new Date(TERN1.startMs + 100 * DAY).toISOString(),
+      to = new Date(TERN1.startMs + 160 * DAY).toISOString();
+    const whole = (
+      await engineer.get(`/api/orbit/spacecraft/${craftId}/trend`).query({ viewFrom, viewTo, columns: 150, from, to }).expect(200)
+    ).body;
+    const view = trendViewReplySchema.parse(
+      (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ viewFrom, viewTo, columns: 150 }).expect(200)).body,
+    );
+    const rates = trendRateWindowReplySchema.parse(
+      (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).query({ from, to }).expect(200)).body,
+    );
+    expect(view.view).toMatchObject({ reduced: true, columns: 150 });
+    expect({ ...view, ...rates }).toEqual(whole);
+    expect(rates.rates).not.toBeNull();
+    // The defaults: the whole history, and the last 30 days of it.
+    const fullView = (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).expect(200)).body;
+    expect(fullView.view.fromMs).toBe(fullView.extent.firstMs);
+    expect(fullView.view.toMs).toBe(fullView.extent.lastMs);
+    const lastRates = (await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).expect(200)).body;
+    expect(lastRates.window.toMs).toBe(fullView.extent.lastMs);
+    expect(lastRates.window.toMs - lastRates.window.fromMs).toBe(30 * DAY);
+  });
+
+  it('refuses a view or a rate window that ends before it starts, naming the field', async () => {
+    const a = new Date(TERN1.startMs + 50 * DAY).toISOString(),
+      b = new Date(TERN1.startMs + 40 * DAY).toISOString();
+    const v = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ viewFrom: a, viewTo: b });
+    expect(v.status).toBe(400);
+    expect(JSON.stringify(v.body)).toContain('viewTo');
+    const r = await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/rates`).query({ from: a, to: b });
+    expect(r.status).toBe(400);
+    expect(JSON.stringify(r.body)).toContain('must be after the window start');
+    expect((await engineer.get(`/api/orbit/spacecraft/${craftId}/trend/view`).query({ columns: 5 })).status).toBe(400);
   });
 
   it('gives a zoomed view at full resolution', async () => {

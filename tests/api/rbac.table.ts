@@ -224,6 +224,20 @@ export const rbacTable: Row[] = [
     admin: 404,
   },
   {
+    route: 'GET /api/orbit/spacecraft/:id/trend/view',
+    sample: `/api/orbit/spacecraft/${someId}/trend/view`,
+    ...engineerWrite,
+    engineer: 404,
+    admin: 404,
+  },
+  {
+    route: 'GET /api/orbit/spacecraft/:id/trend/rates',
+    sample: `/api/orbit/spacecraft/${someId}/trend/rates`,
+    ...engineerWrite,
+    engineer: 404,
+    admin: 404,
+  },
+  {
     route: 'GET /api/orbit/spacecraft/:id/sail-yield',
     sample: `/api/orbit/spacecraft/${someId}/sail-yield`,
     ...engineerWrite,

@@ -14,6 +14,8 @@ import {
   sailingPeriodInputSchema,
   spacecraftInputSchema,
   trendQuerySchema,
+  trendRatesQuerySchema,
+  trendViewQuerySchema,
   updateSnapshotSchema,
   uploadFieldsSchema,
   uploadFileSchema,
@@ -229,6 +231,31 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
             columns: query.columns,
           },
         ),
+      );
+    }),
+  );
+  router.get(
+    '/spacecraft/:id/trend/view',
+    engineers,
+    validated({ params: idParams, query: trendViewQuerySchema }, async (_req, res, { params, query }) => {
+      res.json(
+        await orbit.getChartView(params.id, {
+          fromMs: query.viewFrom ? Date.parse(query.viewFrom) : undefined,
+          toMs: query.viewTo ? Date.parse(query.viewTo) : undefined,
+          columns: query.columns,
+        }),
+      );
+    }),
+  );
+  router.get(
+    '/spacecraft/:id/trend/rates',
+    engineers,
+    validated({ params: idParams, query: trendRatesQuerySchema }, async (_req, res, { params, query }) => {
+      res.json(
+        await orbit.getRateWindow(params.id, {
+          fromMs: query.from ? Date.parse(query.from) : undefined,
+          toMs: query.to ? Date.parse(query.to) : undefined,
+        }),
       );
     }),
   );

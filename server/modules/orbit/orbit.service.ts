@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, gte, lte, sql, type SQL } from 'drizzle-orm';
 import { csvChunks, type CsvCell } from '../../lib/csv';
 import { msToIso } from '../../../shared/orbit/epoch';
@@ -6,7 +7,6 @@ import type { Db } from '../../db/client';
 import { accounts } from '../accounts/accounts.tables';
 import { recordAudit, recordChange } from '../audit/audit.repository';
 import { dedupeElementSets, fitTrendSamples, type Trend, type TrendSample } from '../../../shared/orbit/trends';
-import { reduceMinMax } from '../../../shared/charts/reduce';
 import { compareSailingPeriods } from '../../../shared/orbit/sailing-periods';
 import { semiMajorAxisRateKmPerDay } from '../../../shared/orbit/physics';
 import { MU_WGS72_KM3_PER_S2 } from '../../../shared/orbit/constants';
@@ -21,7 +21,9 @@ import type {
   HistoryPageReply,
   SailingPeriodReply,
   SailYieldReply,
+  TrendRateWindowReply,
   TrendReply,
+  TrendViewReply,
 } from '../../../shared/schemas/orbit-replies';
 import { elementSetFiles, elementSets, sailingPeriods, spacecraft } from './orbit.tables';
 import { fileNotFound, sailingPeriodNotFound, sailingPeriodOverlap, spacecraftNotFound } from './orbit.errors';
@@ -81,7 +83,38 @@ type TrendRow = [
   outlier: boolean,
   elementSetNo: number,
 ];
-
+/** The same columns for one rate window (an index range scan). */
+const WINDOW_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg, outlier, element_set_no
+  from element_sets where spacecraft_id = $1 and epoch_ms >= $2 and epoch_ms <= $3 order by epoch_ms, element_set_no`;
+/** The view's points (outliers apart), when there are few enough to send as they are. */
+const VIEW_POINTS_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg
+  from element_sets where spacecraft_id = $1 and not outlier and epoch_ms >= $2 and epoch_ms <= $3 order by epoch_ms, element_set_no`;
+/**
+ * The view's min/max per pixel column. A point's column is reduceMinMax's `min(columns − 1, floor((t − from) / width))`
+ * in float8, the same IEEE doubles the JavaScript reduction uses, so both put every point in the same column. Each
+ * column is its own index range (widened by 1 ms against rounding; the exact column test keeps a point in one
+ * column only), so PostgreSQL aggregates straight off the covering index — no sort or hash of the whole view.
+ */
+const VIEW_COLUMNS_SQL = `select k, c.* from generate_series(0, $5::int - 1) as k,
+  lateral (
+    select count(*)::int as n, min(epoch_ms), max(epoch_ms),
+      min(apogee_altitude_km), max(apogee_altitude_km), min(perigee_altitude_km), max(perigee_altitude_km),
+      min(mean_altitude_km), max(mean_altitude_km), min(semi_major_axis_km), max(semi_major_axis_km),
+      min(specific_energy_j_per_kg), max(specific_energy_j_per_kg)
+    from element_sets
+    where spacecraft_id = $1 and not outlier
+      and epoch_ms >= greatest($2::float8, $2::float8 + k * $4::float8 - 1)
+      and epoch_ms <= least($3::float8, $2::float8 + (k + 1) * $4::float8 + 1)
+      and least($5::int - 1, floor((epoch_ms - $2::float8) / $4::float8)) = k
+  ) as c
+  where c.n > 0 order by k`;
+/** The outliers in the view, apart. */
+const VIEW_OUTLIERS_SQL = `select epoch_ms, apogee_altitude_km, perigee_altitude_km, mean_altitude_km, semi_major_axis_km, specific_energy_j_per_kg
+  from element_sets where spacecraft_id = $1 and outlier and epoch_ms >= $2 and epoch_ms <= $3 order by epoch_ms, element_set_no limit $4`;
+/** The history's first and last epoch (the ends of the index) and its size (counted on the narrowest index). */
+const EXTENT_SQL = `select (select min(epoch_ms) from element_sets where spacecraft_id = $1) as first_ms,
+  (select max(epoch_ms) from element_sets where spacecraft_id = $1) as last_ms,
+  (select count(*)::int from element_sets where spacecraft_id = $1) as n`;
 
 type WindowPoint = TrendSample & { meanAltitudeKm: number };
 /** The rate window's result: the costly part (Theil–Sen fits over the window's pairs), kept per history state. */
@@ -219,20 +252,64 @@ export function createOrbitService({ db }: { db: Db }) {
     fileName: elementSetFiles.filename,
   };
 
+  /** The rows of one rate window, in the trend's order: an index range scan, not the whole history. */
+  async function windowRows(craftId: string, fromMs: number, toMs: number) {
+    const { rows } = await pool.query<TrendRow>({ text: WINDOW_SQL, values: [craftId, fromMs, toMs], rowMode: 'array' });
+    return rows;
+  }
+
   /**
-   * The stored rows and the series built from them, read afresh on every call (no cache of rows: the trend.api bench
-   * compares this path with a bare SELECT). The count and the newest id name the history's state for the window cache.
+   * The rate window's fit and rate lines. The fit (Theil–Sen over the window's pairs, the costly part) is kept per
+   * window and per content of the window's rows (a hash of what the fit reads), so a new import into the window, or
+   * a removed file, is a new key — and the history outside the window never needs to be read for it.
    */
+  function rateWindow(craft: SpacecraftRow, rows: readonly TrendRow[], fromMs: number, toMs: number) {
+    const fp = new Float64Array(rows.length * 7);
+    let o = 0;
+    for (let i = 0; i < rows.length; i++) {
+      const r = rows[i]!;
+      if (r[0] < fromMs || r[0] > toMs) continue;
+      fp[o++] = r[0];
+      fp[o++] = r[1];
+      fp[o++] = r[2];
+      fp[o++] = r[3];
+      fp[o++] = r[4];
+      fp[o++] = r[5];
+      fp[o++] = r[7];
+    }
+    const digest = createHash('sha1')
+      .update(new Uint8Array(fp.buffer, 0, o * 8))
+      .digest('base64');
+    const cacheKey = `${craft.id}|${craft.catalogNumber}|${fromMs}|${toMs}|${digest}`;
+    let trend = windowCache.get(cacheKey);
+    if (!trend) {
+      trend = windowTrend(rows, fromMs, toMs, craft.catalogNumber);
+      windowCache.set(cacheKey, trend);
+      while (windowCache.size > 32) windowCache.delete(windowCache.keys().next().value!);
+    }
+    const r = trend.rates;
+    const rateLines = r
+      ? {
+          apogee: rateLine(trend, 'apogeeAltitudeKm', r.apogeeKmPerDay),
+          perigee: rateLine(trend, 'perigeeAltitudeKm', r.perigeeKmPerDay),
+          meanAltitude: rateLine(trend, 'meanAltitudeKm', r.semiMajorAxisKmPerDay),
+          semiMajorAxis: rateLine(trend, 'semiMajorAxisKm', r.semiMajorAxisKmPerDay),
+          energy: rateLine(trend, 'specificEnergyJPerKg', r.energyJPerKgPerDay),
+        }
+      : null;
+    return {
+      window: { fromMs, toMs, outlierEpochsMs: trend.points.filter((p) => p.outlier).map((p) => p.epochMs) },
+      rates: trend.rates,
+      intervals: trend.intervals,
+      counts: trend.counts,
+      spanDays: trend.spanDays,
+      rateLines,
+    };
+  }
+
+  /** Every stored row and the series built from them, read afresh on every call (snapshots freeze from these). */
   async function loadRows(craftId: string) {
-    // Asked alongside the rows (another pooled connection), not after them.
-    const [{ rows }, { rows: ver }] = await Promise.all([
-      pool.query<TrendRow>({ text: TREND_SQL, values: [craftId], rowMode: 'array' }),
-      pool.query<{ n: number; max: string | null }>(
-        'select count(*)::int as n, max(id) as max from element_sets where spacecraft_id = $1',
-        [craftId],
-      ),
-    ]);
-    const version = `${craftId}|${ver[0]?.n}|${ver[0]?.max}`;
+    const { rows } = await pool.query<TrendRow>({ text: TREND_SQL, values: [craftId], rowMode: 'array' });
     const n = rows.length;
     const series = {
       epochMs: new Array<number>(n),
@@ -253,42 +330,54 @@ export function createOrbitService({ db }: { db: Db }) {
       series.energyJPerKg[i] = r[5];
       if (r[6]) series.outlier.push(i);
     }
-    return { version, rows, series };
+    return { rows, series };
   }
 
   async function loadTrend(craft: SpacecraftRow, window: { fromMs?: number; toMs?: number }) {
-    // The window's rates (Theil–Sen fits, the costly part) are reused until an import or a removed file changes the state.
-    const { version, rows, series } = await loadRows(craft.id);
+    const { rows, series } = await loadRows(craft.id);
     const n = series.epochMs.length;
     const lastMs = n ? series.epochMs[n - 1]! : null;
     const toMs = window.toMs ?? lastMs ?? Date.now();
     const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
-    const cacheKey = `${version}|${fromMs}|${toMs}`;
-    let trend = windowCache.get(cacheKey);
-    if (!trend) {
-      trend = windowTrend(rows, fromMs, toMs, craft.catalogNumber);
-      windowCache.set(cacheKey, trend);
-      while (windowCache.size > 32) windowCache.delete(windowCache.keys().next().value!);
-    }
-    const r = trend.rates;
-    const rateLines = r
-      ? {
-          apogee: rateLine(trend, 'apogeeAltitudeKm', r.apogeeKmPerDay),
-          perigee: rateLine(trend, 'perigeeAltitudeKm', r.perigeeKmPerDay),
-          meanAltitude: rateLine(trend, 'meanAltitudeKm', r.semiMajorAxisKmPerDay),
-          semiMajorAxis: rateLine(trend, 'semiMajorAxisKm', r.semiMajorAxisKmPerDay),
-          energy: rateLine(trend, 'specificEnergyJPerKg', r.energyJPerKgPerDay),
-        }
-      : null;
-    return {
-      series,
-      window: { fromMs, toMs, outlierEpochsMs: trend.points.filter((p) => p.outlier).map((p) => p.epochMs) },
-      rates: trend.rates,
-      intervals: trend.intervals,
-      counts: trend.counts,
-      spanDays: trend.spanDays,
-      rateLines,
+    return { series, ...rateWindow(craft, rows, fromMs, toMs) };
+  }
+
+  /**
+   * The chart's view reduced inside PostgreSQL: one row per pixel column with its count, first and last epoch and
+   * each series' lowest and highest value — the same columns as shared/charts/reduce.ts (the same float8 arithmetic
+   * as the JavaScript numbers), read from the covering index, so 100,000 sets leave the database as ~2 × columns
+   * values. A view of at most two points per column comes as its points, as reduceMinMax gives them.
+   */
+  async function reducedView(craftId: string, fromMs: number, toMs: number, columns: number, totalSets: number) {
+    const keys = ['apogeeKm', 'perigeeKm', 'meanAltitudeKm', 'semiMajorAxisKm', 'energyJPerKg'] as const;
+    const raw = async () => {
+      const { rows } = await pool.query<number[]>({ text: VIEW_POINTS_SQL, values: [craftId, fromMs, toMs], rowMode: 'array' });
+      const out = { epochMs: rows.map((r) => r[0]!), values: keys.map((_, j) => rows.map((r) => r[j + 1]!)) };
+      return { ...out, reduced: false, pointsInView: rows.length };
     };
+    if (totalSets <= 2 * columns) return raw();
+    const width = (toMs - fromMs) / columns || 1;
+    const { rows } = await pool.query<number[]>({
+      text: VIEW_COLUMNS_SQL,
+      values: [craftId, fromMs, toMs, width, columns],
+      rowMode: 'array',
+    });
+    let pointsInView = 0;
+    for (const r of rows) pointsInView += r[1]!;
+    if (pointsInView <= 2 * columns) return raw();
+    const epochMs: number[] = [];
+    const values: number[][] = keys.map(() => []);
+    for (const r of rows) {
+      // r: column, count, first epoch, last epoch, then (min, max) of each series.
+      if (r[1] === 1) {
+        epochMs.push(r[2]!);
+        for (let j = 0; j < keys.length; j++) values[j]!.push(r[4 + 2 * j]!);
+      } else {
+        epochMs.push(r[2]!, r[3]!);
+        for (let j = 0; j < keys.length; j++) values[j]!.push(r[4 + 2 * j]!, r[5 + 2 * j]!);
+      }
+    }
+    return { epochMs, values, reduced: true, pointsInView };
   }
 
   /** At most PUBLIC_TREND_POINTS averages of apogee and perigee over the whole history (outliers left out), for a small chart. */
@@ -411,43 +500,23 @@ export function createOrbitService({ db }: { db: Db }) {
     },
 
     /**
-     * What the chart draws: the points of the view window reduced to min/max per pixel column (so a wider window
-     * comes at a lower resolution), the outliers in the view apart, and the rate window's fit as before.
+     * What the chart draws: the points of the view reduced to min/max per pixel column (so a wider view comes at a
+     * lower resolution) and the outliers in the view apart. Nothing here reads the whole history into JavaScript:
+     * the reduction runs in PostgreSQL over the covering index. No rate fit either: a zoom step asks only for this.
      */
-    async getTrendView(
-      spacecraftId: string,
-      window: { fromMs?: number; toMs?: number },
-      view: { fromMs?: number; toMs?: number; columns: number },
-    ): Promise<TrendReply> {
-      const full = await this.getTrend(spacecraftId, window);
-      const s = full.series;
-      const n = s.epochMs.length;
-      const firstMs = n ? s.epochMs[0]! : null,
-        lastMs = n ? s.epochMs[n - 1]! : null;
+    async getChartView(spacecraftId: string, view: { fromMs?: number; toMs?: number; columns: number }): Promise<TrendViewReply> {
+      const [craft, periods, { rows: ext }] = await Promise.all([
+        craftOf(spacecraftId),
+        periodsOf(spacecraftId),
+        pool.query<{ first_ms: number | null; last_ms: number | null; n: number }>(EXTENT_SQL, [spacecraftId]),
+      ]);
+      const { first_ms: firstMs, last_ms: lastMs, n } = ext[0]!;
       const fromMs = view.fromMs ?? firstMs ?? 0,
         toMs = view.toMs ?? lastMs ?? 0;
-      const outlier = new Uint8Array(n);
-      for (const i of s.outlier) outlier[i] = 1;
-      const good = n - s.outlier.length;
-      const keys = ['apogeeKm', 'perigeeKm', 'meanAltitudeKm', 'semiMajorAxisKm', 'energyJPerKg'] as const;
-      const goodT = new Float64Array(good);
-      const goodV = keys.map(() => new Float64Array(good));
-      const outT: number[] = [];
-      const outV: number[][] = keys.map(() => []);
-      for (let i = 0, g = 0; i < n; i++) {
-        const t = s.epochMs[i]!;
-        if (outlier[i]) {
-          if (t >= fromMs && t <= toMs && outT.length < OUTLIERS_SHOWN) {
-            outT.push(t);
-            keys.forEach((k, j) => outV[j]!.push(s[k][i]!));
-          }
-          continue;
-        }
-        goodT[g] = t;
-        keys.forEach((k, j) => (goodV[j]![g] = s[k][i]!));
-        g++;
-      }
-      const r = reduceMinMax(goodT, goodV, fromMs, toMs, view.columns);
+      const [r, { rows: out }] = await Promise.all([
+        reducedView(craft.id, fromMs, toMs, view.columns, n),
+        pool.query<number[]>({ text: VIEW_OUTLIERS_SQL, values: [craft.id, fromMs, toMs, OUTLIERS_SHOWN], rowMode: 'array' }),
+      ]);
       const pick = (vals: number[][]) => ({
         apogeeKm: vals[0]!,
         perigeeKm: vals[1]!,
@@ -456,19 +525,39 @@ export function createOrbitService({ db }: { db: Db }) {
         energyJPerKg: vals[4]!,
       });
       return {
-        spacecraft: full.spacecraft,
+        spacecraft: spacecraftView(craft),
         series: { epochMs: r.epochMs, ...pick(r.values) },
-        outliers: { epochMs: outT, ...pick(outV) },
+        outliers: { epochMs: out.map((o) => o[0]!), ...pick([1, 2, 3, 4, 5].map((j) => out.map((o) => o[j]!))) },
         view: { fromMs, toMs, columns: view.columns, reduced: r.reduced, pointsInView: r.pointsInView },
         extent: { firstMs, lastMs, total: n },
-        window: full.window,
-        rates: full.rates,
-        intervals: full.intervals,
-        counts: full.counts,
-        spanDays: full.spanDays,
-        rateLines: full.rateLines,
-        sailingPeriods: full.sailingPeriods,
+        sailingPeriods: periods.map(sailingPeriodView),
       };
+    },
+
+    /** The rate window's fit (Theil–Sen rates, intervals, rate lines), reading only the window's own rows. */
+    async getRateWindow(spacecraftId: string, window: { fromMs?: number; toMs?: number }): Promise<TrendRateWindowReply> {
+      const craft = await craftOf(spacecraftId);
+      let toMs = window.toMs;
+      if (toMs === undefined) {
+        const { rows } = await pool.query<{ last_ms: number | null }>(
+          'select max(epoch_ms) as last_ms from element_sets where spacecraft_id = $1',
+          [craft.id],
+        );
+        toMs = rows[0]?.last_ms ?? Date.now();
+      }
+      const fromMs = window.fromMs ?? toMs - DEFAULT_RATE_WINDOW_DAYS * DAY_MS;
+      return rateWindow(craft, await windowRows(craft.id, fromMs, toMs), fromMs, toMs);
+    },
+
+    /** The chart's view and the rate window in one reply. */
+    async getTrendView(
+      spacecraftId: string,
+      window: { fromMs?: number; toMs?: number },
+      view: { fromMs?: number; toMs?: number; columns: number },
+    ): Promise<TrendReply> {
+      const [chart, rate] = await Promise.all([this.getChartView(spacecraftId, view), this.getRateWindow(spacecraftId, window)]);
+      const { sailingPeriods, ...rest } = chart;
+      return { ...rest, ...rate, sailingPeriods };
     },
 
     async getSailYield(spacecraftId: string): Promise<SailYieldReply> {

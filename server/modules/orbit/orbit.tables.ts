@@ -119,6 +119,8 @@ export const elementSets = pgTable(
     uniqueIndex('element_sets_object_epoch_no_key').on(t.spacecraftId, t.catalogNumberInt, t.epoch, t.elementSetNo),
     index('element_sets_spacecraft_epoch_idx').on(t.spacecraftId, t.epoch),
     index('element_sets_file_idx').on(t.fileId),
+    // Also, by hand (drizzle/0019_trend-covering-index.sql, INCLUDE is beyond drizzle-kit): element_sets_trend_idx on
+    // (spacecraft_id, epoch_ms) covering the trend's columns, and element_sets_outlier_idx for the outliers.
   ],
 );
 

@@ -10,7 +10,9 @@ import type {
   SnapshotSummaryReply,
   SpacecraftReply,
   TrendRatesReply,
+  TrendRateWindowReply,
   TrendReply,
+  TrendViewReply,
   UploadErrorReply,
   UploadReply,
 } from '@shared/schemas/orbit-replies';
@@ -28,6 +30,8 @@ export type SailingPeriod = SailingPeriodReply;
 export type RateLine = RateLineReply;
 export type TrendRates = TrendRatesReply;
 export type Trend = TrendReply;
+export type TrendView = TrendViewReply;
+export type TrendRateWindow = TrendRateWindowReply;
 export type SailYield = SailYieldReply;
 export type SnapshotSummary = SnapshotSummaryReply;
 export type Snapshot = SnapshotReply;

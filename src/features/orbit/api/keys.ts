@@ -7,8 +7,9 @@ export const orbitKeys = {
   history: (id: string) => [...orbitKeys.craft(id), 'history'] as const,
   historyPage: (id: string, params: HistoryParams) => [...orbitKeys.history(id), params] as const,
   trend: (id: string) => [...orbitKeys.craft(id), 'trend'] as const,
-  trendWindow: (id: string, window: { from?: string; to?: string; viewFrom?: string; viewTo?: string; columns?: number }) =>
-    [...orbitKeys.trend(id), window] as const,
+  trendView: (id: string, view: { viewFrom?: string; viewTo?: string; columns?: number }) =>
+    [...orbitKeys.trend(id), 'view', view] as const,
+  trendRates: (id: string, window: { from?: string; to?: string }) => [...orbitKeys.trend(id), 'rates', window] as const,
   sailYield: (id: string) => [...orbitKeys.craft(id), 'sail-yield'] as const,
   sailingPeriods: (id: string) => [...orbitKeys.craft(id), 'sailing-periods'] as const,
   uploads: () => [...orbitKeys.all, 'uploads'] as const,

@@ -1,4 +1,4 @@
-import type { Trend } from '../types';
+import type { TrendRateWindow } from '../types';
 import { countOf, formatUtcDate, sci, signed } from '../format';
 
 function Rate({
@@ -30,7 +30,7 @@ function Rate({
 }
 
 /** The robust (Theil–Sen) rates over the chosen window, with their 95 % intervals. */
-export function RatesPanel({ trend }: { trend: Trend }) {
+export function RatesPanel({ trend }: { trend: TrendRateWindow }) {
   const r = trend.rates,
     iv = trend.intervals;
   return (

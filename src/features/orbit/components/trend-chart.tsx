@@ -1,10 +1,10 @@
-import { useMemo, useRef, type KeyboardEvent } from 'react';
+import { memo, startTransition, useMemo, useRef, type KeyboardEvent } from 'react';
 import type uPlot from 'uplot';
 import { CHART_COLORS, SAIL_MODE_STYLE, SERIES, type SnapshotSeriesKey } from '@shared/charts/snapshot-chart';
 import { Button } from '@/components/ui/button';
 import { countOf, formatUtcDate, formatUtcDateTime } from '../format';
 import type { Trend } from '../types';
-import { UPlotChart } from './uplot-chart';
+import { UPlotChart, type UPlotHandle } from './uplot-chart';
 
 export type RightAxis = 'none' | 'semiMajorAxis' | 'energy';
 export type ChartSelection = { left: ('apogee' | 'perigee' | 'meanAltitude')[]; right: RightAxis };
@@ -42,8 +42,12 @@ export function panDomain(view: Domain, extent: Domain, fraction: number): Domai
  * drawing costs the same for 1,000 or 100,000 sets. Sailing periods shaded, outliers ringed, rate lines dashed
  * over the rate window; drag across to zoom, buttons or arrow keys to pan and zoom, the legend reads out the
  * values under the pointer, and a text summary says what is shown.
+ *
+ * A zoom or pan step redraws the canvas at once from the points already loaded (only the x scale moves); the new
+ * view then reaches React as a transition — rendered in slices that let the browser paint — and the finer points
+ * for it are fetched and drawn when they come.
  */
-export function TrendChart({
+export const TrendChart = memo(function TrendChart({
   trend,
   selection,
   domain,
@@ -65,6 +69,15 @@ export function TrendChart({
   live.current = { trend, keys };
   const changeRef = useRef(onDomainChange);
   changeRef.current = onDomainChange;
+  const plot = useRef<UPlotHandle>(null);
+  const extentRef = useRef(extent);
+  extentRef.current = extent;
+  /** One zoom or pan step: drawn now from the loaded points, then handed to React (and the fetch) in the background. */
+  const showRef = useRef((d: Domain | null) => {
+    const shown = d ?? extentRef.current;
+    plot.current?.setView(shown.fromMs, shown.toMs);
+    startTransition(() => changeRef.current(d));
+  });
 
   const data = useMemo<uPlot.AlignedData>(() => {
     const s = trend.series;
@@ -199,14 +212,14 @@ export function TrendChart({
             const fromMs = u.posToVal(u.select.left, 'x'),
               toMs = u.posToVal(u.select.left + u.select.width, 'x');
             u.setSelect({ left: 0, top: 0, width: 0, height: 0 }, false);
-            if (toMs - fromMs > 3_600_000) changeRef.current({ fromMs, toMs });
+            if (toMs - fromMs > 3_600_000) showRef.current({ fromMs, toMs });
           },
         ],
       },
     };
   }, [keys, selection.right]);
 
-  const step = (d: Domain | null | undefined) => d !== undefined && onDomainChange(d);
+  const step = (d: Domain | null | undefined) => d !== undefined && showRef.current(d);
   const onKeyDown = (e: KeyboardEvent) => {
     const moves: Record<string, () => Domain | null> = {
       ArrowLeft: () => panDomain(view, extent, -0.25),
@@ -244,7 +257,7 @@ export function TrendChart({
             Zoom out
           </Button>
           {domain && (
-            <Button size="sm" variant="secondary" onClick={() => onDomainChange(null)}>
+            <Button size="sm" variant="secondary" onClick={() => step(null)}>
               Show the whole history
             </Button>
           )}
@@ -267,6 +280,7 @@ export function TrendChart({
           options={options}
           data={data}
           xRange={{ min: view.fromMs, max: view.toMs }}
+          handle={plot}
           className="trend-uplot h-[400px] w-full overflow-hidden sm:h-[480px]"
         />
       </div>
@@ -304,4 +318,4 @@ export function TrendChart({
       </ul>
     </div>
   );
-}
+});

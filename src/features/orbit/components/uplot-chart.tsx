@@ -1,8 +1,11 @@
-import { useEffect, useRef } from 'react';
+import { useEffect, useImperativeHandle, useRef, type Ref } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 
 const LEGEND_PX = 56;
+
+/** Moves the plot's x scale straight away, from the data it already has (no React render, no new data). */
+export type UPlotHandle = { setView: (min: number, max: number) => void };
 
 /**
  * A thin React home for one uPlot canvas: created once per `options` identity, fed new data with setData (no
@@ -18,6 +21,7 @@ export function UPlotChart({
   xRange,
   onCreate,
   className,
+  handle,
 }: {
   options: Omit<uPlot.Options, 'width' | 'height'>;
   data: uPlot.AlignedData;
@@ -25,13 +29,20 @@ export function UPlotChart({
   xRange: { min: number; max: number };
   onCreate?: (u: uPlot) => void;
   className?: string;
+  handle?: Ref<UPlotHandle>;
 }) {
   const box = useRef<HTMLDivElement>(null);
   const plot = useRef<uPlot | null>(null);
   const dataRef = useRef(data);
   dataRef.current = data;
+  // The view shown: the prop's, unless setView moved it since the prop last changed (a zoom drawn before React
+  // renders it must not be undone by a render that still carries the previous view).
   const viewRef = useRef(xRange);
-  viewRef.current = xRange;
+  const propView = useRef(xRange);
+  if (propView.current.min !== xRange.min || propView.current.max !== xRange.max) {
+    propView.current = xRange;
+    viewRef.current = xRange;
+  }
   const onCreateRef = useRef(onCreate);
   onCreateRef.current = onCreate;
 
@@ -67,6 +78,18 @@ export function UPlotChart({
     };
   }, [options]);
 
+  useImperativeHandle(
+    handle,
+    () => ({
+      setView: (vMin, vMax) => {
+        // The range function reads viewRef: set it first, then one redraw at the new scale.
+        viewRef.current = { min: vMin, max: vMax };
+        plot.current?.setScale('x', { min: vMin, max: vMax });
+      },
+    }),
+    [],
+  );
+
   const { min, max } = xRange;
   useEffect(() => {
     const u = plot.current;
@@ -75,7 +98,10 @@ export function UPlotChart({
     if (u.data !== data) u.setData(data, true);
     else {
       const sx = u.scales.x;
-      if (sx?.min !== min || sx?.max !== max) u.setScale('x', { min, max });
+      if (sx?.min !== min || sx?.max !== max) {
+        viewRef.current = { min, max };
+        u.setScale('x', { min, max });
+      }
     }
   }, [data, min, max]);
 

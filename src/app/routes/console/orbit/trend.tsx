@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { memo, useDeferredValue, useMemo, useState } from 'react';
 import { SERIES, type SnapshotSeriesKey } from '@shared/charts/snapshot-chart';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -7,16 +7,20 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { Spinner } from '@/components/ui/spinner';
 import { TextField } from '@/components/ui/text-field';
 import { errorMessage } from '@/lib/form-errors';
-import { useTrend } from '@/features/orbit/api/get-trend';
+import { useTrendRates } from '@/features/orbit/api/get-trend-rates';
+import { useTrendView } from '@/features/orbit/api/get-trend-view';
 import { OrbitDeskFrame } from '@/features/orbit/components/orbit-desk-frame';
 import { RatesPanel } from '@/features/orbit/components/rates-panel';
 import { SailYieldPanel } from '@/features/orbit/components/sail-yield-panel';
 import { SaveSnapshotForm } from '@/features/orbit/components/save-snapshot-form';
 import { TrendChart, type ChartSelection, type Domain, type RightAxis } from '@/features/orbit/components/trend-chart';
 import { DATE_HINT, fromDateInput, toDateInput } from '@/features/orbit/format';
-import type { Spacecraft } from '@/features/orbit/types';
+import type { Spacecraft, Trend } from '@/features/orbit/types';
 
 const LEFT = ['apogee', 'perigee', 'meanAltitude'] as const;
+// Re-rendered only when their own props change: a zoom step or a fetch state flip leaves them alone.
+const Rates = memo(RatesPanel);
+const SailYield = memo(SailYieldPanel);
 
 function TrendView({ craft }: { craft: Spacecraft }) {
   const [rateWindow, setRateWindow] = useState<{ from?: string; to?: string }>({});
@@ -26,16 +30,25 @@ function TrendView({ craft }: { craft: Spacecraft }) {
   const [columns] = useState(() =>
     Math.min(4000, Math.max(200, Math.ceil((Math.min(window.innerWidth, 1280) * (window.devicePixelRatio || 1)) / 100) * 100)),
   );
-  const trend = useTrend(craft.id, {
-    ...rateWindow,
+  // Two requests: the chart's view (asked again on each zoom or pan step) and the rate window's fit (asked again
+  // only when the window changes) — a zoom never waits for a fit, and the chart never waits for the rates.
+  const viewQuery = useTrendView(craft.id, {
     viewFrom: domain ? new Date(domain.fromMs).toISOString() : undefined,
     viewTo: domain ? new Date(domain.toMs).toISOString() : undefined,
     columns,
   });
+  const ratesQuery = useTrendRates(craft.id, rateWindow);
   const [fromInput, setFromInput] = useState('');
   const [toInput, setToInput] = useState('');
+  // A view that comes in is drawn in a background render React may slice (the query's own update is urgent).
+  const deferredView = useDeferredValue(viewQuery.data);
+  const chartView = deferredView ?? viewQuery.data;
+  const rates = ratesQuery.data;
+  const t = useMemo<Trend | undefined>(() => (chartView && rates ? { ...chartView, ...rates } : undefined), [chartView, rates]);
 
-  if (trend.isPending)
+  if (viewQuery.isError || ratesQuery.isError)
+    return <Alert title="Could not load the trend">{errorMessage(viewQuery.error ?? ratesQuery.error)}</Alert>;
+  if (!t)
     return (
       <Card>
         <div className="flex h-[340px] items-center justify-center sm:h-[420px]">
@@ -43,8 +56,6 @@ function TrendView({ craft }: { craft: Spacecraft }) {
         </div>
       </Card>
     );
-  if (trend.isError) return <Alert title="Could not load the trend">{errorMessage(trend.error)}</Alert>;
-  const t = trend.data;
   if (t.extent.total === 0) {
     return <EmptyState title="No element sets yet" description="Upload a file of element sets to see the orbit's trend." />;
   }
@@ -128,13 +139,13 @@ function TrendView({ craft }: { craft: Spacecraft }) {
           <Button variant="ghost" onClick={() => applyWindow(view.fromMs, view.toMs)}>
             Use the zoomed range
           </Button>
-          {trend.isFetching && <Spinner size="sm" label="Updating rates…" />}
+          {ratesQuery.isFetching && <Spinner size="sm" label="Updating rates…" />}
         </form>
-        <RatesPanel trend={t} />
+        <Rates trend={rates!} />
       </Card>
 
       <div className="grid gap-6 xl:grid-cols-2">
-        <SailYieldPanel spacecraftId={craft.id} />
+        <SailYield spacecraftId={craft.id} />
         <Card>
           <CardHeader
             level={2}
