@@ -54,7 +54,10 @@ export function passReminderEmail(d: z.output<typeof passReminderSchema>): Email
       {
         kind: 'facts',
         rows: [
-          { label: 'Appears', value: `${clock(d.start.at, d.timeZone, true)}, ${d.start.compass}, ${Math.round(d.start.elevationDeg)}° up` },
+          {
+            label: 'Appears',
+            value: `${clock(d.start.at, d.timeZone, true)}, ${d.start.compass}, ${Math.round(d.start.elevationDeg)}° up`,
+          },
           { label: 'Highest', value: `${clock(d.highest.at, d.timeZone, false)}, ${d.highest.compass}, ${highest}° up` },
           { label: 'Fades', value: `${clock(d.end.at, d.timeZone, false)}, ${d.end.compass}, ${Math.round(d.end.elevationDeg)}° up` },
           { label: 'Times in', value: d.timeZone },

@@ -40,7 +40,13 @@ export function createPlacesService({ db }: { db: Db }) {
           }
           const [row] = await tx
             .insert(savedPlaces)
-            .values({ accountId, name: input.name, latitudeDeg: input.latitudeDeg, longitudeDeg: input.longitudeDeg, timeZone: input.timeZone })
+            .values({
+              accountId,
+              name: input.name,
+              latitudeDeg: input.latitudeDeg,
+              longitudeDeg: input.longitudeDeg,
+              timeZone: input.timeZone,
+            })
             .returning();
           return view(row!);
         });
