@@ -174,12 +174,14 @@ export function createApp(deps: AppDeps): Express {
     const indexFile = path.join(clientDir, 'index.html');
     const renderMissionPage = createMissionPageRenderer({
       logger,
+      freshMs: config.CAMPAIGN_CACHE_MS,
       sources: {
         campaign: (slug) => funding.services.campaigns.view(slug),
         orbitSummary: () => orbitDesk.orbit.publicSummary(null),
         dispatchFeed: (req) => dispatches.feed(req.user ? { id: req.user.id, roles: req.user.roles } : null),
       },
     });
+    void renderMissionPage.warm();
     app.get(['/', '/*rest'], async (req, res) => {
       let html = await readFile(indexFile, 'utf8');
       if (req.path === '/') html = (await renderMissionPage(req, html)) ?? html;

@@ -11,6 +11,8 @@ import { AppProvider, createAppQueryClient } from '@/app/provider';
 import { AppRoutes } from '@/app/router';
 import { preloadMissionSections } from '@/app/routes/home';
 import type { SeededQuery } from '@/app/ssr-data';
+
+export { SSR_DATA_ID } from '@/app/ssr-data';
 import { campaignKeys, FEATURED_CAMPAIGN } from '@/features/campaign/api/get-campaign';
 import { dispatchKeys } from '@/features/dispatches/api/keys';
 import { getOrbitSummaryQueryOptions, type OrbitSummary } from '@/features/live-orbit/api/get-orbit-summary';
@@ -25,12 +27,12 @@ export type MissionPageData = {
   dispatchFeed?: { dispatches: DispatchFeedItem[] };
 };
 
-/** The queries of the mission page's components, under the keys those components read. */
-export function missionPageQueries(data: MissionPageData): SeededQuery[] {
+/** The queries of the mission page's components, under the keys those components read, as read at `updatedAt`. */
+export function missionPageQueries(updatedAt: number, data: MissionPageData): SeededQuery[] {
   const queries: SeededQuery[] = [];
-  if (data.campaign) queries.push({ key: campaignKeys.detail(FEATURED_CAMPAIGN), data: data.campaign });
-  if (data.orbitSummary) queries.push({ key: getOrbitSummaryQueryOptions().queryKey, data: data.orbitSummary });
-  if (data.dispatchFeed) queries.push({ key: dispatchKeys.feed(), data: data.dispatchFeed });
+  if (data.campaign) queries.push({ key: campaignKeys.detail(FEATURED_CAMPAIGN), data: data.campaign, updatedAt });
+  if (data.orbitSummary) queries.push({ key: getOrbitSummaryQueryOptions().queryKey, data: data.orbitSummary, updatedAt });
+  if (data.dispatchFeed) queries.push({ key: dispatchKeys.feed(), data: data.dispatchFeed, updatedAt });
   return queries;
 }
 
@@ -43,7 +45,7 @@ export async function renderPage(url: string, queries: SeededQuery[], timeoutMs 
   // out of order with an inline script to move it, which the CSP blocks.
   await preloadMissionSections();
   const client = createAppQueryClient();
-  for (const q of queries) client.setQueryData(q.key, q.data);
+  for (const q of queries) client.setQueryData(q.key, q.data, { updatedAt: q.updatedAt });
   const html = await new Promise<string>((resolve, reject) => {
     let html = '';
     let failed: unknown = null;

@@ -16,7 +16,8 @@ if (!root) throw new Error('index.html has no #root element');
 // with it, so hydration renders exactly that HTML and nothing is fetched twice.
 const client = createAppQueryClient();
 const seeded = document.getElementById(SSR_DATA_ID);
-if (seeded?.textContent) for (const q of JSON.parse(seeded.textContent) as SeededQuery[]) client.setQueryData(q.key, q.data);
+if (seeded?.textContent)
+  for (const q of JSON.parse(seeded.textContent) as SeededQuery[]) client.setQueryData(q.key, q.data, { updatedAt: q.updatedAt });
 
 const app = (
   <StrictMode>

@@ -181,7 +181,9 @@ function LatestDispatches() {
 
 export function MissionSections() {
   return (
-    <div id="mission-sections">
+    // Below the first screen: the browser skips laying it out and painting it until it nears the viewport, so the
+    // first screen paints sooner (its size is estimated until then; it stays in the accessibility tree).
+    <div id="mission-sections" className="[contain-intrinsic-size:auto_3200px] [content-visibility:auto]">
       <div
         id="money-and-orbit"
         className="mx-auto grid max-w-6xl scroll-mt-28 gap-6 px-4 pb-10 sm:px-6 lg:grid-cols-[1.15fr_1fr] lg:items-start"
