@@ -96,6 +96,23 @@ describe('hydration', () => {
     expect(problems).toEqual([]);
   });
 
+  it('on a phone: leaving before scrolling down and coming back shows the sections at once', async () => {
+    const phone = await browser.newContext({ viewport: { width: 390, height: 844 } });
+    const page = await phone.newPage();
+    const { problems } = watch(page);
+    await page.goto(`${baseUrl}/`, { waitUntil: 'networkidle' });
+    await expect.poll(() => hydrated(page, 'hero-title')).toBe(true);
+    await page.getByRole('button', { name: 'Menu' }).click();
+    await page.getByRole('navigation', { name: 'Site (menu)' }).getByRole('link', { name: 'Dispatches' }).click();
+    await page.waitForURL(`${baseUrl}/dispatches`);
+    await page.getByRole('heading', { level: 1 }).first().waitFor();
+    await page.goBack();
+    await page.getByRole('heading', { name: 'Flight budget' }).waitFor();
+    await expect.poll(() => hydrated(page, 'mission-sections'), { timeout: 15_000 }).toBe(true);
+    expect(problems).toEqual([]);
+    await phone.close();
+  });
+
   it('on a desktop in the light theme: the toggle works after hydration and nothing mismatches', async () => {
     const desk = await browser.newContext({ viewport: { width: 1280, height: 860 }, colorScheme: 'light' });
     const page = await desk.newPage();

@@ -1,4 +1,4 @@
-import { lazy, Suspense, type ComponentType } from 'react';
+import { lazy, Suspense, useEffect, type ComponentType } from 'react';
 import { buttonClasses } from '@/components/ui/button';
 import { PageSpinner } from '@/components/ui/spinner';
 import { useDocumentTitle } from '@/lib/document-title';
@@ -11,8 +11,12 @@ import { whenNear } from '@/lib/when-near';
 const MISSION_SECTIONS_ID = 'mission-sections'; // the id of MissionSections' outer element
 const loadSections = () => import('./home-sections').then((m) => m.MissionSections);
 let loadedSections: ComponentType | null = null;
+let loadNow: (() => void) | null = null;
 const LazySections = lazy(() =>
-  whenNear(MISSION_SECTIONS_ID)
+  new Promise<void>((resolve) => {
+    loadNow = resolve;
+    void whenNear(MISSION_SECTIONS_ID).then(resolve);
+  })
     .then(loadSections)
     .then((MissionSections) => ({ default: (loadedSections = MissionSections) })),
 );
@@ -31,6 +35,8 @@ const facts = [
 
 export function Component() {
   const Sections = loadedSections ?? LazySections;
+  // Leaving before the sections came near: load them now, so a return to this page shows them at once.
+  useEffect(() => () => loadNow?.(), []);
   useDocumentTitle('Tern-1 — a solar sail from the Saltmarsh Orbital Society');
   return (
     <>
