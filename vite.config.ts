@@ -33,30 +33,32 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     chunkSizeWarningLimit: 1500,
+    // Every browser the site supports knows <link rel="modulepreload">: the polyfill would be dead weight in the entry.
+    modulePreload: { polyfill: false },
     rollupOptions: {
       output: {
-        // Every page needs React, the router and the query client: one file compresses better and saves requests.
-        // The mission page is in the entry (src/app/site-map/public-pages.ts); everything else stays split per page.
+        // Every page needs React, the router, the query client and the site's shell (layouts, header, route tree):
+        // one file compresses better than several and saves requests. The shell carries the top of the mission page;
+        // the mission page's lower sections (src/app/routes/home-sections.tsx) are a chunk of their own, fetched when
+        // the visitor scrolls to them (the server has already sent their HTML). Every other page stays split per page.
         codeSplitting: {
           groups: [
-            {
-              name: 'framework',
-              test: /node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|@tanstack[\\/](react-query|query-core))[\\/]/,
-            },
-            // The site's shell and the mission page in one file (they load together on every first visit).
             {
               name: 'shell',
               test: new RegExp(
                 [
-                  'src/lib/(api-client|cn|document-title|money|roles|return-to|query-client|form-errors)',
-                  'src/components/ui/(button|spinner|alert|card|empty-state|chart-frame|theme-toggle|page-load-error)',
-                  'src/app/(router|route-tree|provider|layouts/(public-layout|root-layout|site-header|site-footer|skip-link|wordmark|use-dismiss))',
-                  'src/app/(routes/(not-found|route-error|home)|site-map/(public-pages|my-support-pages))',
-                  'src/features/auth/api/(get-me|sign-out)',
-                  'src/features/campaign/(api/get-campaign|components/flight-budget|format)',
-                  'src/features/dispatches/api/(public-dispatches|keys)',
-                  'src/features/live-orbit/(api/(get-latest-set|get-orbit-summary)|components/orbit-status|open-data)',
-                  'shared/(roles|campaign-words|money|site-meta)',
+                  // (mutations are for forms on other pages: their hooks load with those pages)
+                  'node_modules/(react|react-dom|scheduler|react-router|react-router-dom|@tanstack/(react-query|query-core))/(?!.*/(useMutation|mutationObserver)\\.js$)',
+                  '(' +
+                    [
+                      'src/lib/(api-client|cn|document-title|roles|return-to|query-client|when-near)',
+                      'src/components/ui/(button|spinner|theme-toggle)',
+                      'src/app/(router|route-tree|provider|ssr-data|layouts/(public-layout|root-layout|site-header|account-links|site-footer|skip-link|wordmark|use-dismiss))',
+                      'src/app/(routes/(not-found|route-error|home)|site-map/public-pages)',
+                      'src/features/auth/api/get-me',
+                      'shared/roles',
+                    ].join('|') +
+                    ')\\.tsx?$',
                 ]
                   .map((p) => p.replaceAll('/', '[\\\\/]'))
                   .join('|'),

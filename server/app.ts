@@ -8,6 +8,7 @@ import { csrfSync } from 'csrf-sync';
 import { existsSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { withPageMeta } from './lib/page-meta';
+import { createMissionPageRenderer } from './lib/mission-page';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
@@ -171,8 +172,19 @@ export function createApp(deps: AppDeps): Express {
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
     const indexFile = path.join(clientDir, 'index.html');
+    const renderMissionPage = createMissionPageRenderer({
+      logger,
+      freshMs: config.CAMPAIGN_CACHE_MS,
+      sources: {
+        campaign: (slug) => funding.services.campaigns.view(slug),
+        orbitSummary: () => orbitDesk.orbit.publicSummary(null),
+        dispatchFeed: (req) => dispatches.feed(req.user ? { id: req.user.id, roles: req.user.roles } : null),
+      },
+    });
+    void renderMissionPage.warm();
     app.get(['/', '/*rest'], async (req, res) => {
-      const html = await readFile(indexFile, 'utf8');
+      let html = await readFile(indexFile, 'utf8');
+      if (req.path === '/') html = (await renderMissionPage(req, html)) ?? html;
       res
         .type('html')
         .set('cache-control', 'no-cache')

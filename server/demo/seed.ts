@@ -6,6 +6,7 @@ import { seedDemoAccounts } from './accounts';
 import { orbitSeeder } from './orbit-seed';
 import { campaignSeeder } from './campaign-seed';
 import { flightBudgetSeeder } from './flight-budget-seed';
+import { dispatchSeeder } from './dispatch-seed';
 
 export type SeedContext = { db: Db; config: Config; log: (message: string) => void; accountIds: Record<string, string> };
 export type Seeder = {
@@ -16,7 +17,7 @@ export type Seeder = {
 };
 
 // Each feature adds its own seeder here; they run in order, each only where its data is missing.
-export const seeders: Seeder[] = [orbitSeeder, campaignSeeder, flightBudgetSeeder];
+export const seeders: Seeder[] = [orbitSeeder, campaignSeeder, flightBudgetSeeder, dispatchSeeder];
 
 export async function isDatabaseEmpty(db: Db) {
   const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(accounts);

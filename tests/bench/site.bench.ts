@@ -6,11 +6,15 @@
 //   site.mission-tbt  total blocking time under the same slowdown: the part over 50 ms of every long task from the first
 //                     contentful paint until the page is idle — ms, goal ≤ 100
 // These are absolute budgets, not ratios against a baseline: the "ratio" column carries the figure itself (KB or ms).
+// The server sends the mission page rendered; the code of its sections below a phone's first screen loads when the
+// visitor scrolls to them. The details print that later part too: the scripts fetched and the blocking time (same
+// slowdown) from a scroll to the end of the page until the page is idle again — so nothing is hidden by the budgets.
 // The app runs as `npm start` runs it (createApp on the demo data, the client built into a temp folder); every
 // measurement opens a fresh browser context (empty cache); LCP and TBT are the medians of RUNS loads.
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync } from 'node:fs';
 import type { Server } from 'node:http';
+import type { Page } from 'playwright-core';
 import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
@@ -28,7 +32,15 @@ import { median, type Benchmark, type BenchContext, type BenchResult } from './h
 const RUNS = 5;
 const CPU_SLOWDOWN = 4;
 
-type Figures = { jsKb: number; jsFiles: string[]; lcpMs: number[]; tbtMs: number[] };
+type Figures = {
+  jsKb: number;
+  jsFiles: string[];
+  laterKb: number;
+  laterFiles: string[];
+  lcpMs: number[];
+  tbtMs: number[];
+  scrollTbtMs: number[];
+};
 
 async function measureMissionPage({ pgAdminUrl, pgTemplate, log }: BenchContext): Promise<Figures> {
   const outDir = mkdtempSync(path.join(os.tmpdir(), 'lightkeel-bench-site-'));
@@ -89,12 +101,18 @@ async function measureMissionPage({ pgAdminUrl, pgTemplate, log }: BenchContext)
     });
     await jsPage.goto(`${base}/`, { waitUntil: 'networkidle' });
     await jsPage.getByRole('heading', { name: 'Orbit status' }).waitFor();
+    const initial = [...scripts];
+    scripts.clear();
+    // What the rest of the page fetches once the visitor scrolls through it.
+    await scrollToEnd(jsPage);
+    const later = [...scripts].filter((p) => !initial.includes(p));
     await jsContext.close();
-    let bytes = 0;
-    for (const p of scripts) bytes += gzipSync(readFileSync(path.join(outDir, p)), { level: 9 }).length;
+    const gzipKb = (files: string[]) =>
+      files.reduce((sum, p) => sum + gzipSync(readFileSync(path.join(outDir, p)), { level: 9 }).length, 0) / 1024;
 
     const lcpMs: number[] = [];
     const tbtMs: number[] = [];
+    const scrollTbtMs: number[] = [];
     for (let i = 0; i < RUNS; i++) {
       const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
       const page = await context.newPage();
@@ -125,13 +143,38 @@ async function measureMissionPage({ pgAdminUrl, pgTemplate, log }: BenchContext)
       });
       lcpMs.push(r.lcp);
       tbtMs.push(r.tbt);
+      const scrolledAt = await page.evaluate(() => performance.now());
+      await scrollToEnd(page);
+      scrollTbtMs.push(
+        await page.evaluate(
+          (from) =>
+            (window as unknown as { __long: { start: number; duration: number }[] }).__long
+              .filter((t) => t.start + t.duration > from)
+              .reduce((s, t) => s + Math.max(0, t.duration - 50), 0),
+          scrolledAt,
+        ),
+      );
       await context.close();
     }
-    return { jsKb: bytes / 1024, jsFiles: [...scripts], lcpMs, tbtMs };
+    return { jsKb: gzipKb(initial), jsFiles: initial, laterKb: gzipKb(later), laterFiles: later, lcpMs, tbtMs, scrollTbtMs };
   } finally {
     for (const close of closers.reverse()) await close();
     await admin.end();
   }
+}
+
+/** Scrolls to the end of the page as a reader would (a screen at a time) and waits until the network is idle. */
+async function scrollToEnd(page: Page) {
+  for (let i = 0; i < 40; i++) {
+    const atEnd = await page.evaluate(() => {
+      window.scrollBy(0, window.innerHeight * 0.9);
+      return window.scrollY + window.innerHeight >= document.documentElement.scrollHeight - 2;
+    });
+    await page.waitForTimeout(100);
+    if (atEnd) break;
+  }
+  await page.waitForLoadState('networkidle');
+  await page.waitForTimeout(500);
 }
 
 // One measurement serves the three budgets.
@@ -148,7 +191,9 @@ export const benchmarks: Benchmark[] = [
       const f = await measured(ctx);
       return {
         ratio: f.jsKb,
-        detail: `KB gzip (level 9) of the ${f.jsFiles.length} scripts the mission page loads: ${f.jsFiles.join(' ')}`,
+        detail:
+          `KB gzip (level 9) of the ${f.jsFiles.length} scripts the mission page loads: ${f.jsFiles.join(' ')}; ` +
+          `then ${f.laterKb.toFixed(1)} KB in ${f.laterFiles.length} scripts once the visitor scrolls through it`,
       };
     },
   },
@@ -172,7 +217,9 @@ export const benchmarks: Benchmark[] = [
       const f = await measured(ctx);
       return {
         ratio: median(f.tbtMs),
-        detail: `ms, total blocking time after first contentful paint with ${CPU_SLOWDOWN}× CPU slowdown, median of ${RUNS} cold loads (${round(f.tbtMs)})`,
+        detail:
+          `ms, total blocking time after first contentful paint with ${CPU_SLOWDOWN}× CPU slowdown, median of ${RUNS} cold loads (${round(f.tbtMs)}); ` +
+          `scrolling to the end afterwards: median ${Math.round(median(f.scrollTbtMs))} ms (${round(f.scrollTbtMs)})`,
       };
     },
   },

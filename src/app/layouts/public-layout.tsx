@@ -1,14 +1,25 @@
 import { useEffect } from 'react';
 import { Outlet, useLocation } from 'react-router-dom';
-import { pageMeta } from '@shared/site-meta';
 import { SiteFooter } from './site-footer';
 import { SiteHeader } from './site-header';
 
-/** The server wrote the first page's description into the HTML; this keeps it right as the visitor moves on. */
+// The path whose description the page carries: the server wrote the first page's into the HTML.
+let described = typeof window === 'undefined' ? '' : window.location.pathname;
+
+/** Keeps the meta description right as the visitor moves on (the list of descriptions loads on the first move). */
 function useMetaDescription() {
   const { pathname } = useLocation();
   useEffect(() => {
-    document.querySelector('meta[name="description"]')?.setAttribute('content', pageMeta(pathname).description);
+    if (pathname === described) return;
+    let current = true;
+    void import('@shared/site-meta').then(({ pageMeta }) => {
+      if (!current) return;
+      described = pathname;
+      document.querySelector('meta[name="description"]')?.setAttribute('content', pageMeta(pathname).description);
+    });
+    return () => {
+      current = false;
+    };
   }, [pathname]);
 }
 

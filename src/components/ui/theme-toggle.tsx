@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useSyncExternalStore } from 'react';
 import { cn } from '@/lib/cn';
 
 export type Theme = 'light' | 'dark';
@@ -10,9 +10,18 @@ function currentTheme(): Theme {
   return window.matchMedia('(prefers-color-scheme: light)').matches ? 'light' : 'dark';
 }
 
+const listeners = new Set<() => void>();
+function subscribe(listener: () => void) {
+  listeners.add(listener);
+  return () => listeners.delete(listener);
+}
+// The server cannot know the visitor's theme: its HTML and the hydration pass show the dark theme's button, and
+// React redraws it with the visitor's own right after (no hydration mismatch; the page's colours come from CSS).
+const serverTheme = (): Theme => 'dark';
+
 /** Switches between the light and dark theme and remembers the choice on this device (public/theme.js reapplies it). */
 export function ThemeToggle({ className }: { className?: string }) {
-  const [theme, setTheme] = useState<Theme>(currentTheme);
+  const theme = useSyncExternalStore(subscribe, currentTheme, serverTheme);
   const next: Theme = theme === 'dark' ? 'light' : 'dark';
   return (
     <button
@@ -24,7 +33,7 @@ export function ThemeToggle({ className }: { className?: string }) {
         } catch {
           // Storage blocked: the choice lasts for this page only.
         }
-        setTheme(next);
+        for (const listener of listeners) listener();
       }}
       className={cn(
         'inline-flex min-h-10 min-w-10 items-center justify-center gap-2 rounded-lg border border-foil-700 px-2.5 text-sm font-semibold text-foil-100 hover:border-foil-400',

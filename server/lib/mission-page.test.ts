@@ -1,0 +1,75 @@
+import { describe, expect, it, vi } from 'vitest';
+import type { Request } from 'express';
+import type { Logger } from 'pino';
+import { createMissionPageRenderer, type MissionPageSources } from './mission-page';
+
+const index = '<!doctype html><html><head><title>Lightkeel</title></head><body><div id="root"></div></body></html>';
+const anonymous = {} as Request;
+const signedIn = { user: { id: 'a', roles: ['backer'] } } as unknown as Request;
+const feedItem = {
+  slug: 'the-sail-is-open',
+  title: 'The sail is open',
+  excerpt: 'Two days ago the booms pushed the sail out.',
+  publishedAt: '2025-11-03T17:00:00.000Z',
+  audienceLabel: 'Everyone',
+  locked: false,
+  heroImagePath: null,
+};
+
+function setup(overrides: Partial<MissionPageSources> = {}) {
+  const sources: MissionPageSources = {
+    campaign: vi.fn(() => Promise.reject(new Error('no campaign'))),
+    orbitSummary: vi.fn(() => Promise.reject(new Error('no orbit data'))),
+    dispatchFeed: vi.fn(() => Promise.resolve([feedItem])),
+    ...overrides,
+  };
+  const warn = vi.fn();
+  const render = createMissionPageRenderer({ sources, logger: { warn } as unknown as Logger, freshMs: 60_000 });
+  return { sources, warn, render };
+}
+
+describe('the mission page rendered on the server', () => {
+  it('renders the parts it could read and leaves the others to the browser, with the data beside the HTML', async () => {
+    const { render, sources } = setup();
+    const html = (await render(anonymous, index))!;
+    expect(sources.campaign).toHaveBeenCalledWith('tern-1');
+    const root = html.slice(html.indexOf('<div id="root">'), html.indexOf('</div>\n    <script'));
+    expect(root).toContain('A sail the size of a small flat, pushed by sunlight.');
+    expect(root).toContain('href="/dispatches/the-sail-is-open"');
+    expect(root).toContain('3 November 2025');
+    // Campaign and orbit could not be read: their loading states, as the browser shows them before its own fetch.
+    expect(root).toContain('Loading the flight budget…');
+    expect(root).toContain('Loading the orbit status…');
+    expect(root).not.toContain('<script');
+    const json = html.match(/<script type="application\/json" id="lk-ssr-data">([^<]*)<\/script>/)![1]!;
+    const queries = JSON.parse(json) as { key: string[]; data: unknown; updatedAt: number }[];
+    expect(queries).toEqual([{ key: ['dispatches', 'feed'], data: { dispatches: [feedItem] }, updatedAt: expect.any(Number) }]);
+  });
+
+  it('escapes the data so no text in it can close the script element', async () => {
+    const { render } = setup({ dispatchFeed: () => Promise.resolve([{ ...feedItem, title: '</script><script>alert(1)</script>' }]) });
+    const html = (await render(anonymous, index))!;
+    const json = html.slice(html.indexOf('id="lk-ssr-data">'), html.lastIndexOf('</script>'));
+    expect(json).not.toContain('</script>');
+    expect(json).toContain('\\u003c/script>');
+    expect(html).toContain('&lt;/script&gt;&lt;script&gt;alert(1)&lt;/script&gt;');
+  });
+
+  it('serves signed-out visitors one render while it is fresh, and renders for each signed-in visitor', async () => {
+    const { render, sources } = setup();
+    const first = await render(anonymous, index);
+    expect(await render(anonymous, index)).toBe(first);
+    expect(sources.dispatchFeed).toHaveBeenCalledTimes(1);
+    await render(signedIn, index);
+    await render(signedIn, index);
+    expect(sources.dispatchFeed).toHaveBeenCalledTimes(3);
+    expect(vi.mocked(sources.dispatchFeed).mock.calls[1]![0]).toBe(signedIn);
+  });
+
+  it('answers null (the plain client page is sent) when rendering fails, and says so in the log', async () => {
+    const { render, warn } = setup({ dispatchFeed: () => Promise.resolve([null]) });
+    expect(await render(anonymous, index)).toBeNull();
+    expect(warn).toHaveBeenCalledTimes(1);
+    expect(await setup().render(anonymous, '<html><body><main></main></body></html>')).toBeNull();
+  });
+});
