@@ -44,6 +44,19 @@ export async function startFakes(config: Config, say: (m: string) => void): Prom
     });
     urls.push(['payments (fake)', pay.url]);
     closers.push(() => pay.close());
+    // Demo: on a fresh processor, one payment it took that never reached the ledger (as if its webhook had been
+    // lost), so finance's first reconciliation of the demo month has a finding to work through.
+    const { createStripeFromConfig } = await import('../../server/deps');
+    const stripe = createStripeFromConfig(config);
+    if ((await stripe.charges.list({ limit: 1 })).data.length === 0) {
+      const res = await fetch(`${pay.url}/_fake/seed/charges`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ count: 1, amountMinor: 4200, currency: 'usd' }),
+      });
+      if (!res.ok) throw new Error(`payments fake: seeding the demo payment answered ${res.status}`);
+      say('demo: the payment fake holds one $42.00 payment the ledger never saw (a finding for the first reconciliation)');
+    }
   }
   say(`local fakes up: ${urls.map(([n]) => n).join(', ')}`);
   return { urls, close: async () => void (await Promise.all(closers.map((c) => c().catch(() => undefined)))) };

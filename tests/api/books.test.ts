@@ -238,3 +238,44 @@ describe('month close', () => {
     );
   }, 90_000);
 });
+
+describe('demo data', () => {
+  // Last in this file: the demo row it adds would change the month totals the tests above check.
+  it('refuses to refund a demo payment (written to the ledger, never made at the processor) and asks the processor nothing', async () => {
+    const db = w.t.database.db;
+    const [p] = await db
+      .insert(pledges)
+      .values({
+        campaignId: w.campaign.id,
+        tierId: w.tier.patch.id,
+        kind: 'one-time',
+        amountMinor: 2600,
+        currency: w.campaign.currency,
+        state: 'paid',
+        idempotencyKey: 'books-test-demo-pledge',
+        paidAt: new Date(),
+      })
+      .returning();
+    await db.insert(ledgerEntries).values({
+      kind: 'charge',
+      amountMinor: 2600,
+      currency: w.campaign.currency,
+      campaignId: w.campaign.id,
+      pledgeId: p!.id,
+      processorObjectId: 'ch_demo_bookstest',
+      processorChargeId: 'ch_demo_bookstest',
+      description: 'Pledge payment (demo)',
+      occurredAt: new Date(),
+      isDemo: true,
+    });
+    const before = (await w.stripe.refunds.list({ limit: 100 })).data.length;
+    const res = await refund(w, p!.id, { amountMinor: 500, reason: 'backer_asked' });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('books.demo_payment');
+    expect(res.body.error.message).toMatch(/never made at the processor/);
+    expect((await w.stripe.refunds.list({ limit: 100 })).data.length).toBe(before);
+    const detail = await w.finance.get(`/api/books/pledges/${p!.id}`);
+    expect(detail.body.charges.map((c: { demo: boolean }) => c.demo)).toEqual([true]);
+    expect(detail.body.refunds).toEqual([]);
+  });
+});

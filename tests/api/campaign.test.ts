@@ -230,6 +230,9 @@ describe('pledge input', () => {
     const pledgesBefore = await t.database.db.$count(pledges);
     const below = await pledge({ tierId: world.tier.patch.id, amountMinor: 2000 }).expect(400);
     expect(below.body.error).toMatchObject({ code: 'pledges.amount_below_tier', details: [{ path: 'amountMinor' }] });
+    // Money in words a backer reads, not minor units.
+    expect(below.body.error.message).toMatch(/tier starts at [€$£]\d/);
+    expect(below.body.error.details[0].message).not.toMatch(/minor/);
     const tiny = await pledge({ amountMinor: 50 }).expect(400);
     expect(tiny.body.error.details[0].path).toBe('body.amountMinor');
     const huge = await pledge({ amountMinor: 2_500_001 }).expect(400);

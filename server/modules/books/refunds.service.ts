@@ -120,6 +120,11 @@ export function createRefundsService(deps: { db: Db; config: Config; processor: 
         const left = await refundable(tx, chargeId);
         if (!left || left.charge.pledgeId !== pledgeId)
           throw notFound('books.charge_not_found', `Payment ${chargeId} is not a payment of this pledge.`);
+        if (left.charge.isDemo)
+          throw conflict(
+            'books.demo_payment',
+            'This pledge is demo data: its payment was never made at the processor, so there is nothing there to refund. Refund a pledge paid through the payment page.',
+          );
         if (input.amountMinor > left.remainingMinor) {
           const m = (minor: number) => formatMoney(minor, left.charge.currency, 'en-US');
           const room = m(Math.max(0, left.remainingMinor));
@@ -225,6 +230,7 @@ export function createRefundsService(deps: { db: Db; config: Config; processor: 
           amountMinor: e.amountMinor,
           currency: e.currency,
           refundableMinor: Math.max(0, left?.remainingMinor ?? 0),
+          demo: e.isDemo,
         });
       }
       return {

@@ -10,6 +10,7 @@ import { lockPledge, markAbandoned, type PledgeRow, type Tx } from './pledge-led
 import { isMissing, processorUnavailable, type Processor } from '../payments/processor';
 import type { CampaignsService } from '../campaigns/campaigns.service';
 import { AppError, badRequest, conflict, notFound } from '../../errors';
+import { formatMoney } from '../../../shared/money';
 import { NO_GIFT_LABEL, type CreatePledgeInput, type PaymentView, type PledgeView } from '../../../shared/schemas/campaign';
 
 type Account = { id: string; email: string; displayName: string };
@@ -234,8 +235,9 @@ export function createPledgesService(deps: { db: Db; config: Config; processor: 
             { path: 'tierId', message: 'is not a tier of this campaign' },
           ]);
         if (input.amountMinor < tier.minAmountMinor) {
-          throw badRequest('pledges.amount_below_tier', `The ${tier.title} tier starts at ${tier.minAmountMinor} minor units.`, [
-            { path: 'amountMinor', message: `must be at least ${tier.minAmountMinor} for this tier` },
+          const least = formatMoney(tier.minAmountMinor, campaign.currency, 'en-US');
+          throw badRequest('pledges.amount_below_tier', `The ${tier.title} tier starts at ${least}.`, [
+            { path: 'amountMinor', message: `must be at least ${least} for this tier` },
           ]);
         }
       }

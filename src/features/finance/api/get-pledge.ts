@@ -15,7 +15,14 @@ export type BooksPledge = {
     backer: { email: string; name: string | null } | null;
     paidAt: string | null;
   };
-  charges: { chargeId: string; amountMinor: number; currency: string; refundableMinor: number }[];
+  charges: {
+    chargeId: string;
+    amountMinor: number;
+    currency: string;
+    refundableMinor: number;
+    /** Demo data: written straight to the ledger, never made at the processor. */
+    demo: boolean;
+  }[];
   ledger: {
     id: number;
     kind: string;

@@ -166,7 +166,14 @@ export function PledgeBooks({ pledgeId }: { pledgeId: string }) {
                   </li>
                 ))}
             </ul>
-            {c.refundableMinor > 0 && <RefundForm pledge={d} charge={c} />}
+            {c.demo ? (
+              <p className="mt-2 text-sm text-foil-300">
+                Demo data: this payment was written straight to the ledger and never made at the processor, so it cannot be refunded.
+                Refunds work on pledges paid through the payment page.
+              </p>
+            ) : (
+              c.refundableMinor > 0 && <RefundForm pledge={d} charge={c} />
+            )}
           </section>
         ))}
       </Card>
