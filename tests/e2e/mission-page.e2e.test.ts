@@ -96,7 +96,7 @@ describe('hydration', () => {
     expect(problems).toEqual([]);
   });
 
-  it('on a phone: leaving before scrolling down and coming back shows the sections at once', async () => {
+  it('on a phone: leaving before scrolling down and coming back shows the sections at once, and they hydrate when near', async () => {
     const phone = await browser.newContext({ viewport: { width: 390, height: 844 } });
     const page = await phone.newPage();
     const { problems } = watch(page);
@@ -107,7 +107,11 @@ describe('hydration', () => {
     await page.waitForURL(`${baseUrl}/dispatches`);
     await page.getByRole('heading', { level: 1 }).first().waitFor();
     await page.goBack();
-    await page.getByRole('heading', { name: 'Flight budget' }).waitFor();
+    // Back on the page (restored from the browser's back-forward cache, or rendered again by the app), the sections
+    // are there at once, and they hydrate as soon as the visitor comes near them.
+    const budget = page.getByRole('heading', { name: 'Flight budget' });
+    await budget.waitFor();
+    await budget.scrollIntoViewIfNeeded();
     await expect.poll(() => hydrated(page, 'mission-sections'), { timeout: 15_000 }).toBe(true);
     expect(problems).toEqual([]);
     await phone.close();
