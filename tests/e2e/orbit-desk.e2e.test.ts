@@ -133,7 +133,9 @@ describe('the orbit desk in the browser', () => {
     await page.keyboard.press('Home');
     await expect.poll(async () => summary.innerText(), { timeout: 30_000 }).toMatch(/: (19|20),\d{3} element sets in view, drawn/);
     await page.getByRole('button', { name: 'Zoom in' }).click();
-    await expect.poll(async () => summary.innerText(), { timeout: 30_000 }).toMatch(/^[^:]+: (?!(19|20),\d{3} )[\d,]+ element sets in view/);
+    await expect
+      .poll(async () => summary.innerText(), { timeout: 30_000 })
+      .toMatch(/^[^:]+: (?!(19|20),\d{3} )[\d,]+ element sets in view/);
     await shot(page, 'orbit-10-large-history-zoomed-desktop');
     expect(problems).toEqual([]);
     await context.close();
