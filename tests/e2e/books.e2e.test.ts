@@ -175,6 +175,18 @@ describe('books in the browser', () => {
     expect(reportText).toContain(last);
     expect(finance.problems).toEqual([]);
 
+    // The published account is on the campaign page for everyone: totals for the month, no names.
+    await backer.page.setViewportSize({ width: 1280, height: 860 });
+    await backer.page.goto(`${baseUrl}/campaign`);
+    const accounts = backer.page.getByRole('table', { name: 'Published monthly accounts' });
+    const monthName = new Date(`${last}-01T00:00:00Z`).toLocaleDateString('en-GB', { month: 'long', year: 'numeric', timeZone: 'UTC' });
+    const accountRow = accounts.getByRole('row').filter({ hasText: monthName });
+    await expect.poll(() => accountRow.count(), { timeout: 15_000 }).toBe(1);
+    expect(await accountRow.innerText()).toMatch(/\$[\d,]+\.\d{2}/);
+    expect(await accounts.innerText()).not.toMatch(/@/);
+    await accounts.scrollIntoViewIfNeeded();
+    await shot(backer.page, 'books-14-public-monthly-account');
+
     // The backer: my support → the $37 payment's receipt → the PDF.
     await backer.page.goto(`${baseUrl}/my-support/pledges`);
     const mine = backer.page.getByTestId('my-pledge').filter({ hasText: '$37.00' });

@@ -3,6 +3,7 @@ import { NO_GIFT_LABEL, PLEDGE_MIN_MINOR, type TierView } from '@shared/schemas/
 import { buttonClasses } from '@/components/ui/button';
 import { PageLoadError } from '@/components/ui/page-load-error';
 import { PageSpinner } from '@/components/ui/spinner';
+import { MonthlyAccounts } from '@/features/campaign/components/monthly-accounts';
 import { FEATURED_CAMPAIGN, useCampaign } from '@/features/campaign/api/get-campaign';
 import { BackerWall } from '@/features/campaign/components/backer-wall';
 import { FlightBudget } from '@/features/campaign/components/flight-budget';
@@ -124,6 +125,7 @@ export function Component() {
         currency={c.currency}
         open={open}
       />
+      <MonthlyAccounts slug={c.slug} />
       <div className="grid gap-10 lg:grid-cols-2">
         <StretchTargets targets={c.stretchTargets} currency={c.currency} />
         <BackerWall slug={c.slug} />
