@@ -20,7 +20,8 @@ import { pipeline } from 'node:stream/promises';
 import express from 'express';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { launchBrowser } from '../e2e/browser';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { createDb } from '../../server/db/client';
@@ -429,23 +430,6 @@ export async function prepareChartStage(ctx: Pick<BenchContext, 'pgAdminUrl' | '
   }
 }
 
-export function launchChromium() {
-  return chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-    headless: true,
-    args: [
-      '--no-sandbox',
-      '--disable-gpu',
-      '--disable-quic',
-      '--no-first-run',
-      '--disable-background-networking',
-      '--disable-component-update',
-      '--disable-sync',
-      '--disable-dev-shm-usage',
-    ],
-  });
-}
-
 /** A signed-in engineer's browser context whose orbit desk opens on `craftId`, and its cookie for direct API calls. */
 export async function engineerContext(browser: Browser, base: string, craftId: string) {
   const context = await browser.newContext({ viewport: VIEWPORT });
@@ -518,7 +502,7 @@ const chart: Benchmark = {
   better: 'lower',
   async run(ctx: BenchContext) {
     const stage = await prepareChartStage(ctx);
-    const browser = await launchChromium();
+    const browser = await launchBrowser();
     try {
       const { base, tern, large } = stage;
       const a = await engineerContext(browser, base, large.id);
