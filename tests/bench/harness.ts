@@ -1,5 +1,8 @@
 // The benchmark contract: every tests/bench/*.bench.ts exports `benchmarks`, each measuring our path
 // against a bare baseline in the same run and returning the ratio.
+import { randomBytes } from 'node:crypto';
+import pg from 'pg';
+
 export type BenchContext = {
   /** postgres://… of a throwaway cluster's admin database; create your own databases in it. */
   pgAdminUrl: string;
@@ -35,4 +38,17 @@ export async function timeMedianMs(fn: () => unknown | Promise<unknown>, repeats
     times.push(performance.now() - t0);
   }
   return median(times);
+}
+
+/** A throwaway database copied from the bench cluster's migrated template: its name (to drop it) and URL. */
+export async function createBenchDatabase(
+  ctx: Pick<BenchContext, 'pgAdminUrl' | 'pgTemplate'>,
+  prefix: string,
+): Promise<{ name: string; url: string }> {
+  const name = `${prefix}_${randomBytes(4).toString('hex')}`;
+  const admin = new pg.Client({ connectionString: ctx.pgAdminUrl });
+  await admin.connect();
+  await admin.query(`create database "${name}" template "${ctx.pgTemplate}"`);
+  await admin.end();
+  return { name, url: ctx.pgAdminUrl.replace(/\/[^/]*$/, `/${name}`) };
 }

@@ -1,6 +1,5 @@
 // Orbit desk benchmarks: our upload → preview → import path and the trend endpoint, each against a bare
 // baseline on the same rows in the same run.
-import { randomBytes } from 'node:crypto';
 import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
@@ -17,7 +16,7 @@ import { DEMO_PASSWORD, seedDemoAccounts } from '../../server/demo/accounts';
 import { writeTle, type TleWriteInput } from '../../shared/orbit/tle-write';
 import { deriveElementSet } from '../../shared/orbit/derived';
 import { bareParseTle } from './orbit.bench';
-import { median, type BenchContext, type Benchmark } from './harness';
+import { createBenchDatabase, median, type BenchContext, type Benchmark } from './harness';
 
 const DAY_MS = 86_400_000;
 
@@ -48,12 +47,7 @@ function sets(count: number, catalog: number): TleWriteInput[] {
 }
 
 async function freshDatabase(ctx: BenchContext) {
-  const name = `bench_orbit_${randomBytes(4).toString('hex')}`;
-  const admin = new pg.Client({ connectionString: ctx.pgAdminUrl });
-  await admin.connect();
-  await admin.query(`create database "${name}" template "${ctx.pgTemplate}"`);
-  await admin.end();
-  const url = ctx.pgAdminUrl.replace(/\/[^/]*$/, `/${name}`);
+  const { name, url } = await createBenchDatabase(ctx, 'bench_orbit');
   const { db, pool } = createDb(url);
   const jobs: Jobs[] = [];
   return {

@@ -9,7 +9,6 @@
 //
 // Main-thread tasks are read from a Chromium performance trace (the renderer main thread's top-level tasks, as the
 // browser's own performance panel shows them), so tasks under 50 ms are measured too, not only "long tasks".
-import { randomBytes } from 'node:crypto';
 import { mkdtempSync } from 'node:fs';
 import type { Server } from 'node:http';
 import os from 'node:os';
@@ -35,7 +34,7 @@ import { deriveElementSet, meanMotionForSemiMajorAxis } from '../../shared/orbit
 import { EARTH_RADIUS_WGS72_KM } from '../../shared/orbit/constants';
 import { writeTle, type TleWriteInput } from '../../shared/orbit/tle-write';
 import { freePort } from '../setup/global-setup';
-import { median, type BenchContext, type Benchmark } from './harness';
+import { createBenchDatabase, median, type BenchContext, type Benchmark } from './harness';
 
 const DAY_MS = 86_400_000;
 const LARGE = 100_000;
@@ -330,12 +329,7 @@ export async function measure(context: BrowserContext, t: Target, cookie: string
 
 /** The stage: a database with Tern-1's demo history and the 100,000-set object, both clients built, one server. */
 export async function prepareChartStage(ctx: Pick<BenchContext, 'pgAdminUrl' | 'pgTemplate' | 'log'>) {
-  const name = `bench_chart_${randomBytes(4).toString('hex')}`;
-  const admin = new pg.Client({ connectionString: ctx.pgAdminUrl });
-  await admin.connect();
-  await admin.query(`create database "${name}" template "${ctx.pgTemplate}"`);
-  await admin.end();
-  const url = ctx.pgAdminUrl.replace(/\/[^/]*$/, `/${name}`);
+  const { name, url } = await createBenchDatabase(ctx, 'bench_chart');
   const { db, pool } = createDb(url);
   const buildRoot = mkdtempSync(path.join(os.tmpdir(), 'lightkeel-bench-chart-'));
   let server: Server | null = null;
