@@ -2,6 +2,8 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { readFile, writeFile } from 'node:fs/promises';
+import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const apiPort = Number(process.env.PORT ?? 3000);
@@ -17,6 +19,47 @@ export default defineConfig({
       async generateBundle() {
         const { renderOgImagePng } = await import('./scripts/lib/og-image');
         this.emitFile({ type: 'asset', fileName: 'og/lightkeel.png', source: renderOgImagePng() });
+      },
+    },
+    {
+      // The fonts of the first screen are fetched beside the stylesheet, not after the first layout finds the text
+      // that uses them: the headline then paints once, in its own face, without a late swap and a second layout.
+      name: 'lightkeel-font-preload',
+      apply: 'build',
+      transformIndexHtml: {
+        order: 'post',
+        handler: (_html, { bundle }) =>
+          Object.keys(bundle ?? {})
+            .filter((file) => /nunito-sans-latin-(400|600|700)-normal-[\w-]+\.woff2$/.test(file))
+            .sort()
+            .map((file) => ({
+              tag: 'link',
+              attrs: { rel: 'preload', href: `/${file}`, as: 'font', type: 'font/woff2', crossorigin: '' },
+              injectTo: 'head' as const,
+            })),
+      },
+    },
+    {
+      // Every function of the shell runs on the first load (React, the router, the query client, the page's top):
+      // the file-wide compile hint has Chromium compile them while it streams the file in, on a background thread,
+      // instead of one by one on the main thread when each is first called during hydration. Other browsers ignore
+      // the comment. It must open the file.
+      name: 'lightkeel-compile-hints',
+      apply: 'build',
+      enforce: 'post',
+      // (Written into the file once it is on disk: Vite adds its own preamble to the chunk after every other hook.)
+      async writeBundle({ dir }, bundle) {
+        for (const chunk of Object.values(bundle)) {
+          if (chunk.type !== 'chunk' || chunk.name !== 'shell' || !dir) continue;
+          const file = path.join(dir, chunk.fileName);
+          await writeFile(file, `//# allFunctionsCalledOnLoad\n${await readFile(file, 'utf8')}`);
+          // A source map, when one is written, starts one line further down.
+          const map = bundle[`${chunk.fileName}.map`];
+          if (map?.type === 'asset') {
+            const json = JSON.parse(await readFile(`${file}.map`, 'utf8')) as { mappings: string };
+            await writeFile(`${file}.map`, JSON.stringify({ ...json, mappings: `;${json.mappings}` }));
+          }
+        }
       },
     },
   ],

@@ -187,7 +187,8 @@ export function createApp(deps: AppDeps): Express {
       if (req.path === '/') html = (await renderMissionPage(req, html)) ?? html;
       res
         .type('html')
-        .set('cache-control', 'no-cache')
+        // A signed-in visitor's mission page carries their own account and feed: no shared cache may keep it.
+        .set('cache-control', req.user && req.path === '/' ? 'private, no-cache' : 'no-cache')
         .send(withPageMeta(html, req.path, config.PUBLIC_URL));
     });
   }

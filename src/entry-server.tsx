@@ -5,6 +5,7 @@ import { StrictMode } from 'react';
 import { renderToPipeableStream } from 'react-dom/server';
 import { StaticRouter } from 'react-router-dom';
 import { Writable } from 'node:stream';
+import type { AccountView } from '@shared/schemas/auth';
 import type { CampaignView } from '@shared/schemas/campaign';
 import type { DispatchFeedItem } from '@shared/schemas/dispatch';
 import { AppProvider, createAppQueryClient } from '@/app/provider';
@@ -13,6 +14,7 @@ import { preloadMissionSections } from '@/app/routes/home';
 import type { SeededQuery } from '@/app/ssr-data';
 
 export { SSR_DATA_ID } from '@/app/ssr-data';
+import { getMeQueryOptions } from '@/features/auth/api/get-me';
 import { campaignKeys, FEATURED_CAMPAIGN } from '@/features/campaign/api/get-campaign';
 import { dispatchKeys } from '@/features/dispatches/api/keys';
 import { getOrbitSummaryQueryOptions, type OrbitSummary } from '@/features/live-orbit/api/get-orbit-summary';
@@ -22,6 +24,8 @@ export const MISSION_CAMPAIGN = FEATURED_CAMPAIGN;
 
 /** The mission page's data, each part as its API answers it (JSON-parsed); a part left out is fetched by the browser. */
 export type MissionPageData = {
+  /** Who the page was rendered for (null: signed out), as `/api/auth/me` answers: the header shows their links. */
+  me?: AccountView | null;
   campaign?: CampaignView;
   orbitSummary?: OrbitSummary;
   dispatchFeed?: { dispatches: DispatchFeedItem[] };
@@ -30,6 +34,7 @@ export type MissionPageData = {
 /** The queries of the mission page's components, under the keys those components read, as read at `updatedAt`. */
 export function missionPageQueries(updatedAt: number, data: MissionPageData): SeededQuery[] {
   const queries: SeededQuery[] = [];
+  if (data.me !== undefined) queries.push({ key: getMeQueryOptions().queryKey, data: data.me, updatedAt });
   if (data.campaign) queries.push({ key: campaignKeys.detail(FEATURED_CAMPAIGN), data: data.campaign, updatedAt });
   if (data.orbitSummary) queries.push({ key: getOrbitSummaryQueryOptions().queryKey, data: data.orbitSummary, updatedAt });
   if (data.dispatchFeed) queries.push({ key: dispatchKeys.feed(), data: data.dispatchFeed, updatedAt });

@@ -43,7 +43,26 @@ describe('the mission page rendered on the server', () => {
     expect(root).not.toContain('<script');
     const json = html.match(/<script type="application\/json" id="lk-ssr-data">([^<]*)<\/script>/)![1]!;
     const queries = JSON.parse(json) as { key: string[]; data: unknown; updatedAt: number }[];
-    expect(queries).toEqual([{ key: ['dispatches', 'feed'], data: { dispatches: [feedItem] }, updatedAt: expect.any(Number) }]);
+    expect(queries).toEqual([
+      { key: ['auth', 'me'], data: null, updatedAt: expect.any(Number) },
+      { key: ['dispatches', 'feed'], data: { dispatches: [feedItem] }, updatedAt: expect.any(Number) },
+    ]);
+  });
+
+  it("renders a signed-in visitor's page with their account, as /api/auth/me answers it", async () => {
+    const { render } = setup();
+    const account = {
+      id: 'a',
+      email: 'wren@example.test',
+      displayName: 'Wren',
+      roles: ['backer'],
+      emailVerified: true,
+      createdAt: '2026-01-05T10:00:00.000Z',
+    };
+    const html = (await render({ user: account } as unknown as Request, index))!;
+    expect(html).toContain('Wren');
+    const queries = JSON.parse(html.match(/id="lk-ssr-data">([^<]*)<\/script>/)![1]!) as { key: string[]; data: unknown }[];
+    expect(queries.find((q) => q.key.join('/') === 'auth/me')?.data).toEqual(account);
   });
 
   it('escapes the data so no text in it can close the script element', async () => {

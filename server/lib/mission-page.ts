@@ -81,6 +81,8 @@ export function createMissionPageRenderer({
       // A part that cannot be read now (no campaign yet, no orbit data) is left to the browser, which shows its
       // own loading and error states for it, as before.
       const queries = missionPageQueries(at, {
+        // Known already: without it the browser would ask who is signed in and render the header again on the answer.
+        me: asJson(req.user ?? null),
         campaign: campaign.status === 'fulfilled' ? asJson(campaign.value as never) : undefined,
         orbitSummary: orbitSummary.status === 'fulfilled' ? asJson(orbitSummary.value as never) : undefined,
         dispatchFeed: dispatches.status === 'fulfilled' ? asJson({ dispatches: dispatches.value as never[] }) : undefined,

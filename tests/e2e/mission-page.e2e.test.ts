@@ -20,10 +20,12 @@ function watch(page: Page) {
   });
   page.on('pageerror', (e) => problems.push(`pageerror: ${e.message}`));
   const scripts: string[] = [];
+  const apiCalls: string[] = [];
   page.on('response', (r) => {
     if (r.request().resourceType() === 'script') scripts.push(new URL(r.url()).pathname);
+    if (new URL(r.url()).pathname.startsWith('/api/')) apiCalls.push(new URL(r.url()).pathname);
   });
-  return { problems, scripts };
+  return { problems, scripts, apiCalls };
 }
 
 /** True once React has hydrated the element (it keeps its fiber on the DOM node). */
@@ -49,9 +51,23 @@ describe('the mission page from the server', () => {
     expect(root).not.toContain('<script');
     const data = JSON.parse(html.match(/<script type="application\/json" id="lk-ssr-data">([^<]*)<\/script>/)![1]!) as {
       key: string[];
+      data: unknown;
       updatedAt: number;
     }[];
-    expect(data.map((q) => q.key.join('/')).sort()).toEqual(['campaigns/detail/tern-1', 'dispatches/feed', 'live-orbit/summary']);
+    expect(data.map((q) => q.key.join('/')).sort()).toEqual([
+      'auth/me',
+      'campaigns/detail/tern-1',
+      'dispatches/feed',
+      'live-orbit/summary',
+    ]);
+    // Rendered for a visitor who is signed out, and it says so: the browser does not ask again, and the header is
+    // not drawn a second time when the answer comes.
+    expect(data.find((q) => q.key.join('/') === 'auth/me')?.data).toBeNull();
+    expect(res.headers.get('cache-control')).toBe('no-cache');
+    // Fonts of the first screen are fetched with the stylesheet.
+    expect(html).toMatch(
+      /<link rel="preload" href="\/assets\/nunito-sans-latin-700-normal-[\w-]+\.woff2" as="font" type="font\/woff2" crossorigin/,
+    );
     expect(Math.abs(Date.now() - data[0]!.updatedAt)).toBeLessThan(120_000);
     // Titles and Open Graph tags still come from server/lib/page-meta.ts.
     expect(html).toMatch(/<title>Tern-1 — a solar sail from the Saltmarsh Orbital Society · Lightkeel<\/title>/);
@@ -76,10 +92,12 @@ describe('hydration', () => {
   it('on a phone: the first screen hydrates, the sections below load and hydrate on scroll, the console stays clean', async () => {
     context = await browser.newContext({ viewport: { width: 390, height: 844 } });
     const page = await context.newPage();
-    const { problems, scripts } = watch(page);
+    const { problems, scripts, apiCalls } = watch(page);
     await page.goto(`${baseUrl}/`, { waitUntil: 'networkidle' });
     await expect.poll(() => hydrated(page, 'hero-title')).toBe(true);
     expect(await hydrated(page, 'mission-sections')).toBe(false);
+    // Everything the first screen shows came with the page, who is signed in included.
+    expect(apiCalls).toEqual([]);
     expect(scripts.some((s) => s.includes('home-sections'))).toBe(false);
     await shot(page, 'mission-390-first-screen');
 
