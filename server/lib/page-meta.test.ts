@@ -3,7 +3,8 @@ import { withPageMeta } from './page-meta';
 import { ogImageSvg, renderOgImagePng } from '../../scripts/lib/og-image';
 import { imageSize } from 'image-size';
 
-const index = '<!doctype html><html><head><title>Lightkeel</title></head><body><div id="root"></div></body></html>';
+const index =
+  '<!doctype html><html><head><title>Lightkeel</title>\n    <meta name="description" content="The app\'s own words." /></head><body><div id="root"></div></body></html>';
 
 describe('each public page is sent with its own title, description and Open Graph tags', () => {
   it('names the sky watch page and points previews at our image, on the public address', () => {
@@ -14,6 +15,9 @@ describe('each public page is sent with its own title, description and Open Grap
     expect(html).toContain('<meta property="og:url" content="https://tern.example/sky-watch" />');
     expect(html).not.toContain('noindex');
     expect(html.match(/<title>/g)).toHaveLength(1);
+    // One description: the page's, in place of index.html's.
+    expect(html.match(/<meta name="description"/g)).toHaveLength(1);
+    expect(html).not.toContain('The app');
   });
 
   it('matches pages with a handle in the address, escapes the text, and keeps the signed-in areas out of indexes', () => {

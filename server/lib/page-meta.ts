@@ -27,5 +27,6 @@ export function withPageMeta(indexHtml: string, pathname: string, publicUrl: str
     `<meta name="twitter:card" content="summary_large_image" />`,
     ...(privateArea ? ['<meta name="robots" content="noindex" />'] : []),
   ].join('\n    ');
-  return indexHtml.replace(/<title>[^<]*<\/title>/, tags);
+  // index.html's own description (what a page without its own words would say) gives way to the page's.
+  return indexHtml.replace(/\s*<meta name="description"[^>]*>/g, '').replace(/<title>[^<]*<\/title>/, tags);
 }
