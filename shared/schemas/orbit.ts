@@ -97,38 +97,35 @@ export const historyQuerySchema = z.object({
 });
 export type HistoryQuery = z.output<typeof historyQuerySchema>;
 
-export const trendQuerySchema = z
-  .object({
-    /** The window for the rate lines; defaults to the last 30 days of the history. */
-    from: isoDateTime.optional(),
-    to: isoDateTime.optional(),
-    /** The chart's view; defaults to the whole history. */
-    viewFrom: isoDateTime.optional(),
-    viewTo: isoDateTime.optional(),
-    /** Pixel columns the chart has: the view comes reduced to min/max per column. */
-    columns: z.coerce.number().int().min(10).max(4000).default(1000),
-  })
-  .refine((q) => !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom), {
-    message: 'must be after the view start',
-    path: ['viewTo'],
-  });
+// The chart's view and the rate window, each with its order check; the whole trend asks for both.
+const trendViewFields = z.object({
+  /** The chart's view; defaults to the whole history. */
+  viewFrom: isoDateTime.optional(),
+  viewTo: isoDateTime.optional(),
+  /** Pixel columns the chart has: the view comes reduced to min/max per column. */
+  columns: z.coerce.number().int().min(10).max(4000).default(1000),
+});
+const trendRateFields = z.object({
+  /** The window for the rate lines; defaults to the last 30 days of the history. */
+  from: isoDateTime.optional(),
+  to: isoDateTime.optional(),
+});
+const viewInOrder = (q: { viewFrom?: string; viewTo?: string }) =>
+  !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom);
+const viewOutOfOrder = { message: 'must be after the view start', path: ['viewTo'] };
+const ratesInOrder = (q: { from?: string; to?: string }) => !q.from || !q.to || Date.parse(q.to) > Date.parse(q.from);
+const ratesOutOfOrder = { message: 'must be after the window start', path: ['to'] };
+
+export const trendQuerySchema = trendRateFields
+  .extend(trendViewFields.shape)
+  .refine(viewInOrder, viewOutOfOrder)
+  .refine(ratesInOrder, ratesOutOfOrder);
 
 /** The chart's part of the trend alone: the view, reduced per pixel column (a zoom step asks only for this). */
-export const trendViewQuerySchema = z
-  .object({
-    viewFrom: isoDateTime.optional(),
-    viewTo: isoDateTime.optional(),
-    columns: z.coerce.number().int().min(10).max(4000).default(1000),
-  })
-  .refine((q) => !q.viewFrom || !q.viewTo || Date.parse(q.viewTo) > Date.parse(q.viewFrom), {
-    message: 'must be after the view start',
-    path: ['viewTo'],
-  });
+export const trendViewQuerySchema = trendViewFields.refine(viewInOrder, viewOutOfOrder);
 
 /** The rate window's part alone: its robust rates and rate lines (defaults to the last 30 days of the history). */
-export const trendRatesQuerySchema = z
-  .object({ from: isoDateTime.optional(), to: isoDateTime.optional() })
-  .refine((q) => !q.from || !q.to || Date.parse(q.to) > Date.parse(q.from), { message: 'must be after the window start', path: ['to'] });
+export const trendRatesQuerySchema = trendRateFields.refine(ratesInOrder, ratesOutOfOrder);
 
 export const snapshotSeriesKeys = ['apogee', 'perigee', 'meanAltitude', 'semiMajorAxis', 'energy'] as const;
 export const snapshotSeriesSchema = z.enum(snapshotSeriesKeys);

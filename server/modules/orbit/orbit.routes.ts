@@ -33,6 +33,16 @@ type Logger = { error: (obj: unknown, msg?: string) => void };
 
 export type OrbitModule = { ingest: IngestService; orbit: OrbitService; snapshots: SnapshotsService };
 
+const msOrUndefined = (iso: string | undefined) => (iso ? Date.parse(iso) : undefined);
+/** The trend's rate window, as the query names it (`from`, `to`). */
+const rateWindow = (q: { from?: string; to?: string }) => ({ fromMs: msOrUndefined(q.from), toMs: msOrUndefined(q.to) });
+/** The chart's view, as the query names it (`viewFrom`, `viewTo`, `columns`). */
+const chartView = (q: { viewFrom?: string; viewTo?: string; columns: number }) => ({
+  fromMs: msOrUndefined(q.viewFrom),
+  toMs: msOrUndefined(q.viewTo),
+  columns: q.columns,
+});
+
 export function createOrbitModule({
   db,
   logger,
@@ -221,42 +231,21 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
     '/spacecraft/:id/trend',
     engineers,
     validated({ params: idParams, query: trendQuerySchema }, async (_req, res, { params, query }) => {
-      res.json(
-        await orbit.getTrendView(
-          params.id,
-          { fromMs: query.from ? Date.parse(query.from) : undefined, toMs: query.to ? Date.parse(query.to) : undefined },
-          {
-            fromMs: query.viewFrom ? Date.parse(query.viewFrom) : undefined,
-            toMs: query.viewTo ? Date.parse(query.viewTo) : undefined,
-            columns: query.columns,
-          },
-        ),
-      );
+      res.json(await orbit.getTrendView(params.id, rateWindow(query), chartView(query)));
     }),
   );
   router.get(
     '/spacecraft/:id/trend/view',
     engineers,
     validated({ params: idParams, query: trendViewQuerySchema }, async (_req, res, { params, query }) => {
-      res.json(
-        await orbit.getChartView(params.id, {
-          fromMs: query.viewFrom ? Date.parse(query.viewFrom) : undefined,
-          toMs: query.viewTo ? Date.parse(query.viewTo) : undefined,
-          columns: query.columns,
-        }),
-      );
+      res.json(await orbit.getChartView(params.id, chartView(query)));
     }),
   );
   router.get(
     '/spacecraft/:id/trend/rates',
     engineers,
     validated({ params: idParams, query: trendRatesQuerySchema }, async (_req, res, { params, query }) => {
-      res.json(
-        await orbit.getRateWindow(params.id, {
-          fromMs: query.from ? Date.parse(query.from) : undefined,
-          toMs: query.to ? Date.parse(query.to) : undefined,
-        }),
-      );
+      res.json(await orbit.getRateWindow(params.id, rateWindow(query)));
     }),
   );
   router.get(
