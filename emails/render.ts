@@ -1,4 +1,5 @@
 import mjml2html from 'mjml';
+import type { ZodType } from 'zod';
 import { escapeHtml } from './escape';
 import { layoutMjml, layoutText, type EmailContent } from './layout';
 import { emailDataSchemas, emailTemplates, type EmailData, type EmailName } from './templates';
@@ -31,32 +32,75 @@ export async function renderEmail<N extends EmailName>(name: N, data: EmailData[
 export async function renderEmail(name: string, data: Record<string, unknown>): Promise<RenderedEmail>;
 export async function renderEmail(name: string, data: unknown): Promise<RenderedEmail> {
   if (!isEmailName(name)) throw new EmailTemplateError(`unknown e-mail template "${name}"`, name);
-  const parsed = emailDataSchemas[name].safeParse(data);
-  if (!parsed.success) {
-    const issues = parsed.error.issues.map((i) => ({ path: i.path.join('.') || '(data)', message: i.message }));
-    throw new EmailTemplateError(
-      `invalid data for e-mail template "${name}": ${issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`,
-      name,
-      issues,
-    );
-  }
   const personal = PERSONAL_FIELDS[name];
-  if (personal) return renderPersonalised(name, parsed.data, personal);
+  if (personal && isRecord(data)) {
+    // Another copy of the same mail was checked and rendered already: only this copy's own fields need a check.
+    const copy = sharedCopy(name, data, personal);
+    if (copy) return personalise(await copy, checkFields(name, data, personal), personal);
+  }
+  const parsed = emailDataSchemas[name].safeParse(data);
+  if (!parsed.success) throw invalidData(name, parsed.error.issues);
+  if (personal) return renderPersonalised(name, parsed.data, personal, data as Record<string, unknown>);
   return renderParsed(name, parsed.data);
 }
+
+function invalidData(name: string, zodIssues: ReadonlyArray<{ path: PropertyKey[]; message: string }>): EmailTemplateError {
+  const issues = zodIssues.map((i) => ({ path: i.path.map(String).join('.') || '(data)', message: i.message }));
+  return new EmailTemplateError(
+    `invalid data for e-mail template "${name}": ${issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`,
+    name,
+    issues,
+  );
+}
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
 // Fields that differ per recipient in otherwise identical mail (a dispatch to 10,000 readers differs only in
 // its unsubscribe link). Such mail is rendered once with placeholders, then each copy swaps in its own values:
 // mjml takes milliseconds per message, which would otherwise bound how fast a dispatch goes out.
 const PERSONAL_FIELDS: Partial<Record<EmailName, readonly string[]>> = { dispatch: ['unsubscribeUrl'] };
 const placeholder = (field: string) => `https://personal.invalid/lk-${field}-7f3a`;
+// Rendered generic copies, keyed by the template and the data as given (before parsing) with the personal fields
+// replaced: a key is stored only once the whole data, personal fields included, passed the template's schema.
 const shared = new Map<string, Promise<RenderedEmail>>();
 const SHARED_MAX = 16;
 
-async function renderPersonalised(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Promise<RenderedEmail> {
+const genericKey = (name: EmailName, data: Record<string, unknown>, fields: readonly string[]) => {
   const generic = { ...data };
   for (const f of fields) generic[f] = placeholder(f);
-  const key = `${name}\u0000${JSON.stringify(generic)}`;
+  return `${name}\u0000${JSON.stringify(generic)}`;
+};
+
+function sharedCopy(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Promise<RenderedEmail> | undefined {
+  return shared.get(genericKey(name, data, fields));
+}
+
+/** Checks only the personal fields, each against its own schema in the template's (object) schema. */
+function checkFields(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Record<string, unknown> {
+  const shape = (emailDataSchemas[name] as unknown as { shape: Record<string, ZodType> }).shape;
+  const out: Record<string, unknown> = {};
+  for (const f of fields) {
+    const parsed = shape[f]!.safeParse(data[f]);
+    if (!parsed.success)
+      throw invalidData(
+        name,
+        parsed.error.issues.map((i) => ({ ...i, path: [f, ...i.path] })),
+      );
+    out[f] = parsed.data;
+  }
+  return out;
+}
+
+async function renderPersonalised(
+  name: EmailName,
+  data: Record<string, unknown>,
+  fields: readonly string[],
+  given: Record<string, unknown>,
+): Promise<RenderedEmail> {
+  const generic = { ...data };
+  for (const f of fields) generic[f] = placeholder(f);
+  // Keyed by the data as given, so the next copy finds it before parsing (parsing fills defaults in).
+  const key = genericKey(name, given, fields);
   let pending = shared.get(key);
   if (!pending) {
     pending = renderParsed(name, generic);
@@ -64,7 +108,11 @@ async function renderPersonalised(name: EmailName, data: Record<string, unknown>
     pending.catch(() => shared.delete(key));
     if (shared.size > SHARED_MAX) shared.delete(shared.keys().next().value!);
   }
-  let { subject, html, text } = await pending;
+  return personalise(await pending, data, fields);
+}
+
+function personalise(rendered: RenderedEmail, data: Record<string, unknown>, fields: readonly string[]): RenderedEmail {
+  let { subject, html, text } = rendered;
   for (const f of fields) {
     const value = String(data[f]);
     html = html.split(placeholder(f)).join(escapeHtml(value));

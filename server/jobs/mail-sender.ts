@@ -97,14 +97,29 @@ export function mailSenderOptionsFrom(ctx: Pick<JobContext, 'config' | 'deps'>):
 
 const CLAIMABLE = `((state = 'queued' and next_attempt_at <= now()) or (state = 'sending' and lease_until < now()))`;
 
+/**
+ * The rows a claim may take, as two CTEs `due` (queued and due, oldest first) and `expired` (a lease that has run
+ * out), each locked and limited on its own: each is read from the front of an index (mail_queue_batch_due_idx /
+ * mail_queue_single_due_idx; mail_queue_due_idx for leases), so a claim costs the same with 10 or 100,000 rows
+ * waiting. (One `or` over both states made Postgres gather and sort every queued row on every claim.)
+ */
+function dueCandidates(column: 'id' | 'batch_key', batchKey: 'is null' | 'is not null', limit: string) {
+  return `due as (select ${column}, next_attempt_at as at from mail_queue
+                   where state = 'queued' and batch_key ${batchKey} and next_attempt_at <= now()
+                   order by next_attempt_at limit ${limit} for update skip locked),
+          expired as (select ${column}, lease_until as at from mail_queue
+                   where state = 'sending' and batch_key ${batchKey} and lease_until < now()
+                   order by lease_until limit ${limit} for update skip locked)`;
+}
+
 export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: JobContext['logger']) {
   const renderAttachments = createAttachmentRenderer(pool);
   /** Claims due single messages (up to `limit`). */
   async function claimSingles(limit: number): Promise<Row[]> {
     const { rows } = await pool.query<Row>(
-      `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
-        where id in (select id from mail_queue where batch_key is null and ${CLAIMABLE}
-                      order by next_attempt_at limit $2 for update skip locked)
+      `with ${dueCandidates('id', 'is null', '$2')}
+       update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
+        where id in (select id from (select * from due union all select * from expired) c order by at limit $2)
         returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
       [opts.leaseSeconds, limit],
     );
@@ -125,10 +140,10 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
   async function claimBatchNow(attempt = 1): Promise<Row[]> {
     const result = await pool
       .query<Row>(
-        `update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
-        where batch_key = (select batch_key from mail_queue where batch_key is not null and ${CLAIMABLE}
-                            order by next_attempt_at limit 1 for update skip locked)
-          and ${CLAIMABLE}
+        `with ${dueCandidates('batch_key', 'is not null', '1')}
+         update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
+          where batch_key = (select batch_key from (select * from due union all select * from expired) c order by at limit 1)
+            and ${CLAIMABLE}
         returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
         [opts.leaseSeconds],
       )
@@ -211,7 +226,10 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     await settle([row], answer);
   }
 
-  async function sendBatch(rows: Row[]) {
+  type Payload = Awaited<ReturnType<typeof payloadOf>>;
+
+  /** Renders a claimed batch; a batch that cannot render is marked failed and comes back without payloads. */
+  async function prepareBatch(rows: Row[]): Promise<{ rows: Row[]; payloads: Payload[] | null }> {
     const payloads = [];
     try {
       for (const r of rows) payloads.push(await payloadOf(r));
@@ -220,8 +238,13 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
         `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = any($1::uuid[])`,
         [rows.map((r) => r.id), JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],
       );
-      return;
+      return { rows, payloads: null };
     }
+    return { rows, payloads };
+  }
+
+  /** One batch call; returns the settle (the rows' new state) as its own promise, so the lane need not wait for it. */
+  async function sendBatch(rows: Row[], payloads: Payload[]): Promise<{ settled: Promise<void> }> {
     let answer: Answer;
     let ids: string[] | undefined;
     try {
@@ -243,23 +266,41 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     } catch (err) {
       answer = { status: null, name: 'network_error', message: (err as Error).message };
     }
-    await settle(rows, answer, ids);
+    return { settled: settle(rows, answer, ids) };
   }
 
   /**
    * One pass: claims and sends until nothing is due; returns how many rows it handled. `concurrency` batch lanes
-   * each claim the next batch as soon as their last call is answered (no round waits for its slowest batch), and
-   * one lane beside them sends single messages, `concurrency` at a time, so account mail queued behind a large
-   * dispatch never waits for the dispatch.
+   * each keep one batch call in flight: while a call is out, the lane already claims and renders its next batch,
+   * and a batch's answer is written to its rows beside the next call (never more than `concurrency` calls in
+   * flight; a row is `sending` under its lease until its answer is written, so a worker that dies in between
+   * leaves it to be sent again under the same idempotency key). One lane beside them sends single messages,
+   * `concurrency` at a time, so account mail queued behind a large dispatch never waits for the dispatch.
    */
   async function drain(): Promise<number> {
     let handled = 0;
+    const settling = new Set<Promise<void>>();
+    let settleError: { err: unknown } | null = null;
     const batchLane = async () => {
-      for (;;) {
-        const batch = await claimBatch();
-        if (!batch.length) return;
-        await sendBatch(batch);
-        handled += batch.length;
+      const nextBatch = () => claimBatch().then((rows) => (rows.length ? prepareBatch(rows) : null));
+      let next = nextBatch();
+      try {
+        for (;;) {
+          const batch = await next;
+          if (!batch) return;
+          next = nextBatch();
+          if (batch.payloads) {
+            const { settled } = await sendBatch(batch.rows, batch.payloads);
+            const tracked: Promise<void> = settled
+              .catch((err: unknown) => void (settleError ??= { err }))
+              .finally(() => settling.delete(tracked));
+            settling.add(tracked);
+          }
+          handled += batch.rows.length;
+        }
+      } finally {
+        // A claimed next batch the lane will not send (an error above) is left to its lease.
+        next.catch(() => undefined);
       }
     };
     const singleLane = async () => {
@@ -271,7 +312,13 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
         handled += singles.length;
       }
     };
-    await Promise.all([singleLane(), ...Array.from({ length: opts.concurrency }, batchLane)]);
+    try {
+      await Promise.all([singleLane(), ...Array.from({ length: opts.concurrency }, batchLane)]);
+    } finally {
+      await Promise.all(settling);
+    }
+    // A row whose answer could not be written stays `sending` until its lease ends, then goes again (same key).
+    if (settleError) throw (settleError as { err: unknown }).err;
     return handled;
   }
 

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { EmailTemplateError, emailNames, renderEmail, type EmailData, type EmailName } from '../../emails/render';
 import { formatMoney } from '../../shared/money';
 
@@ -173,6 +173,29 @@ describe('e-mail templates', () => {
     const r = await renderEmail('password-reset', samples['password-reset']);
     expect(r.text).toContain('45 minutes');
     expect(r.html).toContain('45 minutes');
+  });
+
+  it('renders each copy of a dispatch exactly as a fresh render of its data, and still checks its own link', async () => {
+    const title = 'Copies of one dispatch';
+    const copyFor = (token: string) => ({
+      ...samples.dispatch,
+      title,
+      unsubscribeUrl: `http://127.0.0.1:3000/unsubscribe?token=${token}&v=1`,
+    });
+    // A fresh module (empty cache) renders member B's copy from scratch …
+    vi.resetModules();
+    const fresh = await import('../../emails/render');
+    const alone = await fresh.renderEmail('dispatch', copyFor('member-b'));
+    // … and here member A's copy comes first, so B's is filled in from the shared render.
+    await renderEmail('dispatch', copyFor('member-a'));
+    const filledIn = await renderEmail('dispatch', copyFor('member-b'));
+    expect(filledIn).toEqual(alone);
+    expect(filledIn.html).toContain('http://127.0.0.1:3000/unsubscribe?token=member-b&amp;v=1');
+    expect(filledIn.text).toContain('http://127.0.0.1:3000/unsubscribe?token=member-b&v=1');
+    expect(filledIn.html).not.toContain('member-a');
+    // The shared part is cached, the link is not trusted: a copy with a bad link is refused, naming the field.
+    await expect(renderEmail('dispatch', { ...copyFor('x'), unsubscribeUrl: 'javascript:alert(1)' })).rejects.toThrow(/unsubscribeUrl/);
+    await expect(renderEmail('dispatch', { ...copyFor('x'), unsubscribeUrl: 42 } as never)).rejects.toThrow(/unsubscribeUrl/);
   });
 
   it('rejects bad data with the field named, before rendering', async () => {

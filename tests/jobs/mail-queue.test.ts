@@ -217,4 +217,34 @@ describe('the mail queue (outbox)', () => {
     expect(fake.messages()).toHaveLength(30);
     expect((await rows()).every((x) => x.state === 'sent')).toBe(true);
   });
+
+  it('keeps at most MAIL_SEND_CONCURRENCY batch calls in flight, reaches that many, and sends each batch once', async () => {
+    // 12 batches of 5; a batch whose worker died (lease run out) is among them and goes out too.
+    for (let n = 300; n < 360; n++) await enqueue(n, { batchKey: `batch/${Math.floor((n - 300) / 5)}` });
+    await database.db.execute(
+      sql`update mail_queue set state = 'sending', attempts = 1, lease_until = now() - interval '1 second' where batch_key = 'batch/7'`,
+    );
+    fake.faults.set({ delayMs: 30 });
+    const resend = new Resend(config.RESEND_API_KEY, { baseUrl: config.RESEND_BASE_URL });
+    const send = resend.batch.send.bind(resend.batch);
+    let inFlight = 0;
+    let most = 0;
+    const keys: string[] = [];
+    resend.batch.send = async (payload, options) => {
+      most = Math.max(most, ++inFlight);
+      keys.push(String(options?.idempotencyKey));
+      try {
+        return await send(payload, options);
+      } finally {
+        inFlight -= 1;
+      }
+    };
+    expect(await sender({ MAIL_SEND_CONCURRENCY: 3 }, resend).drain()).toBe(60);
+    expect(most).toBe(3);
+    expect(keys.sort()).toEqual(Array.from({ length: 12 }, (_, i) => `batch/${i}`).sort());
+    const r = await rows();
+    expect(r.every((x) => x.state === 'sent' && x.leaseUntil === null && x.providerId)).toBe(true);
+    expect(fake.messages()).toHaveLength(60);
+    expect(new Set(fake.messages().map((m) => m.to[0])).size).toBe(60);
+  });
 });

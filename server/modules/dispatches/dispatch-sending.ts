@@ -76,38 +76,33 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         choicesUrl: `${base}/my-support/email`,
       });
       const size = config.DISPATCH_BATCH_SIZE;
-      const keys: string[] = [];
-      const to: string[] = [];
-      const data: string[] = [];
-      const headers: string[] = [];
-      const batch: string[] = [];
-      const account: string[] = [];
-      recipients.forEach((r, i) => {
+      const rows = recipients.map((r, i) => {
         const links = unsubscribeUrls(config, r.accountId);
-        keys.push(mailKeyOf(dispatchId, r.accountId));
-        to.push(r.email);
-        data.push(JSON.stringify({ ...shared, unsubscribeUrl: links.page }));
-        headers.push(JSON.stringify(listUnsubscribeHeaders(links.oneClick)));
-        batch.push(batchKeyOf(dispatchId, Math.floor(i / size)));
-        account.push(r.accountId);
+        return {
+          k: mailKeyOf(dispatchId, r.accountId),
+          t: r.email,
+          d: { ...shared, unsubscribeUrl: links.page },
+          h: listUnsubscribeHeaders(links.oneClick),
+          b: batchKeyOf(dispatchId, Math.floor(i / size)),
+          a: r.accountId,
+        };
       });
       const batchCount = Math.ceil(recipients.length / size);
-      // One parameter per column (a Postgres array), not one per value.
-      const arr = (a: string[], from: number, n: number) => sql.param(a.slice(from, from + n));
       let queued = 0;
       // The queue fills in whole batches, each chunk committed and announced on its own, so the sender starts on
       // the first messages while the rest are still being written. A job that runs again (a retry, or a second
       // worker) finds the rows already there: each message's key is unique, so nothing is queued twice.
       // The first chunk is one batch, so the first call goes out at once; chunks then double up to ~2,000 rows.
       const largest = size * Math.max(1, Math.floor(2000 / size));
-      for (let i = 0, chunk = size; i < keys.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
+      for (let i = 0, chunk = size; i < rows.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
+        // A chunk goes as one JSON parameter (one JSON.stringify here, parsed by Postgres), not as per-column
+        // arrays whose every element the driver would escape one by one.
+        const json = JSON.stringify(rows.slice(i, i + chunk));
         await db.transaction(async (tx) => {
           const r = await tx.execute(sql`
             insert into mail_queue (idempotency_key, template, to_address, data, category, headers, batch_key, account_id)
-            select k, 'dispatch', t, d::jsonb, 'dispatch', h::jsonb, b, a::uuid
-              from unnest(${arr(keys, i, chunk)}::text[], ${arr(to, i, chunk)}::text[], ${arr(data, i, chunk)}::text[],
-                          ${arr(headers, i, chunk)}::text[], ${arr(batch, i, chunk)}::text[], ${arr(account, i, chunk)}::text[])
-                   as x(k, t, d, h, b, a)
+            select k, 'dispatch', t, d, 'dispatch', h, b, a
+              from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;
           await tx.execute(sql`select pg_notify(${MAIL_QUEUE_NOTIFY_CHANNEL}, '')`);

@@ -1,0 +1,2 @@
+CREATE INDEX "mail_queue_batch_due_idx" ON "mail_queue" USING btree ("next_attempt_at") WHERE "mail_queue"."state" = 'queued' and "mail_queue"."batch_key" is not null;--> statement-breakpoint
+CREATE INDEX "mail_queue_single_due_idx" ON "mail_queue" USING btree ("next_attempt_at") WHERE "mail_queue"."state" = 'queued' and "mail_queue"."batch_key" is null;
