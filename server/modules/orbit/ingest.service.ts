@@ -326,7 +326,8 @@ type HeldUpload = { sha: string; prepared: (craft: CraftKey) => Promise<Prepared
  * by upload id. Process memory only, a few at most: the stored text stays what a preview elsewhere, or a retry, reads.
  */
 const heldHere = new Map<string, HeldUpload>();
-const HELD_MAX = 4;
+// Each holds a text and its parsed sets (tens of MB at 100k sets); a worker previews one upload at a time.
+const HELD_MAX = 2;
 
 /** Starts checking an upload's text in turns and keeps it for the preview; resolves when the check is done. */
 function holdUpload(id: string, checked: { craft: CraftKey; text: string; sha: string }): Promise<void> {
