@@ -432,17 +432,18 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
     else await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
     for (let i = 0; overlap[0]?.n && i < total; i += INSERT_BATCH) {
       const chunk = result.prepared.slice(i, i + INSERT_BATCH);
-      const { rows } = await pool.query<{ epoch: string; element_set_no: number }>(
-        `select to_char(e.epoch at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as epoch, e.element_set_no
-           from element_sets e
-           join unnest($3::timestamptz[], $4::int4[]) as k(epoch, no) on e.epoch = k.epoch and e.element_set_no = k.no
+      // Which of the chunk's sets are stored, by their place in the chunk: no key text to build and compare per set.
+      const { rows } = await pool.query<{ i: string }>(
+        `select k.i from element_sets e
+           join unnest($3::timestamptz[], $4::int4[]) with ordinality as k(epoch, no, i) on e.epoch = k.epoch and e.element_set_no = k.no
           where e.spacecraft_id = $1 and e.catalog_number_int = $2`,
         [craft.id, craft.catalogNumberInt, chunk.map((r) => r.epoch), chunk.map((r) => r.elementSetNo)],
       );
-      const have = new Set(rows.map((r) => epochKey(craft.catalogNumberInt, r.epoch, r.element_set_no)));
-      for (const r of chunk) {
-        if (have.has(epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo))) stored++;
-        else fresh.push(r);
+      const have = new Uint8Array(chunk.length);
+      for (const r of rows) have[Number(r.i) - 1] = 1;
+      for (let k = 0; k < chunk.length; k++) {
+        if (have[k]) stored++;
+        else fresh.push(chunk[k]!);
       }
       await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [
         jobId,
