@@ -30,7 +30,7 @@ import { dispatchFanOutQueue } from './dispatch-fan-out';
 import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcile';
 import { passRemindersQueue } from './pass-reminders';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
-import { queueOptions } from './queue';
+import { countWorkerHere, queueOptions } from './queue';
 import { elementSetIngestQueue, elementSetIngestFailedQueue } from './element-set-ingest';
 
 export type { JobContext, JobSender, QueueDefinition, SendOptions } from './queue';
@@ -110,6 +110,8 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
   const log = logger.child({ part: 'jobs' });
   let working = false;
   const loops: Array<{ stop: () => Promise<void> }> = [];
+  /** The queues work() registered workers for here, once per worker (stop() counts them out again). */
+  const countedHere: string[] = [];
 
   const boss = new PgBoss({
     ...bossOptions(config),
@@ -182,6 +184,8 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
           },
         );
         workerIds.set(q.name, [...(workerIds.get(q.name) ?? []), workerId]);
+        countWorkerHere(q.name, 1);
+        countedHere.push(q.name);
       }
       if (q.schedule) await boss.schedule(q.name, q.schedule.cron, q.schema.parse(q.schedule.data) as object, { tz: 'UTC' });
     }
@@ -228,6 +232,7 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
 
   async function stop() {
     const timeout = config.JOBS_SHUTDOWN_TIMEOUT_MS;
+    for (const name of countedHere.splice(0)) countWorkerHere(name, -1);
     await Promise.all(loops.map((l) => l.stop().catch((err: unknown) => log.error({ err }, 'loop stop failed'))));
     // graceful + wait: resolves once the running jobs have finished (or the timeout failed them for a retry).
     await boss.stop({ graceful: true, wait: true, timeout, close: false });

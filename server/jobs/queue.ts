@@ -45,6 +45,21 @@ export function queueOptions(q: Pick<QueueDefinition, 'options'>, config: Config
   return typeof q.options === 'function' ? q.options(config) : q.options;
 }
 
+/** How many running workers of this process work each queue (set by createJobs' work() and stop()). */
+const workedHere = new Map<string, number>();
+
+/** Counts this process's workers of `queue` in (+1) or out (−1). */
+export function countWorkerHere(queue: string, delta: 1 | -1): void {
+  const n = (workedHere.get(queue) ?? 0) + delta;
+  if (n > 0) workedHere.set(queue, n);
+  else workedHere.delete(queue);
+}
+
+/** Whether a worker in this process takes jobs of `queue`: a job sent now may well run here, next to its sender. */
+export function isWorkedHere(queue: string): boolean {
+  return (workedHere.get(queue) ?? 0) > 0;
+}
+
 export function defineQueue<S extends z.ZodType>(q: QueueDefinition<S>): QueueDefinition<S> {
   return q;
 }

@@ -404,3 +404,34 @@ export function parseTleText(text: string, opts: TleParseOptions = {}): { record
   dropPendingName();
   return { records, errors };
 }
+
+/**
+ * Cuts two-/three-line text into pieces of about `chars` characters, each ending right after a line that is a line 2
+ * ("2 …"). parseTleText starts afresh after such a line (no name pending, no line 1 waiting for its line 2), so
+ * parsing the pieces one after another, their line numbers moved on by `lineOffset`, gives what parsing the whole
+ * text gives — in turns a caller can spread over time. A piece may be much longer than `chars` when no line 2 ends
+ * near the cut.
+ */
+export function tleSlices(text: string, chars: number): Array<{ text: string; lineOffset: number }> {
+  const out: Array<{ text: string; lineOffset: number }> = [];
+  let start = 0;
+  let lineOffset = 0;
+  while (start < text.length) {
+    let end = text.length;
+    if (text.length - start > chars) {
+      let lineStart = text.lastIndexOf('\n', start + chars - 1) + 1;
+      if (lineStart < start) lineStart = start;
+      for (let nl = text.indexOf('\n', lineStart); nl >= 0; nl = text.indexOf('\n', lineStart)) {
+        if (isTleLine(clean(text.slice(lineStart, nl)), 50)) {
+          end = nl + 1;
+          break;
+        }
+        lineStart = nl + 1;
+      }
+    }
+    out.push({ text: text.slice(start, end), lineOffset });
+    for (let nl = text.indexOf('\n', start); nl >= 0 && nl < end; nl = text.indexOf('\n', nl + 1)) lineOffset++;
+    start = end;
+  }
+  return out;
+}

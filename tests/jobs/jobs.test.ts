@@ -5,6 +5,7 @@ import { loadConfig } from '../../server/config';
 import { createDb } from '../../server/db/client';
 import { createJobs, defineQueue, type Jobs } from '../../server/jobs';
 import { runHousekeeping } from '../../server/jobs/housekeeping';
+import { isWorkedHere } from '../../server/jobs/queue';
 import { createTestDatabase, type TestDatabase } from '../setup/test-db';
 
 const logger = pino({ level: 'silent' });
@@ -74,6 +75,19 @@ afterAll(async () => {
 });
 
 describe('jobs on pg-boss', () => {
+  it('knows whether a worker of this process takes a queue: from work() until stop(), and not for a web instance', async () => {
+    // Other test files' workers are in other processes (vitest forks), so no queue is worked here yet.
+    expect(isWorkedHere('test-work')).toBe(false);
+    const web = await instance('web-only', false);
+    expect(isWorkedHere('test-work')).toBe(false);
+    const w = await instance('worker-counted', true);
+    expect(isWorkedHere('test-work')).toBe(true);
+    expect(isWorkedHere('some-other-queue')).toBe(false);
+    await w.stop();
+    expect(isWorkedHere('test-work')).toBe(false);
+    await web.stop();
+  });
+
   it('two web instances enqueue and two workers share the work: each job runs exactly once', async () => {
     const webA = await instance('web-a', false);
     const webB = await instance('web-b', false);

@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import type { UploadReply } from '../../../shared/schemas/orbit-replies';
 import { and, eq, getTableColumns } from 'drizzle-orm';
 import type pg from 'pg';
@@ -6,13 +6,14 @@ import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import { from as copyFrom } from 'pg-copy-streams';
 import type { Db } from '../../db/client';
-import type { JobSender } from '../../jobs/queue';
+import { isWorkedHere, type JobSender } from '../../jobs/queue';
 import { withTransaction } from '../../lib/pg-transaction';
 import { recordAudit } from '../audit/audit.repository';
 import { parseElementSets } from '../../../shared/orbit/parse-element-sets';
 import { detectFormat } from '../../../shared/orbit/detect-format';
 import { deriveElementSet } from '../../../shared/orbit/derived';
-import type { ParseError } from '../../../shared/orbit/types';
+import type { ParseError, ParseResult } from '../../../shared/orbit/types';
+import { tleSlices } from '../../../shared/orbit/tle-parse';
 import { binaryCopyChunks, ELEMENT_SET_COPY_COLUMNS, type PreparedSet } from './element-set-copy';
 import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
@@ -100,97 +101,133 @@ function countInvalidRecords(errors: ParseError[], text: string, format: string)
   return count;
 }
 
-export function prepareSets(text: string, craft: { catalogNumberInt: number; catalogNumber: string; name: string }) {
-  const parsed = parseElementSets(text, { maxErrors: Number.MAX_SAFE_INTEGER });
-  const errors: ParseError[] = parsed.errors.slice();
-  const parseInvalid = countInvalidRecords(parsed.errors, text, parsed.format);
+type CraftKey = { catalogNumberInt: number; catalogNumber: string; name: string };
+export type PreparedUpload = ReturnType<ReturnType<typeof setPreparer>['finish']>;
+
+/**
+ * Keeps what parsed pieces of one file hold for `craft`: its sets with their derived orbit (each set once), and every
+ * error in line order with the counts. `add` takes the pieces in file order, their line numbers moved on by
+ * `lineOffset`; `finish` gets the whole text to count the records the errors stand for.
+ */
+function setPreparer(craft: CraftKey) {
+  const errors: ParseError[] = [];
+  const parseErrors: ParseError[] = [];
+  let parsedRecords = 0;
   let ownInvalid = 0;
   // Sets already seen in this file, by epoch (the ms its ISO text holds) → element-set number(s). Every set kept here
-  // has the craft's catalog number (others are refused above), so epoch + number is the stored key; numbers, not
+  // has the craft's catalog number (others are refused below), so epoch + number is the stored key; numbers, not
   // key strings: 100k of those cost more than the rest of this loop.
   const seen = new Map<number, number | Set<number>>();
   const prepared: PreparedSet[] = [];
   let inFileDuplicates = 0;
-  for (const r of parsed.records) {
-    if (r.catalogNumberInt !== craft.catalogNumberInt) {
-      ownInvalid++;
-      // Point at the catalog number itself: an OMM names it on its own line, a named TLE on the line after the name.
-      const tle = parsed.format === 'tle';
-      errors.push({
-        line: r.catalogNumberLine ?? (tle && r.name !== undefined ? r.sourceLine + 1 : r.sourceLine),
-        ...(tle ? { columns: [3, 7] as [number, number] } : {}),
-        field: tle ? 'catalog number' : 'NORAD_CAT_ID',
-        message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`,
-        expected: craft.catalogNumber,
-        object: { catalogNumber: r.catalogNumber, name: r.name ?? null, internationalDesignator: r.internationalDesignator },
-      });
-      continue;
+  const add = (parsed: ParseResult, lineOffset: number) => {
+    if (lineOffset) {
+      for (const e of parsed.errors) e.line += lineOffset;
+      for (const r of parsed.records) {
+        r.sourceLine += lineOffset;
+        if (r.catalogNumberLine !== undefined) r.catalogNumberLine += lineOffset;
+      }
     }
-    const d = deriveElementSet(r);
-    if (!(
-      Number.isFinite(d.semiMajorAxisKm) &&
-      Number.isFinite(d.apogeeAltitudeKm) &&
-      Number.isFinite(d.perigeeAltitudeKm) &&
-      d.perigeeAltitudeKm > -6378
-    )) {
-      ownInvalid++;
-      errors.push({
-        line: r.sourceLine,
-        field: 'mean motion',
-        message: 'the elements give no valid orbit',
-        expected: 'a mean motion and eccentricity of a closed orbit',
-      });
-      continue;
+    parsedRecords += parsed.records.length;
+    for (const e of parsed.errors) {
+      parseErrors.push(e);
+      errors.push(e);
     }
-    const epochMs = Math.round(r.epochMs);
-    const had = seen.get(epochMs);
-    if (had === r.elementSetNo || (typeof had === 'object' && had.has(r.elementSetNo))) {
-      inFileDuplicates++;
-      continue;
+    for (const r of parsed.records) {
+      if (r.catalogNumberInt !== craft.catalogNumberInt) {
+        ownInvalid++;
+        // Point at the catalog number itself: an OMM names it on its own line, a named TLE on the line after the name.
+        const tle = parsed.format === 'tle';
+        errors.push({
+          line: r.catalogNumberLine ?? (tle && r.name !== undefined ? r.sourceLine + 1 : r.sourceLine),
+          ...(tle ? { columns: [3, 7] as [number, number] } : {}),
+          field: tle ? 'catalog number' : 'NORAD_CAT_ID',
+          message: `catalog number ${r.catalogNumber} is not ${craft.name}'s (${craft.catalogNumber})`,
+          expected: craft.catalogNumber,
+          object: { catalogNumber: r.catalogNumber, name: r.name ?? null, internationalDesignator: r.internationalDesignator },
+        });
+        continue;
+      }
+      const d = deriveElementSet(r);
+      if (!(
+        Number.isFinite(d.semiMajorAxisKm) &&
+        Number.isFinite(d.apogeeAltitudeKm) &&
+        Number.isFinite(d.perigeeAltitudeKm) &&
+        d.perigeeAltitudeKm > -6378
+      )) {
+        ownInvalid++;
+        errors.push({
+          line: r.sourceLine,
+          field: 'mean motion',
+          message: 'the elements give no valid orbit',
+          expected: 'a mean motion and eccentricity of a closed orbit',
+        });
+        continue;
+      }
+      const epochMs = Math.round(r.epochMs);
+      const had = seen.get(epochMs);
+      if (had === r.elementSetNo || (typeof had === 'object' && had.has(r.elementSetNo))) {
+        inFileDuplicates++;
+        continue;
+      }
+      if (had === undefined) seen.set(epochMs, r.elementSetNo);
+      else if (typeof had === 'number') seen.set(epochMs, new Set([had, r.elementSetNo]));
+      else had.add(r.elementSetNo);
+      // The parser's own object takes the derived orbit: copying 100k records into new ones costs more (most of it
+      // in garbage collection) than deriving them.
+      const set = r as PreparedSet;
+      set.semiMajorAxisKm = d.semiMajorAxisKm;
+      set.apogeeAltitudeKm = d.apogeeAltitudeKm;
+      set.perigeeAltitudeKm = d.perigeeAltitudeKm;
+      set.meanAltitudeKm = d.meanAltitudeKm;
+      set.periodMin = d.periodMin;
+      set.specificEnergyJPerKg = d.specificEnergyJPerKg;
+      prepared.push(set);
     }
-    if (had === undefined) seen.set(epochMs, r.elementSetNo);
-    else if (typeof had === 'number') seen.set(epochMs, new Set([had, r.elementSetNo]));
-    else had.add(r.elementSetNo);
-    // Field by field: spreading the parser's objects is an order of magnitude slower at 100k sets.
-    prepared.push({
-      catalogNumber: r.catalogNumber,
-      catalogNumberInt: r.catalogNumberInt,
-      classification: r.classification,
-      internationalDesignator: r.internationalDesignator,
-      epoch: r.epoch,
-      epochMs: r.epochMs,
-      meanMotionRevPerDay: r.meanMotionRevPerDay,
-      meanMotionDotRevPerDay2: r.meanMotionDotRevPerDay2,
-      meanMotionDdotRevPerDay3: r.meanMotionDdotRevPerDay3,
-      bstar: r.bstar,
-      inclinationDeg: r.inclinationDeg,
-      raanDeg: r.raanDeg,
-      eccentricity: r.eccentricity,
-      argPerigeeDeg: r.argPerigeeDeg,
-      meanAnomalyDeg: r.meanAnomalyDeg,
-      ephemerisType: r.ephemerisType,
-      elementSetNo: r.elementSetNo,
-      revAtEpoch: r.revAtEpoch,
-      sourceLine: r.sourceLine,
-      line1: r.line1,
-      line2: r.line2,
-      semiMajorAxisKm: d.semiMajorAxisKm,
-      apogeeAltitudeKm: d.apogeeAltitudeKm,
-      perigeeAltitudeKm: d.perigeeAltitudeKm,
-      meanAltitudeKm: d.meanAltitudeKm,
-      periodMin: d.periodMin,
-      specificEnergyJPerKg: d.specificEnergyJPerKg,
-    });
-  }
-  errors.sort((a, b) => a.line - b.line);
-  return {
-    format: parsed.format,
-    prepared,
-    recordCount: parsed.records.length + parseInvalid,
-    invalidCount: parseInvalid + ownInvalid,
-    inFileDuplicates,
-    errors,
   };
+  const finish = (text: string, format: ParseResult['format']) => {
+    const parseInvalid = countInvalidRecords(parseErrors, text, format);
+    errors.sort((a, b) => a.line - b.line);
+    return {
+      format,
+      prepared,
+      recordCount: parsedRecords + parseInvalid,
+      invalidCount: parseInvalid + ownInvalid,
+      inFileDuplicates,
+      errors,
+    };
+  };
+  return { add, finish };
+}
+
+export function prepareSets(text: string, craft: CraftKey) {
+  const parsed = parseElementSets(text, { maxErrors: Number.MAX_SAFE_INTEGER });
+  const p = setPreparer(craft);
+  p.add(parsed, 0);
+  return p.finish(text, parsed.format);
+}
+
+/** Characters of two-/three-line text parsed in one turn of prepareSetsInTurns (about 2,000 sets). */
+const TURN_CHARS = 256 * 1024;
+const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/**
+ * prepareSets in turns: two-/three-line text is parsed a piece at a time (tleSlices), giving the event loop back
+ * between pieces, so I/O under way (the upload row being written) keeps moving while the file is checked. The same
+ * result as prepareSets; other formats are parsed in one turn.
+ */
+export async function prepareSetsInTurns(text: string, craft: CraftKey, chars = TURN_CHARS): Promise<PreparedUpload> {
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  if (detectFormat(body) !== 'tle') {
+    await nextTurn();
+    return prepareSets(text, craft);
+  }
+  const p = setPreparer(craft);
+  for (const piece of tleSlices(text, chars)) {
+    await nextTurn();
+    p.add(parseElementSets(piece.text, { format: 'tle', maxErrors: Number.MAX_SAFE_INTEGER }), piece.lineOffset);
+  }
+  return p.finish(text, 'tle');
 }
 
 const COPY_COLUMN_NAMES = ELEMENT_SET_COPY_COLUMNS.map(([n]) => n).join(', ');
@@ -282,6 +319,34 @@ export type IngestServiceDeps = {
   expireInSeconds?: number;
 };
 
+/** What this process holds of an upload it received, for its preview: the text's digest and the text checked. */
+type HeldUpload = { sha: string; prepared: (craft: CraftKey) => Promise<PreparedUpload | null> };
+/**
+ * Uploads received by this process whose preview will likely run here (a worker of this process takes ingest jobs),
+ * by upload id. Process memory only, a few at most: the stored text stays what a preview elsewhere, or a retry, reads.
+ */
+const heldHere = new Map<string, HeldUpload>();
+// Each holds a text and its parsed sets (tens of MB at 100k sets); a worker previews one upload at a time.
+const HELD_MAX = 2;
+
+/** Starts checking an upload's text in turns and keeps it for the preview; resolves when the check is done. */
+function holdUpload(id: string, checked: { craft: CraftKey; text: string; sha: string }): Promise<void> {
+  const { craft, text, sha } = checked;
+  const sameCraft = (c: CraftKey) =>
+    c.catalogNumberInt === craft.catalogNumberInt && c.catalogNumber === craft.catalogNumber && c.name === craft.name;
+  const done = prepareSetsInTurns(text, craft).then(
+    (r) => r,
+    () => null,
+  );
+  heldHere.set(id, {
+    sha,
+    // The craft may have been edited since the upload: then the held text is checked again for it.
+    prepared: async (c) => ((await done) && sameCraft(c) ? done : prepareSets(text, c)),
+  });
+  while (heldHere.size > HELD_MAX) heldHere.delete(heldHere.keys().next().value!);
+  return done.then(() => undefined);
+}
+
 export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestServiceDeps) {
   // The bulk statements use the pool drizzle was built on.
   const pool = (db as unknown as { $client: pg.Pool }).$client;
@@ -305,6 +370,14 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
   function progressWriter(jobId: string) {
     let chain: Promise<unknown> = Promise.resolve();
     return {
+      /** The import's total (the progress bar's end), ahead of its counts, without waiting for it. */
+      start(total: number) {
+        chain = chain.then(() =>
+          pool
+            .query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total])
+            .catch(() => undefined),
+        );
+      },
       report(n: number) {
         chain = chain.then(() =>
           pool
@@ -324,16 +397,20 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
 
   async function runPreview(jobId: string) {
     const [held] = await db
-      .select({ status: ingestJobs.status, content: ingestJobs.content, spacecraftId: ingestJobs.spacecraftId })
+      .select({ status: ingestJobs.status, spacecraftId: ingestJobs.spacecraftId, contentSha256: ingestJobs.contentSha256 })
       .from(ingestJobs)
       .where(eq(ingestJobs.id, jobId));
+    const early = heldHere.get(jobId);
+    heldHere.delete(jobId);
     // Gone (its craft deleted), or previewed by an earlier attempt: nothing to do.
     if (!held || held.status !== 'parsing') return;
     const craft = await loadCraft(held.spacecraftId);
-    const text = held.content ?? '';
-    const result = prepareSets(text, craft);
+    let result = early && early.sha === held.contentSha256 ? await early.prepared(craft) : null;
+    if (!result) {
+      const [stored] = await db.select({ content: ingestJobs.content }).from(ingestJobs).where(eq(ingestJobs.id, jobId));
+      result = prepareSets(stored?.content ?? '', craft);
+    }
     const total = result.prepared.length;
-    await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
     // Count what the history already holds, in batches so progress moves on large files.
     let stored = 0;
     const fresh: PreparedSet[] = [];
@@ -351,19 +428,22 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
         )
       : { rows: [{ n: 0 }] };
     if (!overlap[0]?.n) for (const r of result.prepared) fresh.push(r);
+    // The lookups below report their progress; without them the preview's last write says it all.
+    else await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [jobId, total]);
     for (let i = 0; overlap[0]?.n && i < total; i += INSERT_BATCH) {
       const chunk = result.prepared.slice(i, i + INSERT_BATCH);
-      const { rows } = await pool.query<{ epoch: string; element_set_no: number }>(
-        `select to_char(e.epoch at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"') as epoch, e.element_set_no
-           from element_sets e
-           join unnest($3::timestamptz[], $4::int4[]) as k(epoch, no) on e.epoch = k.epoch and e.element_set_no = k.no
+      // Which of the chunk's sets are stored, by their place in the chunk: no key text to build and compare per set.
+      const { rows } = await pool.query<{ i: string }>(
+        `select k.i from element_sets e
+           join unnest($3::timestamptz[], $4::int4[]) with ordinality as k(epoch, no, i) on e.epoch = k.epoch and e.element_set_no = k.no
           where e.spacecraft_id = $1 and e.catalog_number_int = $2`,
         [craft.id, craft.catalogNumberInt, chunk.map((r) => r.epoch), chunk.map((r) => r.elementSetNo)],
       );
-      const have = new Set(rows.map((r) => epochKey(craft.catalogNumberInt, r.epoch, r.element_set_no)));
-      for (const r of chunk) {
-        if (have.has(epochKey(r.catalogNumberInt, r.epoch, r.elementSetNo))) stored++;
-        else fresh.push(r);
+      const have = new Uint8Array(chunk.length);
+      for (const r of rows) have[Number(r.i) - 1] = 1;
+      for (let k = 0; k < chunk.length; k++) {
+        if (have[k]) stored++;
+        else fresh.push(chunk[k]!);
       }
       await pool.query('update orbit_ingest_jobs set processed = $2, updated_at = now() where id = $1', [
         jobId,
@@ -468,7 +548,7 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
         );
         fileId = ex[0]!.id;
       }
-      await pool.query('update orbit_ingest_jobs set total = $2, processed = 0, updated_at = now() where id = $1', [job.id, rows.length]);
+      progressRows.start(rows.length);
       const progress = (n: number) => progressRows.report(n);
       // The outlier screen of the touched bins runs in turns while the COPY streams (the database does most of
       // that work), so the rows go in once, unflagged, and only the few outliers are marked after.
@@ -573,11 +653,17 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
     return jobView(row, existing);
   }
 
-  /** Writes the upload row, holding the text, in the caller's transaction: the row is what the worker reads. */
-  async function insertUpload(tx: Db, input: UploadInput) {
+  /** The upload's craft, its text (refused unless element sets in UTF-8) and the digest of its bytes. */
+  async function checkUpload(input: UploadInput) {
     const craft = await loadCraft(input.spacecraftId);
     const { text, format } = decodeUpload(input.bytes);
     const sha = createHash('sha256').update(input.bytes).digest('hex');
+    return { craft, text, format, sha };
+  }
+
+  /** Writes the upload row, holding the text, in the caller's transaction: the row is what the worker reads. */
+  async function insertUpload(tx: Db, input: UploadInput, checked: Awaited<ReturnType<typeof checkUpload>>, id?: string) {
+    const { craft, text, format, sha } = checked;
     const [existing] = await tx
       .select({ id: elementSetFiles.id })
       .from(elementSetFiles)
@@ -585,6 +671,7 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
     const [row] = await tx
       .insert(ingestJobs)
       .values({
+        ...(id ? { id } : {}),
         spacecraftId: craft.id,
         createdBy: input.accountId,
         status: 'parsing',
@@ -606,13 +693,25 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
      */
     async startUpload(input: UploadInput): Promise<JobView> {
       if (!jobs) throw ingestUnavailable();
-      const row = await withTransaction(pool, async (tx, executor) => {
-        const row = await insertUpload(tx, input);
-        const step: IngestStep = { uploadId: row.id, step: 'preview', accountId: input.accountId };
-        await jobs.send(ELEMENT_SET_INGEST_QUEUE, step, { db: executor, ...sendOptions() });
-        return row;
-      });
-      return view(row);
+      const checked = await checkUpload(input);
+      const id = randomUUID();
+      // When this process's own worker will preview the upload, the text is checked here while its row is written
+      // (the database does that work), and both are handed to the preview: it then neither reads the text back nor
+      // parses it again. Elsewhere (or on a retry) the preview reads the stored text.
+      const early = isWorkedHere(ELEMENT_SET_INGEST_QUEUE) ? holdUpload(id, checked) : null;
+      try {
+        const row = await withTransaction(pool, async (tx, executor) => {
+          const row = await insertUpload(tx, input, checked, id);
+          const step: IngestStep = { uploadId: row.id, step: 'preview', accountId: input.accountId };
+          await jobs.send(ELEMENT_SET_INGEST_QUEUE, step, { db: executor, ...sendOptions() });
+          return row;
+        });
+        await early;
+        return view(row);
+      } catch (err) {
+        heldHere.delete(id);
+        throw err;
+      }
     },
 
     async getJob(jobId: string): Promise<JobView> {
@@ -693,7 +792,8 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
 
     /** Upload, preview and import in this process, one after the other — the demo seed and scripts (no queue). */
     async ingestText(input: { spacecraftId: string; accountId: string | null; filename: string; text: string }) {
-      const row = await insertUpload(db, { ...input, bytes: Buffer.from(input.text, 'utf8') });
+      const bytes = Buffer.from(input.text, 'utf8');
+      const row = await insertUpload(db, { ...input, bytes }, await checkUpload({ ...input, bytes }));
       await runPreview(row.id);
       const [previewed] = await db
         .update(ingestJobs)
