@@ -3,6 +3,8 @@
 import { pipeline } from 'node:stream/promises';
 import { Readable } from 'node:stream';
 import pg from 'pg';
+import type { ChildProcess } from 'node:child_process';
+import { spawnWorkerProcess } from '../setup/worker-process';
 import pino from 'pino';
 import request from 'supertest';
 import { from as copyFrom } from 'pg-copy-streams';
@@ -50,12 +52,15 @@ async function freshDatabase(ctx: BenchContext) {
   const { name, url } = await createBenchDatabase(ctx, 'bench_orbit');
   const { db, pool } = createDb(url);
   const jobs: Jobs[] = [];
+  const workers: ChildProcess[] = [];
   return {
     db,
     pool,
     url,
     jobs,
+    workers,
     drop: async () => {
+      for (const w of workers) w.kill('SIGKILL');
       for (const j of jobs) await j.stop();
       await pool.end();
       const c = new pg.Client({ connectionString: ctx.pgAdminUrl });
@@ -75,19 +80,18 @@ async function appOn(d: Awaited<ReturnType<typeof freshDatabase>>) {
     UPLOAD_LIMIT_BYTES: String(64 * 1024 * 1024),
     SIGN_IN_LIMIT_PER_IP: '1000',
   });
-  // Uploads are previewed and imported by a worker (as npm start runs them); this one works in the same process.
+  // Uploads are previewed and imported by a worker in a process of its own, as npm start runs it (server/worker.ts);
+  // the web process only enqueues.
   const jobs = createJobs({
     pool: d.pool,
     db: d.db,
     config,
     logger: pino({ level: 'silent' }),
     queues: [elementSetIngestQueue as QueueDefinition, elementSetIngestFailedQueue as QueueDefinition],
-    worker: true,
-    mailSender: false,
   });
   await jobs.start();
-  await jobs.work();
   d.jobs.push(jobs);
+  d.workers.push(await spawnWorkerProcess(config, { UPLOAD_LIMIT_BYTES: config.UPLOAD_LIMIT_BYTES.toString() }));
   const app = createApp({
     db: d.db,
     pool: d.pool,
