@@ -96,7 +96,7 @@ export default defineConfig({
                     [
                       'src/lib/(api-client|cn|document-title|roles|return-to|query-client|when-near)',
                       'src/components/ui/(button|spinner|theme-toggle)',
-                      'src/app/(router|route-tree|provider|ssr-data|layouts/(public-layout|root-layout|site-header|account-links|site-footer|skip-link|wordmark|use-dismiss))',
+                      'src/app/(router|route-tree|provider|ssr-data|layouts/(public-layout|root-layout|site-header|account-links|site-footer|skip-link|wordmark|use-disclosure))',
                       'src/app/(routes/(not-found|route-error|home)|site-map/public-pages)',
                       'src/features/auth/api/get-me',
                       'shared/roles',

@@ -1,11 +1,10 @@
-import { useCallback, useId, useRef, useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import type { AccountView } from '@shared/schemas/auth';
 import { buttonClasses } from '@/components/ui/button';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { cn } from '@/lib/cn';
 import { accountLinks } from './account-links';
-import { useDismiss } from './use-dismiss';
+import { useDisclosure } from './use-disclosure';
 
 function initials(name: string): string {
   return name
@@ -25,12 +24,7 @@ function useSignOutHome() {
 /** The header's account menu (wider screens). */
 export function AccountMenu({ account }: { account: AccountView }) {
   const signOut = useSignOutHome();
-  const [open, setOpen] = useState(false);
-  const menuId = useId();
-  const container = useRef<HTMLDivElement>(null);
-  const button = useRef<HTMLButtonElement>(null);
-  const close = useCallback(() => setOpen(false), []);
-  useDismiss(open, close, container, button);
+  const { open, id: menuId, container, button, close, toggle } = useDisclosure();
 
   return (
     <div ref={container} className="relative">
@@ -39,7 +33,7 @@ export function AccountMenu({ account }: { account: AccountView }) {
         type="button"
         aria-expanded={open}
         aria-controls={menuId}
-        onClick={() => setOpen((v) => !v)}
+        onClick={toggle}
         className="inline-flex min-h-10 items-center gap-2 rounded-lg border border-foil-700 px-2 pr-3 text-sm font-semibold text-foil-100 hover:border-foil-400"
       >
         <span

@@ -1,4 +1,4 @@
-import { lazy, Suspense, useCallback, useEffect, useId, useRef, useState } from 'react';
+import { lazy, Suspense, useEffect } from 'react';
 import { Link, NavLink, useLocation } from 'react-router-dom';
 import { buttonClasses } from '@/components/ui/button';
 import { ThemeToggle } from '@/components/ui/theme-toggle';
@@ -6,7 +6,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { cn } from '@/lib/cn';
 import { publicPages } from '../site-map/public-pages';
 import { accountLinks, type HeaderLink } from './account-links';
-import { useDismiss } from './use-dismiss';
+import { useDisclosure } from './use-disclosure';
 import { Wordmark } from './wordmark';
 
 // The account menu and sign-out are for signed-in visitors only: their code loads once the session is known to
@@ -29,14 +29,10 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
   const me = useMe();
   const account = me.data ?? null;
   const location = useLocation();
-  const [mobileOpen, setMobileOpen] = useState(false);
-  const mobileId = useId();
-  const container = useRef<HTMLDivElement>(null);
-  const button = useRef<HTMLButtonElement>(null);
-  const closeMobile = useCallback(() => setMobileOpen(false), []);
-  useDismiss(mobileOpen, closeMobile, container, button);
+  const mobile = useDisclosure();
+  const { container, button, close: closeMobile } = mobile;
 
-  useEffect(() => setMobileOpen(false), [location.pathname]);
+  useEffect(() => closeMobile(), [location.pathname, closeMobile]);
 
   const returnTo = location.pathname.startsWith('/sign-') ? undefined : location.pathname + location.search;
   const signInTo = returnTo && returnTo !== '/' ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in';
@@ -82,13 +78,13 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
         <button
           ref={button}
           type="button"
-          aria-expanded={mobileOpen}
-          aria-controls={mobileId}
-          onClick={() => setMobileOpen((v) => !v)}
+          aria-expanded={mobile.open}
+          aria-controls={mobile.id}
+          onClick={mobile.toggle}
           className="inline-flex min-h-10 items-center gap-2 rounded-lg border border-foil-700 px-3 text-sm font-semibold text-foil-100 sm:hidden"
         >
           <svg aria-hidden="true" viewBox="0 0 20 20" className="size-5">
-            {mobileOpen ? (
+            {mobile.open ? (
               <path d="M5 5 L15 15 M15 5 L5 15" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
             ) : (
               <path d="M3 6 H17 M3 10 H17 M3 14 H17" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
@@ -98,8 +94,8 @@ export function SiteHeader({ areaLabel, wide = false }: { areaLabel?: string; wi
         </button>
 
         <div
-          id={mobileId}
-          hidden={!mobileOpen}
+          id={mobile.id}
+          hidden={!mobile.open}
           className="absolute inset-x-0 top-16 border-b border-foil-800 bg-night-950 px-4 pb-4 pt-2 shadow-2xl sm:hidden"
         >
           <nav aria-label="Site (menu)">
