@@ -91,6 +91,27 @@ function bossDb(pool: pg.Pool): PgBoss.Db {
   return { executeSql: (text, values) => pool.query(text, values) };
 }
 
+/**
+ * bossDb that also keeps the queries still running: pg-boss's stop() does not wait for a claim still on its way
+ * (its job is handed to the handler afterwards), nor for the completion it sends without awaiting. stop() below
+ * waits for both, so the pool can end right after it.
+ */
+function trackedBossDb(pool: pg.Pool) {
+  const running = new Set<Promise<unknown>>();
+  const db: PgBoss.Db = {
+    executeSql: (text, values) => {
+      const query = pool.query(text, values);
+      running.add(query);
+      query.then(
+        () => running.delete(query),
+        () => running.delete(query),
+      );
+      return query;
+    },
+  };
+  return { db, running };
+}
+
 export function bossOptions(config: Config): PgBoss.ConstructorOptions {
   return {
     schema: JOBS_SCHEMA,
@@ -113,9 +134,10 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
   /** The queues work() registered workers for here, once per worker (stop() counts them out again). */
   const countedHere: string[] = [];
 
+  const bossSql = trackedBossDb(pool);
   const boss = new PgBoss({
     ...bossOptions(config),
-    db: bossDb(pool),
+    db: bossSql.db,
     // Web processes only send: the supervisor (expiry, retention) and the cron clock run in workers.
     supervise: opts.worker === true,
     schedule: opts.worker === true,
@@ -232,14 +254,25 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
 
   async function stop() {
     const timeout = config.JOBS_SHUTDOWN_TIMEOUT_MS;
+    const until = Date.now() + timeout;
     for (const name of countedHere.splice(0)) countWorkerHere(name, -1);
     await Promise.all(loops.map((l) => l.stop().catch((err: unknown) => log.error({ err }, 'loop stop failed'))));
     // graceful + wait: resolves once the running jobs have finished (or the timeout failed them for a retry).
     await boss.stop({ graceful: true, wait: true, timeout, close: false });
-    // Our own count of running handlers, in case the queue library resolves before they end (bounded as above).
-    if (inFlight.size > 0) {
+    // pg-boss resolves once no worker holds a job, but a claim still on its way hands its job to a handler later,
+    // and completions are sent without being awaited: wait, bounded as above, until no pg-boss query and no
+    // handler of ours is left. A turn of the event loop between checks lets a returned claim reach its handler.
+    for (;;) {
+      await new Promise((resolve) => setImmediate(resolve));
+      const pending = [...bossSql.running, ...inFlight];
+      const left = until - Date.now();
+      if (pending.length === 0) break;
+      if (left <= 0) {
+        log.warn({ pending: pending.length }, 'jobs still running at the shutdown timeout');
+        break;
+      }
       let timer: ReturnType<typeof setTimeout> | undefined;
-      await Promise.race([Promise.allSettled([...inFlight]), new Promise((resolve) => (timer = setTimeout(resolve, timeout)))]);
+      await Promise.race([Promise.allSettled(pending), new Promise((resolve) => (timer = setTimeout(resolve, left)))]);
       clearTimeout(timer);
     }
   }

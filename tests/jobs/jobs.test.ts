@@ -146,6 +146,48 @@ describe('jobs on pg-boss', () => {
     expect((await runs()).find((r) => r.n === 2000)?.c).toBe(1);
   });
 
+  it('stopping a worker whose fetch is still on its way waits for that job and its completion before the pool may end', async () => {
+    // pg-boss's stop() only waits for jobs a worker already holds: a fetch still travelling when stop() is called
+    // returns its job afterwards, and pg-boss marks jobs done without awaiting the query. Ending the pool then
+    // made the handler and the completion fail on an ended pool (an unhandled rejection in CI). The fetch is held
+    // back here by a pool that delays pg-boss's claiming query, so the race is certain, not lucky.
+    for (const j of started.splice(0)) await j.stop();
+    const web = await instance('web-f', false);
+    await web.send('test-work', { n: 3000, ms: 200 });
+    const { db, pool } = createDb(database.url, { max: 4 });
+    let claimOnItsWay: () => void = () => undefined;
+    const claimStarted = new Promise<void>((resolve) => (claimOnItsWay = resolve));
+    const slowClaims = new Proxy(pool, {
+      get(target, prop, receiver) {
+        if (prop !== 'query') return Reflect.get(target, prop, receiver) as unknown;
+        return (text: unknown, values?: unknown[]) => {
+          if (typeof text === 'string' && /skip locked/i.test(text)) {
+            claimOnItsWay();
+            return new Promise((r) => setTimeout(r, 1000)).then(() => target.query(text, values));
+          }
+          return target.query(text as string, values);
+        };
+      },
+    });
+    const w = createJobs({
+      pool: slowClaims,
+      db,
+      config: configFor(database.url),
+      logger,
+      queues: [work],
+      worker: true,
+      mailSender: false,
+    });
+    await w.start();
+    await w.work();
+    await claimStarted;
+    await w.stop();
+    const { rows } = await database.pool.query<{ state: string }>("select state from pgboss.job where data->>'n' = '3000'");
+    expect(rows.map((r) => r.state)).toEqual(['completed']);
+    expect((await runs()).find((r) => r.n === 3000)?.c).toBe(1);
+    await pool.end();
+  });
+
   it('housekeeping deletes expired tokens and rate-limit rows, and keeps live ones', async () => {
     const config = configFor(database.url);
     const p = database.pool;
