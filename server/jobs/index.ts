@@ -30,6 +30,7 @@ import { dispatchFanOutQueue } from './dispatch-fan-out';
 import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcile';
 import { passRemindersQueue } from './pass-reminders';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
+import { createPgListener } from '../lib/pg-listen';
 import { countWorkerHere, queueOptions } from './queue';
 import { elementSetIngestQueue, elementSetIngestFailedQueue } from './element-set-ingest';
 
@@ -211,8 +212,15 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
       }
       if (q.schedule) await boss.schedule(q.name, q.schedule.cron, q.schema.parse(q.schedule.data) as object, { tz: 'UTC' });
     }
-    const wake = createWakeListener(pool, log, (queue) => {
-      for (const id of workerIds.get(queue) ?? []) boss.notifyWorker(id);
+    // Idle workers of a queue fetch as soon as a job is sent to it; polling stays the fallback.
+    const wake = createPgListener({
+      pool,
+      channel: WAKE_CHANNEL,
+      log,
+      what: 'job wake-up listener (workers poll meanwhile)',
+      onMessage: (queue) => {
+        for (const id of workerIds.get(queue) ?? []) boss.notifyWorker(id);
+      },
     });
     await wake.start();
     loops.push(wake);
@@ -280,34 +288,3 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
   return { boss, send: sender.send, start, work, stop, runPending, addLoop: (l) => void loops.push(l) };
 }
 
-/** LISTENs on WAKE_CHANNEL on a connection of its own (outside the pool), reconnecting after a drop. */
-function createWakeListener(pool: pg.Pool, log: Logger, onWake: (queue: string) => void) {
-  let client: pg.Client | null = null;
-  let stopping = false;
-  let retry: ReturnType<typeof setTimeout> | undefined;
-  async function connect() {
-    const c = new pg.Client(pool.options);
-    c.on('notification', (m) => {
-      if (m.channel === WAKE_CHANNEL && m.payload) onWake(m.payload);
-    });
-    c.on('error', (err) => {
-      log.warn({ err }, 'job wake-up listener lost its connection; polling until it is back');
-      void c.end().catch(() => undefined);
-      if (client === c) client = null;
-      // unref: a retry alone never keeps a process alive (a worker left running when its database went away).
-      if (!stopping) retry = setTimeout(() => void connect().catch(() => undefined), 5000).unref();
-    });
-    await c.connect();
-    await c.query(`listen ${WAKE_CHANNEL}`);
-    client = c;
-  }
-  return {
-    start: () => connect().catch((err: unknown) => log.warn({ err }, 'job wake-up listener did not start; workers poll')),
-    async stop() {
-      stopping = true;
-      clearTimeout(retry);
-      await client?.end().catch(() => undefined);
-      client = null;
-    },
-  };
-}

@@ -59,6 +59,8 @@ export const uploadReplySchema = z.strictObject({
   message: z.string().nullable(),
   createdAt: isoTimestamp,
   updatedAt: isoTimestamp,
+  /** Changes whenever the upload does: a status request with `after` set to it waits for the next change. */
+  version: z.string(),
 });
 export type UploadReply = z.infer<typeof uploadReplySchema>;
 

@@ -63,6 +63,14 @@ export const uploadFieldsSchema = z.object({
   text: safeText({ multiline: true }).optional(),
   filename: safeText().trim().max(255, { message: 'Keep the file name to 255 characters' }).optional(),
 });
+/**
+ * A status request for an upload: with `after` (the `version` the client holds) the answer waits, up to `wait`
+ * seconds, until the upload is no longer that version; without it the answer comes at once.
+ */
+export const uploadStatusQuerySchema = z.object({
+  after: safeText().max(100, { message: 'must be the version an earlier answer gave' }).optional(),
+  wait: z.coerce.number().int().min(1).max(25).default(25),
+});
 /** The uploaded file's own name, as the browser sent it. */
 export const uploadFileSchema = z.object({ name: safeText().max(255, { message: 'Keep the file name to 255 characters' }) }).optional();
 

@@ -262,6 +262,58 @@ describe('element-set uploads on the job system', () => {
     }
   }, 400_000);
 
+  it('a status request holding the current version waits for the next change, then answers with it', async () => {
+    const res = await upload(engineer, craftId, fileOf(50, 800), 'held.tle');
+    expect(res.status, JSON.stringify(res.body)).toBe(202);
+    const first = res.body.upload as UploadBody & { version: string };
+    expect(first.status).toBe('parsing');
+    // No worker yet: asked with the version it holds, the request is held rather than answered with the same thing.
+    const asked = Date.now();
+    let answeredAt = 0;
+    const held = engineer
+      .get(`/api/orbit/uploads/${first.id}`)
+      .query({ after: first.version, wait: 20 })
+      .then((r) => ((answeredAt = Date.now()), r));
+    await new Promise((r) => setTimeout(r, 800));
+    expect(answeredAt).toBe(0);
+    // The preview lands (a worker starts now): the held request answers with it, long before its 20 s.
+    const started = Date.now();
+    await worker();
+    const answer = await held;
+    expect(answer.status).toBe(200);
+    expect(answer.body.upload).toMatchObject({ id: first.id, status: 'previewed', counts: { new: 50 } });
+    expect(answer.body.upload.version).not.toBe(first.version);
+    expect(answeredAt - started).toBeLessThan(15_000);
+    expect(answeredAt - asked).toBeGreaterThanOrEqual(800);
+    // Done working, or holding an older version: the answer comes at once.
+    const previewed = answer.body.upload as { version: string };
+    const t0 = Date.now();
+    const again = await engineer.get(`/api/orbit/uploads/${first.id}`).query({ after: previewed.version }).expect(200);
+    const stale = await engineer.get(`/api/orbit/uploads/${first.id}`).query({ after: first.version }).expect(200);
+    expect(Date.now() - t0).toBeLessThan(5_000);
+    expect([again.body.upload.status, stale.body.upload.status]).toEqual(['previewed', 'previewed']);
+  }, 120_000);
+
+  it('a held status request answers after its wait with the upload unchanged when nothing happened', async () => {
+    const res = await upload(engineer, craftId, fileOf(3, 900), 'unchanged.tle');
+    expect(res.status).toBe(202);
+    const t0 = Date.now();
+    const same = await engineer.get(`/api/orbit/uploads/${res.body.upload.id}`).query({ after: res.body.upload.version, wait: 1 });
+    expect(same.status).toBe(200);
+    expect(Date.now() - t0).toBeGreaterThanOrEqual(950);
+    expect(same.body.upload).toMatchObject({ status: 'parsing', version: res.body.upload.version });
+  });
+
+  it('refuses a status request whose wait or version is not one it can use, naming the field', async () => {
+    const id = '00000000-0000-4000-8000-0000000000ab';
+    const tooLong = await engineer.get(`/api/orbit/uploads/${id}`).query({ after: 'x'.repeat(101) });
+    expect(tooLong.status).toBe(400);
+    expect(JSON.stringify(tooLong.body)).toContain('after');
+    const noWait = await engineer.get(`/api/orbit/uploads/${id}`).query({ after: '1.parsing.0', wait: 0 });
+    expect(noWait.status).toBe(400);
+    expect(JSON.stringify(noWait.body)).toContain('wait');
+  });
+
   it('answers 503 from a web process started without the job system, storing nothing', async () => {
     const bare = createApp({
       db: t.database.db,

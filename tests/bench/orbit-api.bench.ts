@@ -130,11 +130,13 @@ async function createCraft(agent: request.Agent, csrf: string, catalog: number) 
   return res.body.spacecraft.id as string;
 }
 
-async function settle(agent: request.Agent, jobId: string) {
+/** Follows the upload as the orbit desk does: each status request holds the version seen and is answered on a change. */
+async function settle(agent: request.Agent, jobId: string, seen: string) {
+  let version = seen;
   for (let i = 0; i < 20_000; i++) {
-    const job = (await agent.get(`/api/orbit/uploads/${jobId}`).expect(200)).body.upload;
+    const job = (await agent.get(`/api/orbit/uploads/${jobId}`).query({ after: version }).expect(200)).body.upload;
     if (job.status !== 'parsing' && job.status !== 'importing') return job;
-    await new Promise((r) => setTimeout(r, 5));
+    version = job.version;
   }
   throw new Error('upload did not settle');
 }
@@ -222,10 +224,10 @@ async function importThroughApi(agent: request.Agent, csrf: string, craftId: str
     .set('x-csrf-token', csrf)
     .attach('file', Buffer.from(text), 'bench.tle')
     .expect(202);
-  const preview = await settle(agent, started.body.upload.id);
+  const preview = await settle(agent, started.body.upload.id, started.body.upload.version);
   if (preview.counts.new !== expectNew) throw new Error(`preview found ${preview.counts.new} new sets, expected ${expectNew}`);
-  await agent.post(`/api/orbit/uploads/${preview.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
-  const done = await settle(agent, preview.id);
+  const importing = await agent.post(`/api/orbit/uploads/${preview.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
+  const done = await settle(agent, preview.id, importing.body.upload.version);
   const ms = performance.now() - t0;
   if (done.importedCount !== expectNew) throw new Error(`imported ${done.importedCount}, expected ${expectNew}`);
   return ms;
@@ -251,7 +253,7 @@ const ingest: Benchmark = {
   better: 'lower',
   async run(ctx) {
     const N = 100_000;
-    const REPS = 3;
+    const REPS = Number(process.env.BENCH_REPS ?? 3);
     const fresh = { ours: [] as number[], bare: [] as number[] },
       overlap = { ours: [] as number[], bare: [] as number[] };
     for (let rep = 0; rep < REPS; rep++) {
@@ -410,9 +412,13 @@ const trend: Benchmark = {
         .set('x-csrf-token', csrf)
         .attach('file', Buffer.from(fileOf(sets(N, 91000))), 'bench.tle')
         .expect(202);
-      await settle(agent, started.body.upload.id);
-      await agent.post(`/api/orbit/uploads/${started.body.upload.id}/import`).set('x-csrf-token', csrf).send({}).expect(202);
-      const done = await settle(agent, started.body.upload.id);
+      await settle(agent, started.body.upload.id, started.body.upload.version);
+      const importing = await agent
+        .post(`/api/orbit/uploads/${started.body.upload.id}/import`)
+        .set('x-csrf-token', csrf)
+        .send({})
+        .expect(202);
+      const done = await settle(agent, started.body.upload.id, importing.body.upload.version);
       if (done.importedCount !== N) throw new Error(`imported ${done.importedCount}`);
       const ours: number[] = [],
         cached: number[] = [],

@@ -17,6 +17,7 @@ import { tleSlices } from '../../../shared/orbit/tle-parse';
 import { binaryCopyChunks, ELEMENT_SET_COPY_COLUMNS, type PreparedSet } from './element-set-copy';
 import { binOf, flagOutliers, flagOutliersInTurns, OUTLIER_BIN_MS, type OutlierInput } from './outliers';
 import { elementSetFiles, ingestJobs, spacecraft } from './orbit.tables';
+import { createUploadWatch } from './upload-watch';
 import {
   emptyUpload,
   ingestUnavailable,
@@ -31,7 +32,7 @@ type JobRow = Omit<typeof ingestJobs.$inferSelect, 'content'>;
 
 // Every job column but the held file text: polling must not pull megabytes on each request.
 const { content: _content, ...jobColumns } = getTableColumns(ingestJobs);
-type Logger = { error: (obj: unknown, msg?: string) => void };
+type Logger = { error: (obj: unknown, msg?: string) => void; warn?: (obj: unknown, msg?: string) => void };
 
 /** The queue whose worker previews and imports uploads, and the dead-letter queue that marks an upload failed. */
 export const ELEMENT_SET_INGEST_QUEUE = 'element-set-ingest';
@@ -306,8 +307,15 @@ export function jobView(row: JobRow, existingFile?: { id: string; filename: stri
     message: row.message,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
+    version: uploadVersion(row),
   };
 }
+
+/** What a status request compares: any write moves updated_at, and status or progress tell apart writes in one ms. */
+function uploadVersion(row: Pick<JobRow, 'updatedAt' | 'status' | 'processed'>) {
+  return `${row.updatedAt.getTime()}.${row.status}.${row.processed}`;
+}
+const stillWorking = (status: string) => status === 'parsing' || status === 'importing';
 export type JobView = ReturnType<typeof jobView>;
 
 export type IngestServiceDeps = {
@@ -347,9 +355,10 @@ function holdUpload(id: string, checked: { craft: CraftKey; text: string; sha: s
   return done.then(() => undefined);
 }
 
-export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestServiceDeps) {
+export function createIngestService({ db, jobs, logger, expireInSeconds = 900 }: IngestServiceDeps) {
   // The bulk statements use the pool drizzle was built on.
   const pool = (db as unknown as { $client: pg.Pool }).$client;
+  const uploadWatch = createUploadWatch(pool, { warn: (obj: unknown, msg?: string) => logger?.warn?.(obj, msg) });
   // What a preview prepared, for the import that usually follows on the same worker (a retry or another worker re-parses).
   const parsedCache = new Map<string, PreparedSet[]>();
 
@@ -714,8 +723,22 @@ export function createIngestService({ db, jobs, expireInSeconds = 900 }: IngestS
       }
     },
 
-    async getJob(jobId: string): Promise<JobView> {
-      return view(await getRow(jobId));
+    /**
+     * The upload as it is now; with `after` (a version the caller holds) and the upload still being worked on, the
+     * answer waits until it changes (or `waitMs` passes, or `signal` aborts): the status page gets each change as it
+     * lands, without asking over and over.
+     */
+    async getJob(jobId: string, opts: { after?: string; waitMs?: number; signal?: AbortSignal } = {}): Promise<JobView> {
+      if (opts.after === undefined) return view(await getRow(jobId));
+      const watching = await uploadWatch.watch(jobId, opts.waitMs ?? 25_000, opts.signal);
+      try {
+        const row = await getRow(jobId);
+        if (uploadVersion(row) !== opts.after || !stillWorking(row.status)) return view(row);
+        await watching.changed;
+        return view(await getRow(jobId));
+      } finally {
+        watching.done();
+      }
     },
 
     /** Enqueues the import of a previewed upload (the worker stores every new set in one transaction, or none). */

@@ -19,6 +19,7 @@ import {
   updateSnapshotSchema,
   uploadFieldsSchema,
   uploadFileSchema,
+  uploadStatusQuerySchema,
 } from '../../../shared/schemas/orbit';
 import type { SnapshotData } from '../../../shared/charts/snapshot-chart';
 import type { OrbitReply } from '../../../shared/schemas/orbit-replies';
@@ -178,8 +179,11 @@ export function createOrbitRouter({ db, config, module }: { db: Db; config: Conf
   router.get(
     '/uploads/:jobId',
     engineers,
-    validated({ params: jobParams }, async (_req, res, { params }) => {
-      res.json({ upload: await ingest.getJob(params.jobId) });
+    validated({ params: jobParams, query: uploadStatusQuerySchema }, async (_req, res, { params, query }) => {
+      // A held request lets go when its client does.
+      const gone = new AbortController();
+      res.on('close', () => gone.abort());
+      res.json({ upload: await ingest.getJob(params.jobId, { after: query.after, waitMs: query.wait * 1000, signal: gone.signal }) });
     }),
   );
   router.post(

@@ -1,21 +1,25 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { api, withQuery } from '@/lib/api-client';
 import type { Upload } from '../types';
 import { orbitKeys } from './keys';
 
-export function getUpload({ jobId, signal }: { jobId: string; signal?: AbortSignal }) {
-  return api.get<{ upload: Upload }>(`/api/orbit/uploads/${encodeURIComponent(jobId)}`, { signal });
+const stillWorking = (status: Upload['status'] | undefined) => status === 'parsing' || status === 'importing';
+
+/** `after`: the version the page shows; the server then answers when the upload has moved on (or after ~25 s). */
+export function getUpload({ jobId, after, signal }: { jobId: string; after?: string; signal?: AbortSignal }) {
+  return api.get<{ upload: Upload }>(withQuery(`/api/orbit/uploads/${encodeURIComponent(jobId)}`, { after }), { signal });
 }
 
-/** Polls while the server is still parsing or importing. */
+/** Follows the upload while the server parses or imports it: each answer arrives when something changed. */
 export function getUploadQueryOptions(jobId: string) {
   return queryOptions({
     queryKey: orbitKeys.upload(jobId),
-    queryFn: ({ signal }) => getUpload({ jobId, signal }),
-    refetchInterval: (query) => {
-      const status = query.state.data?.upload.status;
-      return status === 'parsing' || status === 'importing' ? 300 : false;
+    queryFn: ({ signal, client, queryKey }) => {
+      const shown = client.getQueryData<{ upload: Upload }>(queryKey)?.upload;
+      return getUpload({ jobId, after: stillWorking(shown?.status) ? shown?.version : undefined, signal });
     },
+    // The request itself waits for the next change, so the next one can be asked for almost at once.
+    refetchInterval: (query) => (stillWorking(query.state.data?.upload.status) ? 50 : false),
   });
 }
 
