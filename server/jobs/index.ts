@@ -287,4 +287,3 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
 
   return { boss, send: sender.send, start, work, stop, runPending, addLoop: (l) => void loops.push(l) };
 }
-
