@@ -56,6 +56,9 @@ export const queues: QueueDefinition[] = [
  */
 export const WAKE_CHANNEL = 'lightkeel_jobs';
 
+/** The advisory lock under which one process at a time creates or updates the queues. */
+const QUEUE_SETUP_LOCK = 'lightkeel:job-queue-setup';
+
 /** pg-boss's own schema; its tables live beside ours in the same database. */
 export const JOBS_SCHEMA = 'pgboss';
 
@@ -164,11 +167,23 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     const ordered = [...list].sort(
       (a, b) => Number(Boolean(queueOptions(a, config)?.deadLetter)) - Number(Boolean(queueOptions(b, config)?.deadLetter)),
     );
-    for (const q of ordered) {
-      const options = queueOptions(q, config);
-      const existing = await boss.getQueue(q.name);
-      if (!existing) await boss.createQueue(q.name, { name: q.name, ...options });
-      else if (options) await boss.updateQueue(q.name, { name: q.name, ...options });
+    // pg-boss gives each queue a table of its own; processes creating queues at the same moment (the web app and its
+    // worker on a fresh database) deadlock on those tables. One process at a time sets the queues up, under a
+    // session lock held on a connection of its own (the statements themselves run on the pool).
+    const lock = new pg.Client(pool.options);
+    await lock.connect();
+    try {
+      await lock.query('select pg_advisory_lock(hashtext($1))', [QUEUE_SETUP_LOCK]);
+      for (const q of ordered) {
+        const options = queueOptions(q, config);
+        const existing = await boss.getQueue(q.name);
+        if (!existing) await boss.createQueue(q.name, { name: q.name, ...options });
+        else if (options) await boss.updateQueue(q.name, { name: q.name, ...options });
+      }
+    } finally {
+      // Ending the connection lets go of the lock too, should the unlock itself fail.
+      await lock.query('select pg_advisory_unlock(hashtext($1))', [QUEUE_SETUP_LOCK]).catch(() => undefined);
+      await lock.end().catch(() => undefined);
     }
   }
 

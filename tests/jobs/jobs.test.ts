@@ -188,6 +188,27 @@ describe('jobs on pg-boss', () => {
     await pool.end();
   });
 
+  it('processes starting together on a fresh database create their queues without a deadlock', async () => {
+    // `npm start` starts the web app and a worker at once; on an empty database both create every queue. pg-boss
+    // creates a queue with a table of its own, and two processes doing that at once deadlocked (the worker exited).
+    const named = (round: number, k: number) =>
+      defineQueue({ name: `race-${round}-${k}`, schema: z.object({}), handler: async () => undefined });
+    for (let round = 0; round < 4; round++) {
+      const list = Array.from({ length: 6 }, (_, k) => named(round, k));
+      const both = ['a', 'b'].map(() => {
+        const { db, pool } = createDb(database.url, { max: 4 });
+        pools.push(pool);
+        return createJobs({ pool, db, config: configFor(database.url), logger, queues: list });
+      });
+      await Promise.all(both.map((j) => j.start()));
+      started.push(...both);
+      const { rows } = await database.pool.query<{ n: number }>('select count(*)::int as n from pgboss.queue where name like $1', [
+        `race-${round}-%`,
+      ]);
+      expect(rows[0]!.n).toBe(6);
+    }
+  });
+
   it('housekeeping deletes expired tokens and rate-limit rows, and keeps live ones', async () => {
     const config = configFor(database.url);
     const p = database.pool;
