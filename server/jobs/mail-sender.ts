@@ -6,7 +6,7 @@ import type { Db } from '../db/client';
 import { createReceiptsService } from '../modules/books/receipts.service';
 import type { MailAttachmentRef } from '../modules/mail/mail.tables';
 import { classifyDatabaseError } from '../db/errors';
-import { renderEmail } from '../../emails/render';
+import { renderEmail, type SharedData } from '../../emails/render';
 import { MAIL_QUEUE_CHANNEL } from '../modules/mail/mail-queue';
 import type { JobContext } from './queue';
 
@@ -26,6 +26,7 @@ type Row = {
   template: string;
   to_address: string;
   data: Record<string, unknown>;
+  shared_key: string | null;
   headers: Record<string, string>;
   batch_key: string | null;
   attempts: number;
@@ -112,15 +113,42 @@ function dueCandidates(column: 'id' | 'batch_key', batchKey: 'is null' | 'is not
                    order by lease_until limit ${limit} for update skip locked)`;
 }
 
+/**
+ * Reads mail_shared rows by key, each once while it is in use: a shared row never changes once written, so the
+ * copies of a dispatch read it once per sender instead of once per message. A missing row is an error (the
+ * message cannot render), and is not kept, so a later attempt reads again.
+ */
+export function createSharedDataReader(pool: pg.Pool, keep = 16) {
+  const held = new Map<string, Promise<SharedData>>();
+  return (key: string): Promise<SharedData> => {
+    let pending = held.get(key);
+    if (pending) {
+      // Most recently used last: the oldest one goes first when there are too many.
+      held.delete(key);
+      held.set(key, pending);
+      return pending;
+    }
+    pending = pool.query<{ data: Record<string, unknown> }>('select data from mail_shared where key = $1', [key]).then(({ rows }) => {
+      if (!rows[0]) throw new Error(`shared mail data "${key}" is missing`);
+      return { key, data: rows[0].data };
+    });
+    held.set(key, pending);
+    pending.catch(() => held.delete(key));
+    if (held.size > keep) held.delete(held.keys().next().value!);
+    return pending;
+  };
+}
+
 export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: JobContext['logger']) {
   const renderAttachments = createAttachmentRenderer(pool);
+  const sharedData = createSharedDataReader(pool);
   /** Claims due single messages (up to `limit`). */
   async function claimSingles(limit: number): Promise<Row[]> {
     const { rows } = await pool.query<Row>(
       `with ${dueCandidates('id', 'is null', '$2')}
        update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
         where id in (select id from (select * from due union all select * from expired) c order by at limit $2)
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
+        returning id, idempotency_key, template, to_address, data, shared_key, headers, batch_key, attempts, attachments`,
       [opts.leaseSeconds, limit],
     );
     return rows;
@@ -144,7 +172,7 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
          update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
           where batch_key = (select batch_key from (select * from due union all select * from expired) c order by at limit 1)
             and ${CLAIMABLE}
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
+        returning id, idempotency_key, template, to_address, data, shared_key, headers, batch_key, attempts, attachments`,
         [opts.leaseSeconds],
       )
       .catch((err: unknown) => {
@@ -178,7 +206,7 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
   }
 
   async function payloadOf(row: Row) {
-    const rendered = await renderEmail(row.template, row.data);
+    const rendered = await renderEmail(row.template, row.data, row.shared_key === null ? null : await sharedData(row.shared_key));
     const attachments = await renderAttachments(row.attachments);
     return {
       ...(attachments.length ? { attachments } : {}),
@@ -234,6 +262,11 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     try {
       for (const r of rows) payloads.push(await payloadOf(r));
     } catch (err) {
+      // Shared data read from a database that is down for now: the batch waits and goes again, like an outage.
+      if (classifyDatabaseError(err) === 'unavailable') {
+        await settle(rows, { status: null, name: 'render_unavailable', message: (err as Error).message });
+        return { rows, payloads: null };
+      }
       await pool.query(
         `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = any($1::uuid[])`,
         [rows.map((r) => r.id), JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],

@@ -13,14 +13,17 @@ import { dispatchNotFound } from './dispatches.errors';
 
 // E-mailing a dispatch: the fan-out job resolves the audience when it runs and writes one mail-queue row per
 // (dispatch, recipient) under the key `dispatch/<dispatch id>/<account id>`, grouped in batches whose key
-// `dispatch/<dispatch id>/<n>` is the idempotency key of one batch call. All rows go in one transaction, so a
-// fan-out that dies half-way leaves nothing and its retry writes the same rows; a retry after success writes
+// `dispatch/<dispatch id>/<n>` is the idempotency key of one batch call; what all copies share is stored once in
+// mail_shared (key `dispatch/<dispatch id>`). Rows go in committed chunks under unique keys, so a
+// fan-out that dies half-way is run again and writes only the rows still missing; a retry after success writes
 // none. The mail sender (server/jobs/mail-sender.ts) sends each batch; progress is counted from the queue.
 
 export const MAIL_QUEUE_NOTIFY_CHANNEL = 'mail_queue';
 
 export const batchKeyOf = (dispatchId: string, n: number) => `dispatch/${dispatchId}/${n}`;
 export const mailKeyOf = (dispatchId: string, accountId: string) => `dispatch/${dispatchId}/${accountId}`;
+/** The mail_shared row holding what every copy of the dispatch's e-mail has in common. */
+export const sharedKeyOf = (dispatchId: string) => `dispatch/${dispatchId}`;
 
 export function unsubscribeUrls(config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET'>, accountId: string) {
   const token = signUnsubscribeToken(config.SESSION_SECRET, accountId, 'dispatches');
@@ -75,13 +78,19 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         unsubscribeUrl: `${base}/unsubscribe`,
         choicesUrl: `${base}/my-support/email`,
       });
+      // Stored once (mail_shared); each row holds only its own link and names the shared row. A retried fan-out
+      // keeps the first one written, which the rows already queued were written against.
+      const sharedKey = sharedKeyOf(dispatchId);
+      await db.execute(sql`
+        insert into mail_shared (key, template, data) values (${sharedKey}, 'dispatch', ${JSON.stringify(shared)}::jsonb)
+        on conflict (key) do nothing`);
       const size = config.DISPATCH_BATCH_SIZE;
       const rows = recipients.map((r, i) => {
         const links = unsubscribeUrls(config, r.accountId);
         return {
           k: mailKeyOf(dispatchId, r.accountId),
           t: r.email,
-          d: { ...shared, unsubscribeUrl: links.page },
+          d: { unsubscribeUrl: links.page },
           h: listUnsubscribeHeaders(links.oneClick),
           b: batchKeyOf(dispatchId, Math.floor(i / size)),
           a: r.accountId,
@@ -100,8 +109,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         const json = JSON.stringify(rows.slice(i, i + chunk));
         await db.transaction(async (tx) => {
           const r = await tx.execute(sql`
-            insert into mail_queue (idempotency_key, template, to_address, data, category, headers, batch_key, account_id)
-            select k, 'dispatch', t, d, 'dispatch', h, b, a
+            insert into mail_queue (idempotency_key, template, to_address, data, shared_key, category, headers, batch_key, account_id)
+            select k, 'dispatch', t, d, ${sharedKey}, 'dispatch', h, b, a
               from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;

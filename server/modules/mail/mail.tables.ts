@@ -13,6 +13,18 @@ export const mailCategoryEnum = pgEnum('mail_category', ['transactional', 'dispa
  * causes it (queueMail), sent by a worker (server/jobs/mail-sender.ts). The idempotency key is unique here and
  * is sent to the mail service, so a row sent twice (a worker died after the service accepted it) is one message.
  */
+/**
+ * The data that many copies of one mail share (a dispatch to 10,000 readers: title, body, charts …), stored once
+ * instead of on every outbox row. Written before (or with) the rows that name it and never changed, so a sender may
+ * keep it once read. Removed by housekeeping once no outbox row names it any more.
+ */
+export const mailShared = pgTable('mail_shared', {
+  key: text('key').primaryKey(),
+  template: text('template').notNull(),
+  data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 export const mailQueue = pgTable(
   'mail_queue',
   {
@@ -20,8 +32,13 @@ export const mailQueue = pgTable(
     idempotencyKey: text('idempotency_key').notNull().unique(),
     template: text('template').notNull(),
     toAddress: text('to_address').notNull(),
-    /** The template's data (checked by its schema when queued). */
+    /**
+     * The template's data (checked by its schema when queued). With a shared key, only this message's own fields
+     * (e.g. its unsubscribe link): the rest is the shared row's data, stored once for all copies (mail_shared).
+     */
     data: jsonb('data').notNull(),
+    /** The mail_shared row whose data this message's own fields complete; null when `data` is the whole data. */
+    sharedKey: text('shared_key'),
     category: mailCategoryEnum('category').notNull(),
     /** Extra message headers (List-Unsubscribe …). */
     headers: jsonb('headers')
