@@ -108,10 +108,12 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         // arrays whose every element the driver would escape one by one.
         const json = JSON.stringify(rows.slice(i, i + chunk));
         await db.transaction(async (tx) => {
+          // Each batch's own row (the sender's claim and lease of it) goes with its messages.
           const r = await tx.execute(sql`
+            with x as (select * from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)),
+                 batches as (insert into mail_batches (key) select distinct b from x on conflict (key) do nothing)
             insert into mail_queue (idempotency_key, template, to_address, data, shared_key, category, headers, batch_key, account_id)
-            select k, 'dispatch', t, d, ${sharedKey}, 'dispatch', h, b, a
-              from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)
+            select k, 'dispatch', t, d, ${sharedKey}, 'dispatch', h, b, a from x
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;
           await tx.execute(sql`select pg_notify(${MAIL_QUEUE_NOTIFY_CHANNEL}, '')`);
@@ -189,7 +191,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
           retried as (
             update mail_queue m set state = 'queued', attempts = 0, next_attempt_at = now(), lease_until = null, updated_at = now(),
                    batch_key = ${`dispatch/${dispatchId}/`} || (${n}::int + p.rn / ${size}::int)::text
-              from picked p where m.id = p.id returning 1)
+              from picked p where m.id = p.id returning m.batch_key),
+          batches as (insert into mail_batches (key) select distinct batch_key from retried on conflict (key) do nothing)
           select count(*)::int as n from retried`);
         const retried = r.rows[0]?.n ?? 0;
         if (retried > 0) {
