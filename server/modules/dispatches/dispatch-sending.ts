@@ -78,24 +78,25 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         unsubscribeUrl: `${base}/unsubscribe`,
         choicesUrl: `${base}/my-support/email`,
       });
-      // Stored once (mail_shared); each row holds only its own link and names the shared row. A retried fan-out
-      // keeps the first one written, which the rows already queued were written against.
+      // Stored once (mail_shared, written with the first chunk below); each row holds only its own link and names
+      // the shared row. A retried fan-out keeps the first one written, which the rows already queued were written against.
       const sharedKey = sharedKeyOf(dispatchId);
-      await db.execute(sql`
-        insert into mail_shared (key, template, data) values (${sharedKey}, 'dispatch', ${JSON.stringify(shared)}::jsonb)
-        on conflict (key) do nothing`);
+      const sharedJson = JSON.stringify(shared);
       const size = config.DISPATCH_BATCH_SIZE;
-      const rows = recipients.map((r, i) => {
-        const links = unsubscribeUrls(config, r.accountId);
-        return {
-          k: mailKeyOf(dispatchId, r.accountId),
-          t: r.email,
-          d: { unsubscribeUrl: links.page },
-          h: listUnsubscribeHeaders(links.oneClick),
-          b: batchKeyOf(dispatchId, Math.floor(i / size)),
-          a: r.accountId,
-        };
-      });
+      // Each member's row, signed links included, made as its chunk is written: the first batch is queued without
+      // waiting for the links of every member.
+      const rowsOf = (from: number, to: number) =>
+        recipients.slice(from, to).map((r, j) => {
+          const links = unsubscribeUrls(config, r.accountId);
+          return {
+            k: mailKeyOf(dispatchId, r.accountId),
+            t: r.email,
+            d: { unsubscribeUrl: links.page },
+            h: listUnsubscribeHeaders(links.oneClick),
+            b: batchKeyOf(dispatchId, Math.floor((from + j) / size)),
+            a: r.accountId,
+          };
+        });
       const batchCount = Math.ceil(recipients.length / size);
       let queued = 0;
       // The queue fills in whole batches, each chunk committed and announced on its own, so the sender starts on
@@ -103,14 +104,17 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
       // worker) finds the rows already there: each message's key is unique, so nothing is queued twice.
       // The first chunk is one batch, so the first call goes out at once; chunks then double up to ~2,000 rows.
       const largest = size * Math.max(1, Math.floor(2000 / size));
-      for (let i = 0, chunk = size; i < rows.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
+      for (let i = 0, chunk = size; i < recipients.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
         // A chunk goes as one JSON parameter (one JSON.stringify here, parsed by Postgres), not as per-column
         // arrays whose every element the driver would escape one by one.
-        const json = JSON.stringify(rows.slice(i, i + chunk));
+        const json = JSON.stringify(rowsOf(i, i + chunk));
         await db.transaction(async (tx) => {
-          // Each batch's own row (the sender's claim and lease of it) goes with its messages.
+          // Each batch's own row (the sender's claim and lease of it) goes with its messages, and the shared data
+          // with the first chunk (a no-op in the others).
           const r = await tx.execute(sql`
             with x as (select * from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)),
+                 shared as (insert into mail_shared (key, template, data) select ${sharedKey}, 'dispatch', ${i === 0 ? sharedJson : null}::jsonb
+                             where ${i === 0} on conflict (key) do nothing),
                  batches as (insert into mail_batches (key) select distinct b from x on conflict (key) do nothing)
             insert into mail_queue (idempotency_key, template, to_address, data, shared_key, category, headers, batch_key, account_id)
             select k, 'dispatch', t, d, ${sharedKey}, 'dispatch', h, b, a from x
