@@ -28,19 +28,39 @@ function isEmailName(name: string): name is EmailName {
   return Object.hasOwn(emailDataSchemas, name);
 }
 
+/**
+ * Data stored once for many copies of a mail (mail_shared): `key` names `data` for good (the row never changes),
+ * so copies that carry only their personal fields are matched to an already rendered copy by the key alone.
+ */
+export type SharedData = { key: string; data: Record<string, unknown> };
+
 export async function renderEmail<N extends EmailName>(name: N, data: EmailData[N]): Promise<RenderedEmail>;
-export async function renderEmail(name: string, data: Record<string, unknown>): Promise<RenderedEmail>;
-export async function renderEmail(name: string, data: unknown): Promise<RenderedEmail> {
+export async function renderEmail(name: string, data: Record<string, unknown>, shared?: SharedData | null): Promise<RenderedEmail>;
+export async function renderEmail(name: string, data: unknown, shared?: SharedData | null): Promise<RenderedEmail> {
   if (!isEmailName(name)) throw new EmailTemplateError(`unknown e-mail template "${name}"`, name);
   const personal = PERSONAL_FIELDS[name];
+  if (shared) {
+    if (!isRecord(data)) throw invalidData(name, [{ path: [], message: 'expected an object' }]);
+    const whole = { ...shared.data, ...data };
+    // Only the personal fields on top of the shared data: the rendered copy is found by the shared key, without
+    // reading the shared data again. Anything else on the row makes it a mail of its own, rendered as a whole.
+    if (!personal || !Object.keys(data).every((f) => personal.includes(f))) return renderEmail(name, whole);
+    const key = `${name}\u0000#${shared.key}`;
+    const copy = copies.get(key);
+    if (copy) return personalise(await copy, checkFields(name, whole, personal), personal);
+    const parsed = emailDataSchemas[name].safeParse(whole);
+    if (!parsed.success) throw invalidData(name, parsed.error.issues);
+    return renderPersonalised(name, parsed.data, personal, key);
+  }
   if (personal && isRecord(data)) {
     // Another copy of the same mail was checked and rendered already: only this copy's own fields need a check.
-    const copy = sharedCopy(name, data, personal);
+    const copy = copies.get(genericKey(name, data, personal));
     if (copy) return personalise(await copy, checkFields(name, data, personal), personal);
   }
   const parsed = emailDataSchemas[name].safeParse(data);
   if (!parsed.success) throw invalidData(name, parsed.error.issues);
-  if (personal) return renderPersonalised(name, parsed.data, personal, data as Record<string, unknown>);
+  // Keyed by the data as given, so the next copy finds it before parsing (parsing fills defaults in).
+  if (personal) return renderPersonalised(name, parsed.data, personal, genericKey(name, data as Record<string, unknown>, personal));
   return renderParsed(name, parsed.data);
 }
 
@@ -61,8 +81,9 @@ const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 const PERSONAL_FIELDS: Partial<Record<EmailName, readonly string[]>> = { dispatch: ['unsubscribeUrl'] };
 const placeholder = (field: string) => `https://personal.invalid/lk-${field}-7f3a`;
 // Rendered generic copies, keyed by the template and the data as given (before parsing) with the personal fields
-// replaced: a key is stored only once the whole data, personal fields included, passed the template's schema.
-const shared = new Map<string, Promise<RenderedEmail>>();
+// replaced, or by the template and the shared key: a key is stored only once the whole data, personal fields
+// included, passed the template's schema.
+const copies = new Map<string, Promise<RenderedEmail>>();
 const SHARED_MAX = 16;
 
 const genericKey = (name: EmailName, data: Record<string, unknown>, fields: readonly string[]) => {
@@ -70,10 +91,6 @@ const genericKey = (name: EmailName, data: Record<string, unknown>, fields: read
   for (const f of fields) generic[f] = placeholder(f);
   return `${name}\u0000${JSON.stringify(generic)}`;
 };
-
-function sharedCopy(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Promise<RenderedEmail> | undefined {
-  return shared.get(genericKey(name, data, fields));
-}
 
 /** Checks only the personal fields, each against its own schema in the template's (object) schema. */
 function checkFields(name: EmailName, data: Record<string, unknown>, fields: readonly string[]): Record<string, unknown> {
@@ -95,18 +112,16 @@ async function renderPersonalised(
   name: EmailName,
   data: Record<string, unknown>,
   fields: readonly string[],
-  given: Record<string, unknown>,
+  key: string,
 ): Promise<RenderedEmail> {
   const generic = { ...data };
   for (const f of fields) generic[f] = placeholder(f);
-  // Keyed by the data as given, so the next copy finds it before parsing (parsing fills defaults in).
-  const key = genericKey(name, given, fields);
-  let pending = shared.get(key);
+  let pending = copies.get(key);
   if (!pending) {
     pending = renderParsed(name, generic);
-    shared.set(key, pending);
-    pending.catch(() => shared.delete(key));
-    if (shared.size > SHARED_MAX) shared.delete(shared.keys().next().value!);
+    copies.set(key, pending);
+    pending.catch(() => copies.delete(key));
+    if (copies.size > SHARED_MAX) copies.delete(copies.keys().next().value!);
   }
   return personalise(await pending, data, fields);
 }

@@ -69,6 +69,18 @@ export async function runHousekeeping(
         `delete from mail_queue where id in (select id from mail_queue where state = 'sent' and sent_at < now() - make_interval(days => $1::int) limit ${LIMIT})`,
         [config.MAIL_QUEUE_KEEP_DAYS],
       );
+      // Batch rows whose call is over (their messages keep their own state and answer).
+      out.mail += await del(
+        `delete from mail_batches where key in (select key from mail_batches
+          where state in ('sent', 'failed') and updated_at < now() - make_interval(days => $1::int) limit ${LIMIT})`,
+        [config.MAIL_QUEUE_KEEP_DAYS],
+      );
+      // Shared mail data that no message names any more (its copies were deleted above). A day of grace: a fan-out
+      // writes its shared row first and its messages in the moments after.
+      out.mail += await del(
+        `delete from mail_shared s where s.created_at < now() - interval '1 day'
+            and not exists (select 1 from mail_queue m where m.shared_key = s.key)`,
+      );
     }
   }
   return out;

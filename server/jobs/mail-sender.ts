@@ -6,14 +6,15 @@ import type { Db } from '../db/client';
 import { createReceiptsService } from '../modules/books/receipts.service';
 import type { MailAttachmentRef } from '../modules/mail/mail.tables';
 import { classifyDatabaseError } from '../db/errors';
-import { renderEmail } from '../../emails/render';
+import { renderEmail, type SharedData } from '../../emails/render';
 import { MAIL_QUEUE_CHANNEL } from '../modules/mail/mail-queue';
 import type { JobContext } from './queue';
 
 /**
  * The mail sender: drains mail_queue (the outbox) through the resend SDK. Not a pg-boss job per message —
  * the rows are the queue. A worker claims due rows with FOR UPDATE SKIP LOCKED and a lease (state `sending`,
- * lease_until); a row whose worker died is claimed again once its lease has passed, and the service sees the
+ * lease_until) — a single message on its own row, a batch on its mail_batches row (its messages stay `queued`
+ * until their answer is written); a row whose worker died is claimed again once its lease has passed, and the service sees the
  * same Idempotency-Key (the row's key, or the batch key), so it answers with the first message's id instead of
  * sending it twice. 429/5xx/no answer → back to `queued` with a backoff that honours Retry-After; any other
  * refusal → `failed`. The service's answer is stored on the row. Woken by NOTIFY (sent by queueMail on commit)
@@ -26,6 +27,7 @@ type Row = {
   template: string;
   to_address: string;
   data: Record<string, unknown>;
+  shared_key: string | null;
   headers: Record<string, string>;
   batch_key: string | null;
   attempts: number;
@@ -95,90 +97,129 @@ export function mailSenderOptionsFrom(ctx: Pick<JobContext, 'config' | 'deps'>):
   };
 }
 
-const CLAIMABLE = `((state = 'queued' and next_attempt_at <= now()) or (state = 'sending' and lease_until < now()))`;
-
 /**
- * The rows a claim may take, as two CTEs `due` (queued and due, oldest first) and `expired` (a lease that has run
- * out), each locked and limited on its own: each is read from the front of an index (mail_queue_batch_due_idx /
- * mail_queue_single_due_idx; mail_queue_due_idx for leases), so a claim costs the same with 10 or 100,000 rows
+ * The single messages a claim may take, as two CTEs `due` (queued and due, oldest first) and `expired` (a lease
+ * that has run out), each locked and limited on its own: each is read from the front of an index
+ * (mail_queue_single_due_idx; mail_queue_due_idx for leases), so a claim costs the same with 10 or 100,000 rows
  * waiting. (One `or` over both states made Postgres gather and sort every queued row on every claim.)
  */
-function dueCandidates(column: 'id' | 'batch_key', batchKey: 'is null' | 'is not null', limit: string) {
-  return `due as (select ${column}, next_attempt_at as at from mail_queue
-                   where state = 'queued' and batch_key ${batchKey} and next_attempt_at <= now()
+function dueSingles(limit: string) {
+  return `due as (select id, next_attempt_at as at from mail_queue
+                   where state = 'queued' and batch_key is null and next_attempt_at <= now()
                    order by next_attempt_at limit ${limit} for update skip locked),
-          expired as (select ${column}, lease_until as at from mail_queue
-                   where state = 'sending' and batch_key ${batchKey} and lease_until < now()
+          expired as (select id, lease_until as at from mail_queue
+                   where state = 'sending' and batch_key is null and lease_until < now()
                    order by lease_until limit ${limit} for update skip locked)`;
+}
+
+/**
+ * Reads mail_shared rows by key, each once while it is in use: a shared row never changes once written, so the
+ * copies of a dispatch read it once per sender instead of once per message. A missing row is an error (the
+ * message cannot render), and is not kept, so a later attempt reads again.
+ */
+export function createSharedDataReader(pool: pg.Pool, keep = 16) {
+  const held = new Map<string, Promise<SharedData>>();
+  return (key: string): Promise<SharedData> => {
+    let pending = held.get(key);
+    if (pending) {
+      // Most recently used last: the oldest one goes first when there are too many.
+      held.delete(key);
+      held.set(key, pending);
+      return pending;
+    }
+    pending = pool.query<{ data: Record<string, unknown> }>('select data from mail_shared where key = $1', [key]).then(({ rows }) => {
+      if (!rows[0]) throw new Error(`shared mail data "${key}" is missing`);
+      return { key, data: rows[0].data };
+    });
+    held.set(key, pending);
+    pending.catch(() => held.delete(key));
+    if (held.size > keep) held.delete(held.keys().next().value!);
+    return pending;
+  };
 }
 
 export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: JobContext['logger']) {
   const renderAttachments = createAttachmentRenderer(pool);
+  const sharedData = createSharedDataReader(pool);
   /** Claims due single messages (up to `limit`). */
   async function claimSingles(limit: number): Promise<Row[]> {
     const { rows } = await pool.query<Row>(
-      `with ${dueCandidates('id', 'is null', '$2')}
+      `with ${dueSingles('$2')}
        update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
         where id in (select id from (select * from due union all select * from expired) c order by at limit $2)
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
+        returning id, idempotency_key, template, to_address, data, shared_key, headers, batch_key, attempts, attachments`,
       [opts.leaseSeconds, limit],
     );
     return rows;
   }
 
   /**
-   * Claims every due row of one batch (the unit the service's batch key covers). Claims in one process take turns:
-   * two claims at once could lock different rows of the same batch and deadlock. Between processes Postgres
-   * breaks such a deadlock by failing one claim, which is then simply made again.
+   * Claims the next due batch (or one whose lease has run out) by leasing its mail_batches row — one row write for
+   * the whole batch; its messages stay `queued` and are written once, with their answer — and returns the batch's
+   * unsent messages with the batch's attempt count. A claimed batch without any such message is closed and the
+   * next one claimed.
    */
-  let claiming: Promise<unknown> = Promise.resolve();
-  function claimBatch(): Promise<Row[]> {
-    const turn = claiming.then(() => claimBatchNow());
-    claiming = turn.catch(() => undefined);
-    return turn;
-  }
-  async function claimBatchNow(attempt = 1): Promise<Row[]> {
-    const result = await pool
-      .query<Row>(
-        `with ${dueCandidates('batch_key', 'is not null', '1')}
-         update mail_queue set state = 'sending', attempts = attempts + 1, lease_until = now() + make_interval(secs => $1), updated_at = now()
-          where batch_key = (select batch_key from (select * from due union all select * from expired) c order by at limit 1)
-            and ${CLAIMABLE}
-        returning id, idempotency_key, template, to_address, data, headers, batch_key, attempts, attachments`,
+  async function claimBatch(): Promise<Row[]> {
+    for (;;) {
+      const { rows } = await pool.query<Row & { claimed_key: string; batch_attempts: number }>(
+        `with due as (select key, next_attempt_at as at from mail_batches where state = 'queued' and next_attempt_at <= now()
+                        order by next_attempt_at limit 1 for update skip locked),
+              expired as (select key, lease_until as at from mail_batches where state = 'sending' and lease_until < now()
+                        order by lease_until limit 1 for update skip locked),
+              picked as (select key from (select * from due union all select * from expired) c order by at limit 1),
+         claimed as (
+           update mail_batches b set state = 'sending', attempts = b.attempts + 1, lease_until = now() + make_interval(secs => $1),
+                  updated_at = now()
+             from picked where b.key = picked.key returning b.key, b.attempts)
+         select c.key as claimed_key, c.attempts as batch_attempts,
+                m.id, m.idempotency_key, m.template, m.to_address, m.data, m.shared_key, m.headers, m.batch_key, m.attachments
+           from claimed c left join mail_queue m on m.batch_key = c.key and m.state = 'queued'
+          order by m.idempotency_key`,
         [opts.leaseSeconds],
-      )
-      .catch((err: unknown) => {
-        if ((err as { code?: string }).code === '40P01' && attempt < 5) return null; // deadlock_detected
-        throw err;
-      });
-    if (!result) return claimBatchNow(attempt + 1);
-    return result.rows.sort((a, b) => a.idempotency_key.localeCompare(b.idempotency_key));
+      );
+      const first = rows[0];
+      if (!first) return [];
+      if (first.id !== null) return rows.map(({ claimed_key: _, batch_attempts, ...r }) => ({ ...r, attempts: batch_attempts }));
+      await pool.query(`update mail_batches set state = 'sent', lease_until = null, updated_at = now() where key = $1`, [
+        first.claimed_key,
+      ]);
+    }
   }
 
+  /**
+   * Writes the service's answer to the messages (and, for a batch, to its row, in the same statement): sent with
+   * the service's ids; or due again after a backoff; or failed for good.
+   */
   async function settle(rows: Row[], answer: Answer, ids?: string[]) {
+    const batchKey = rows[0]?.batch_key ?? null;
+    const attempts = Math.max(...rows.map((r) => r.attempts));
     if ('id' in answer || ids) {
       await pool.query(
-        `update mail_queue m set state = 'sent', provider_id = k.pid, last_answer = jsonb_build_object('id', k.pid),
-                sent_at = now(), lease_until = null, updated_at = now()
+        `with batch as (update mail_batches set state = 'sent', lease_until = null, updated_at = now() where key = $3)
+         update mail_queue m set state = 'sent', provider_id = k.pid, last_answer = jsonb_build_object('id', k.pid),
+                attempts = $4, sent_at = now(), lease_until = null, updated_at = now()
            from unnest($1::uuid[], $2::text[]) as k(id, pid) where m.id = k.id`,
-        [rows.map((r) => r.id), ids ?? rows.map(() => (answer as { id: string }).id)],
+        [rows.map((r) => r.id), ids ?? rows.map(() => (answer as { id: string }).id), batchKey, attempts],
       );
       return;
     }
-    const attempts = Math.max(...rows.map((r) => r.attempts));
     const again = retryable(answer.status) && attempts < opts.maxAttempts;
     const wait = backoffSeconds(attempts, answer.retryAfterSeconds, opts.maxBackoffSeconds);
     await pool.query(
-      `update mail_queue set state = $2::mail_state, last_answer = $3::jsonb, lease_until = null, updated_at = now(),
+      `with batch as (
+         update mail_batches set state = $2::mail_state, lease_until = null, updated_at = now(),
+                next_attempt_at = case when $2::mail_state = 'queued' then now() + make_interval(secs => $4::float8) else next_attempt_at end
+          where key = $5)
+       update mail_queue set state = $2::mail_state, last_answer = $3::jsonb, lease_until = null, attempts = $6, updated_at = now(),
               next_attempt_at = case when $2::mail_state = 'queued' then now() + make_interval(secs => $4::float8) else next_attempt_at end
         where id = any($1::uuid[])`,
-      [rows.map((r) => r.id), again ? 'queued' : 'failed', JSON.stringify(answer), wait],
+      [rows.map((r) => r.id), again ? 'queued' : 'failed', JSON.stringify(answer), wait, batchKey, attempts],
     );
     if (!again) log.warn({ ids: rows.map((r) => r.id), answer }, 'mail failed for good');
   }
 
   async function payloadOf(row: Row) {
-    const rendered = await renderEmail(row.template, row.data);
+    const rendered = await renderEmail(row.template, row.data, row.shared_key === null ? null : await sharedData(row.shared_key));
     const attachments = await renderAttachments(row.attachments);
     return {
       ...(attachments.length ? { attachments } : {}),
@@ -234,9 +275,21 @@ export function createMailSender(pool: pg.Pool, opts: MailSenderOptions, log: Jo
     try {
       for (const r of rows) payloads.push(await payloadOf(r));
     } catch (err) {
+      // Shared data read from a database that is down for now: the batch waits and goes again, like an outage.
+      if (classifyDatabaseError(err) === 'unavailable') {
+        await settle(rows, { status: null, name: 'render_unavailable', message: (err as Error).message });
+        return { rows, payloads: null };
+      }
       await pool.query(
-        `update mail_queue set state = 'failed', lease_until = null, updated_at = now(), last_answer = $2::jsonb where id = any($1::uuid[])`,
-        [rows.map((r) => r.id), JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message })],
+        `with batch as (update mail_batches set state = 'failed', lease_until = null, updated_at = now() where key = $3)
+         update mail_queue set state = 'failed', lease_until = null, attempts = $4, updated_at = now(), last_answer = $2::jsonb
+          where id = any($1::uuid[])`,
+        [
+          rows.map((r) => r.id),
+          JSON.stringify({ status: null, name: 'render_failed', message: (err as Error).message }),
+          rows[0]?.batch_key ?? null,
+          Math.max(...rows.map((r) => r.attempts)),
+        ],
       );
       return { rows, payloads: null };
     }

@@ -113,6 +113,21 @@ describe('e-mailing a dispatch to 2,000 members', () => {
     expect(sample.text).toContain(`/unsubscribe?token=${token}`);
     expect(sample.html).toContain('/my-support/email');
 
+    // What every copy shares is stored once; each of the 2,000 rows keeps only its own link and names that row.
+    const pool = ctx.t.database.pool;
+    const { rows: sharedRows } = await pool.query<{ key: string; data: Record<string, unknown> }>(
+      `select key, data from mail_shared where key = $1`,
+      [`dispatch/${d.id}`],
+    );
+    expect(sharedRows).toHaveLength(1);
+    expect(sharedRows[0]!.data).toMatchObject({ title: 'Patch holders: ten days of raising' });
+    const { rows: shapes } = await pool.query<{ keys: string; shared_key: string | null; n: number }>(
+      `select (select string_agg(k, ',') from jsonb_object_keys(data) k) as keys, shared_key, count(*)::int as n
+         from mail_queue where batch_key like $1 group by 1, 2`,
+      [`dispatch/${d.id}/%`],
+    );
+    expect(shapes).toEqual([{ keys: 'unsubscribeUrl', shared_key: `dispatch/${d.id}`, n: N }]);
+
     // The fan-out ran once: another e-mail request for the same dispatch is refused.
     const again = await outreach.post(`/api/dispatches/${d.id}/email`).set('x-csrf-token', outreach.csrf).send({});
     expect(again.status).toBe(409);
@@ -130,7 +145,7 @@ describe('e-mailing a dispatch to 2,000 members', () => {
     // Publish without e-mail, then e-mail it by hand while the service refuses everything.
     ctx.t.mail.faults.set({ delayMs: 0, failNext: 1000 });
     await outreach.post(`/api/dispatches/${d.id}/email`).set('x-csrf-token', outreach.csrf).send({}).expect(202);
-    await ctx.t.database.pool.query(`update mail_queue set attempts = 9 where batch_key like $1`, [`dispatch/${d.id}/%`]);
+    await ctx.t.database.pool.query(`update mail_batches set attempts = 9 where key like $1`, [`dispatch/${d.id}/%`]);
     const failed = await waitFor(
       async () => {
         const p = (await outreach.get(`/api/dispatches/${d.id}/progress`).expect(200)).body.progress;

@@ -198,6 +198,28 @@ describe('e-mail templates', () => {
     await expect(renderEmail('dispatch', { ...copyFor('x'), unsubscribeUrl: 42 } as never)).rejects.toThrow(/unsubscribeUrl/);
   });
 
+  it('renders a copy from stored shared data plus its own link exactly as from its whole data, and checks the link', async () => {
+    const { unsubscribeUrl: _, ...common } = { ...samples.dispatch, title: 'Copies from one shared row' };
+    const shared = { key: `dispatch/test-${Math.random()}`, data: common };
+    const own = (token: string) => ({ unsubscribeUrl: `http://127.0.0.1:3000/unsubscribe?token=${token}&v=2` });
+    const first = await renderEmail('dispatch', own('member-a'), shared);
+    const second = await renderEmail('dispatch', own('member-b'), shared);
+    expect(first).toEqual(await renderEmail('dispatch', { ...common, ...own('member-a') }));
+    expect(second).toEqual(await renderEmail('dispatch', { ...common, ...own('member-b') }));
+    expect(second.html).toContain('token=member-b&amp;v=2');
+    expect(second.html).not.toContain('member-a');
+    // The copy's own field is checked every time, the cached shared render notwithstanding.
+    await expect(renderEmail('dispatch', { unsubscribeUrl: 'javascript:alert(1)' }, shared)).rejects.toThrow(/unsubscribeUrl/);
+    // A row carrying more than its personal fields is a mail of its own: rendered (and checked) as a whole.
+    const retitled = await renderEmail('dispatch', { ...own('member-c'), title: 'A title of its own' }, shared);
+    expect(retitled.subject).toContain('A title of its own');
+    await expect(renderEmail('dispatch', { ...own('member-d'), pageUrl: 'javascript:alert(1)' }, shared)).rejects.toThrow(/pageUrl/);
+    // Shared data that cannot pass the template's schema is refused on the first copy, naming the field.
+    const broken = { key: `dispatch/broken-${Math.random()}`, data: { ...common, siteUrl: 'not a url' } };
+    await expect(renderEmail('dispatch', own('member-e'), broken)).rejects.toThrow(/siteUrl/);
+    await expect(renderEmail('dispatch', own('member-f'), broken)).rejects.toThrow(/siteUrl/);
+  });
+
   it('rejects bad data with the field named, before rendering', async () => {
     await expect(renderEmail('verify-email', { displayName: 'A', verifyUrl: 'javascript:alert(1)' })).rejects.toThrow(/verifyUrl/);
     await expect(renderEmail('pledge-confirmation', { ...samples['pledge-confirmation'], amountMinor: 12.5 })).rejects.toThrow(

@@ -5,7 +5,8 @@ import { sql } from 'drizzle-orm';
 import { loadConfig, type Config } from '../../server/config';
 import { createMailSender, mailSenderOptionsFrom, backoffSeconds } from '../../server/jobs/mail-sender';
 import { queueMail, MailQueueDataError } from '../../server/modules/mail/mail-queue';
-import { mailQueue } from '../../server/modules/mail/mail.tables';
+import { mailBatches, mailQueue, mailShared } from '../../server/modules/mail/mail.tables';
+import { runHousekeeping } from '../../server/jobs/housekeeping';
 import { createMailFake, type MailFake } from '../../fakes/mail/server';
 import { createTestDatabase, type TestDatabase } from '../setup/test-db';
 
@@ -53,6 +54,8 @@ beforeEach(async () => {
   fake.clear();
   fake.faults.set({ rateLimitNext: 0, failNext: 0, delayMs: 0, retryAfterSeconds: 1 });
   await database.db.delete(mailQueue);
+  await database.db.delete(mailShared);
+  await database.db.delete(mailBatches);
 });
 
 describe('the mail queue (outbox)', () => {
@@ -211,18 +214,66 @@ describe('the mail queue (outbox)', () => {
     expect(r.every((x) => x.state === 'sent')).toBe(true);
     expect(new Set(fake.messages().map((m) => m.batch_id)).size).toBe(1);
     expect(fake.messages()).toHaveLength(30);
-    // A worker that died after the batch was accepted: the rows are claimed again and re-sent under the same key.
-    await database.db.execute(sql`update mail_queue set state = 'sending', lease_until = now() - interval '1 second'`);
+    // A worker that died after the batch was accepted, before its answer was written: the batch row's lease runs
+    // out, and the batch is claimed again and re-sent under the same key.
+    await database.db.execute(sql`update mail_queue set state = 'queued', provider_id = null`);
+    await database.db.execute(sql`update mail_batches set state = 'sending', lease_until = now() - interval '1 second'`);
     await sender().drain();
     expect(fake.messages()).toHaveLength(30);
-    expect((await rows()).every((x) => x.state === 'sent')).toBe(true);
+    const again = await rows();
+    expect(again.every((x) => x.state === 'sent' && x.attempts === 2)).toBe(true);
+    expect(new Set(again.map((x) => x.providerId))).toEqual(new Set(fake.messages().map((m) => m.id)));
+  });
+
+  it('claims a batch with one write to its batch row; a batch whose worker died mid-send is sent again once, under its key', async () => {
+    for (let n = 600; n < 620; n++) await enqueue(n, { batchKey: 'batch/died' });
+    const before = await rows();
+    const real = new Resend(config.RESEND_API_KEY, { baseUrl: fake.url });
+    let accepted = 0;
+    // The dying worker: the service takes the batch, then the process is gone (its promise never settles).
+    const dying = {
+      emails: real.emails,
+      batch: {
+        send: async (...args: Parameters<Resend['batch']['send']>) => {
+          await real.batch.send(...args);
+          accepted++;
+          return new Promise<never>(() => undefined);
+        },
+      },
+    } as unknown as Resend;
+    void sender({}, dying).drain();
+    const until = Date.now() + 10_000;
+    while (accepted === 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 50));
+    expect(accepted).toBe(1);
+    expect(fake.messages()).toHaveLength(20);
+    // In flight: the batch row holds the lease; its messages were not written at all.
+    const [batch] = await database.db.select().from(mailBatches);
+    expect(batch).toMatchObject({ key: 'batch/died', state: 'sending', attempts: 1 });
+    expect(batch!.leaseUntil!.getTime()).toBeGreaterThan(Date.now());
+    expect(await rows()).toEqual(before);
+    // Another worker, before the lease ends: nothing to take.
+    expect(await sender().drain()).toBe(0);
+    // After the lease (5 s): it takes the batch and sends it again under the same key; the service answers as before.
+    await new Promise((r) => setTimeout(r, 5200));
+    expect(await sender().drain()).toBe(20);
+    const r = await rows();
+    expect(r.every((x) => x.state === 'sent' && x.attempts === 2)).toBe(true);
+    expect(fake.messages()).toHaveLength(20);
+    expect(new Set(fake.messages().map((m) => m.batch_id)).size).toBe(1);
+    expect(r.map((x) => x.providerId).sort()).toEqual(
+      fake
+        .messages()
+        .map((m) => m.id)
+        .sort(),
+    );
+    expect((await database.db.select().from(mailBatches))[0]).toMatchObject({ state: 'sent', leaseUntil: null });
   });
 
   it('keeps at most MAIL_SEND_CONCURRENCY batch calls in flight, reaches that many, and sends each batch once', async () => {
     // 12 batches of 5; a batch whose worker died (lease run out) is among them and goes out too.
     for (let n = 300; n < 360; n++) await enqueue(n, { batchKey: `batch/${Math.floor((n - 300) / 5)}` });
     await database.db.execute(
-      sql`update mail_queue set state = 'sending', attempts = 1, lease_until = now() - interval '1 second' where batch_key = 'batch/7'`,
+      sql`update mail_batches set state = 'sending', attempts = 1, lease_until = now() - interval '1 second' where key = 'batch/7'`,
     );
     fake.faults.set({ delayMs: 30 });
     const resend = new Resend(config.RESEND_API_KEY, { baseUrl: config.RESEND_BASE_URL });
@@ -246,5 +297,86 @@ describe('the mail queue (outbox)', () => {
     expect(r.every((x) => x.state === 'sent' && x.leaseUntil === null && x.providerId)).toBe(true);
     expect(fake.messages()).toHaveLength(60);
     expect(new Set(fake.messages().map((m) => m.to[0])).size).toBe(60);
+  });
+
+  describe('copies that share stored data (mail_shared)', () => {
+    const common = {
+      title: 'Shared once',
+      bodyMarkdown: 'The sail is **out**.',
+      excerpt: 'The sail is out.',
+      pageUrl: 'http://127.0.0.1:3999/dispatches/shared-once',
+      siteUrl: 'http://127.0.0.1:3999/',
+      charts: [],
+      audienceLine: 'a backer',
+      choicesUrl: 'http://127.0.0.1:3999/my-support/email',
+    };
+    const insertCopies = async (sharedKey: string, from: number, to: number, batchKey: string) => {
+      await database.pool.query(`insert into mail_batches (key) values ($1) on conflict do nothing`, [batchKey]);
+      for (let n = from; n < to; n++)
+        await database.pool.query(
+          `insert into mail_queue (idempotency_key, template, to_address, data, shared_key, category, batch_key)
+           values ($1, 'dispatch', $2, $3::jsonb, $4, 'dispatch', $5)`,
+          [
+            `shared/${n}`,
+            `reader${n}@example.org`,
+            JSON.stringify({ unsubscribeUrl: `http://127.0.0.1:3999/unsubscribe?token=t${n}` }),
+            sharedKey,
+            batchKey,
+          ],
+        );
+    };
+
+    it('sends each copy with the shared part and its own link; a copy whose shared row is missing fails, naming it', async () => {
+      await database.pool.query(`insert into mail_shared (key, template, data) values ('dispatch/s1', 'dispatch', $1::jsonb)`, [
+        JSON.stringify(common),
+      ]);
+      await insertCopies('dispatch/s1', 400, 410, 'shared-batch/1');
+      await insertCopies('dispatch/gone', 410, 412, 'shared-batch/2');
+      await sender().drain();
+      const r = await rows();
+      expect(r.filter((x) => x.sharedKey === 'dispatch/s1').map((x) => x.state)).toEqual(Array(10).fill('sent'));
+      const m = delivered('reader405@example.org');
+      expect(m).toHaveLength(1);
+      expect(m[0]!.subject).toContain('Shared once');
+      expect(m[0]!.html).toContain('unsubscribe?token=t405');
+      expect(m[0]!.text).toContain('The sail is out');
+      expect(fake.messages().filter((x) => (x.html ?? '').includes('token=t40'))).toHaveLength(10);
+      const gone = r.filter((x) => x.sharedKey === 'dispatch/gone');
+      expect(gone.map((x) => x.state)).toEqual(['failed', 'failed']);
+      expect(gone[0]!.lastAnswer).toMatchObject({ name: 'render_failed', message: expect.stringMatching(/dispatch\/gone/) });
+    });
+
+    it('housekeeping removes a shared row only once no message names it and it is a day old', async () => {
+      const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, MAIL_QUEUE_KEEP_DAYS: '30' });
+      await database.pool.query(
+        `insert into mail_shared (key, template, data, created_at) values
+           ('dispatch/old-named', 'dispatch', '{}', now() - interval '40 days'),
+           ('dispatch/old-orphan', 'dispatch', '{}', now() - interval '2 days'),
+           ('dispatch/new-orphan', 'dispatch', '{}', now())`,
+      );
+      await insertCopies('dispatch/old-named', 500, 501, 'shared-batch/3');
+      // A sent copy past MAIL_QUEUE_KEEP_DAYS goes first, and its shared row with it in the same pass.
+      await insertCopies('dispatch/old-sent', 501, 502, 'shared-batch/4');
+      await database.pool.query(
+        `insert into mail_shared (key, template, data, created_at) values ('dispatch/old-sent', 'dispatch', '{}', now() - interval '40 days')`,
+      );
+      await database.pool.query(
+        `update mail_queue set state = 'sent', sent_at = now() - interval '31 days' where shared_key = 'dispatch/old-sent'`,
+      );
+      // Batch rows: one whose call ended before MAIL_QUEUE_KEEP_DAYS goes; a recent one and one still due stay.
+      await database.pool.query(
+        `update mail_batches set state = 'sent', updated_at = now() - interval '31 days' where key = 'shared-batch/4'`,
+      );
+      await database.pool.query(
+        `insert into mail_batches (key, state, updated_at) values ('old-failed', 'failed', now() - interval '31 days'),
+           ('new-sent', 'sent', now()), ('old-queued', 'queued', now() - interval '31 days')`,
+      );
+      const out = await runHousekeeping({ pool: database.pool, config }, ['mail']);
+      expect(out.mail).toBe(5);
+      const batches = await database.pool.query<{ key: string }>('select key from mail_batches order by key');
+      expect(batches.rows.map((x) => x.key)).toEqual(['new-sent', 'old-queued', 'shared-batch/3']);
+      const left = await database.pool.query<{ key: string }>('select key from mail_shared order by key');
+      expect(left.rows.map((x) => x.key)).toEqual(['dispatch/new-orphan', 'dispatch/old-named']);
+    });
   });
 });

@@ -13,14 +13,17 @@ import { dispatchNotFound } from './dispatches.errors';
 
 // E-mailing a dispatch: the fan-out job resolves the audience when it runs and writes one mail-queue row per
 // (dispatch, recipient) under the key `dispatch/<dispatch id>/<account id>`, grouped in batches whose key
-// `dispatch/<dispatch id>/<n>` is the idempotency key of one batch call. All rows go in one transaction, so a
-// fan-out that dies half-way leaves nothing and its retry writes the same rows; a retry after success writes
+// `dispatch/<dispatch id>/<n>` is the idempotency key of one batch call; what all copies share is stored once in
+// mail_shared (key `dispatch/<dispatch id>`). Rows go in committed chunks under unique keys, so a
+// fan-out that dies half-way is run again and writes only the rows still missing; a retry after success writes
 // none. The mail sender (server/jobs/mail-sender.ts) sends each batch; progress is counted from the queue.
 
 export const MAIL_QUEUE_NOTIFY_CHANNEL = 'mail_queue';
 
 export const batchKeyOf = (dispatchId: string, n: number) => `dispatch/${dispatchId}/${n}`;
 export const mailKeyOf = (dispatchId: string, accountId: string) => `dispatch/${dispatchId}/${accountId}`;
+/** The mail_shared row holding what every copy of the dispatch's e-mail has in common. */
+export const sharedKeyOf = (dispatchId: string) => `dispatch/${dispatchId}`;
 
 export function unsubscribeUrls(config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET'>, accountId: string) {
   const token = signUnsubscribeToken(config.SESSION_SECRET, accountId, 'dispatches');
@@ -75,18 +78,25 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
         unsubscribeUrl: `${base}/unsubscribe`,
         choicesUrl: `${base}/my-support/email`,
       });
+      // Stored once (mail_shared, written with the first chunk below); each row holds only its own link and names
+      // the shared row. A retried fan-out keeps the first one written, which the rows already queued were written against.
+      const sharedKey = sharedKeyOf(dispatchId);
+      const sharedJson = JSON.stringify(shared);
       const size = config.DISPATCH_BATCH_SIZE;
-      const rows = recipients.map((r, i) => {
-        const links = unsubscribeUrls(config, r.accountId);
-        return {
-          k: mailKeyOf(dispatchId, r.accountId),
-          t: r.email,
-          d: { ...shared, unsubscribeUrl: links.page },
-          h: listUnsubscribeHeaders(links.oneClick),
-          b: batchKeyOf(dispatchId, Math.floor(i / size)),
-          a: r.accountId,
-        };
-      });
+      // Each member's row, signed links included, made as its chunk is written: the first batch is queued without
+      // waiting for the links of every member.
+      const rowsOf = (from: number, to: number) =>
+        recipients.slice(from, to).map((r, j) => {
+          const links = unsubscribeUrls(config, r.accountId);
+          return {
+            k: mailKeyOf(dispatchId, r.accountId),
+            t: r.email,
+            d: { unsubscribeUrl: links.page },
+            h: listUnsubscribeHeaders(links.oneClick),
+            b: batchKeyOf(dispatchId, Math.floor((from + j) / size)),
+            a: r.accountId,
+          };
+        });
       const batchCount = Math.ceil(recipients.length / size);
       let queued = 0;
       // The queue fills in whole batches, each chunk committed and announced on its own, so the sender starts on
@@ -94,15 +104,20 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
       // worker) finds the rows already there: each message's key is unique, so nothing is queued twice.
       // The first chunk is one batch, so the first call goes out at once; chunks then double up to ~2,000 rows.
       const largest = size * Math.max(1, Math.floor(2000 / size));
-      for (let i = 0, chunk = size; i < rows.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
+      for (let i = 0, chunk = size; i < recipients.length; i += chunk, chunk = Math.min(largest, chunk * 2)) {
         // A chunk goes as one JSON parameter (one JSON.stringify here, parsed by Postgres), not as per-column
         // arrays whose every element the driver would escape one by one.
-        const json = JSON.stringify(rows.slice(i, i + chunk));
+        const json = JSON.stringify(rowsOf(i, i + chunk));
         await db.transaction(async (tx) => {
+          // Each batch's own row (the sender's claim and lease of it) goes with its messages, and the shared data
+          // with the first chunk (a no-op in the others).
           const r = await tx.execute(sql`
-            insert into mail_queue (idempotency_key, template, to_address, data, category, headers, batch_key, account_id)
-            select k, 'dispatch', t, d, 'dispatch', h, b, a
-              from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)
+            with x as (select * from json_to_recordset(${json}::json) as x(k text, t text, d jsonb, h jsonb, b text, a uuid)),
+                 shared as (insert into mail_shared (key, template, data) select ${sharedKey}, 'dispatch', ${i === 0 ? sharedJson : null}::jsonb
+                             where ${i === 0} on conflict (key) do nothing),
+                 batches as (insert into mail_batches (key) select distinct b from x on conflict (key) do nothing)
+            insert into mail_queue (idempotency_key, template, to_address, data, shared_key, category, headers, batch_key, account_id)
+            select k, 'dispatch', t, d, ${sharedKey}, 'dispatch', h, b, a from x
             on conflict (idempotency_key) do nothing`);
           queued += r.rowCount ?? 0;
           await tx.execute(sql`select pg_notify(${MAIL_QUEUE_NOTIFY_CHANNEL}, '')`);
@@ -180,7 +195,8 @@ export function createDispatchSending(deps: { db: Db; pool: pg.Pool; config: Con
           retried as (
             update mail_queue m set state = 'queued', attempts = 0, next_attempt_at = now(), lease_until = null, updated_at = now(),
                    batch_key = ${`dispatch/${dispatchId}/`} || (${n}::int + p.rn / ${size}::int)::text
-              from picked p where m.id = p.id returning 1)
+              from picked p where m.id = p.id returning m.batch_key),
+          batches as (insert into mail_batches (key) select distinct batch_key from retried on conflict (key) do nothing)
           select count(*)::int as n from retried`);
         const retried = r.rows[0]?.n ?? 0;
         if (retried > 0) {

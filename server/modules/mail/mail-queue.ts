@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { emailDataSchemas, type EmailData, type EmailName } from '../../../emails/templates';
-import { mailQueue, type MailAttachmentRef } from './mail.tables';
+import { mailBatches, mailQueue, type MailAttachmentRef } from './mail.tables';
 
 /** A database handle or an open transaction: queueMail must be called with the transaction of the causing change. */
 export type DbOrTx = Pick<Db, 'insert' | 'execute'>;
@@ -17,7 +17,10 @@ export type QueueMailInput<N extends EmailName = EmailName> = {
   idempotencyKey: string;
   headers?: Record<string, string>;
   accountId?: string | null;
-  /** Rows sharing a batch key go out in one batch call (at most 100; see the mail sender). */
+  /**
+   * Rows sharing a batch key go out in one batch call (at most 100; see the mail sender). A batch key names one
+   * call: queue all of its rows before it is sent (a row added to a batch already sent is not sent).
+   */
   batchKey?: string | null;
   /** Files rendered and attached when the message is sent (single messages only: the batch call takes none). */
   attachments?: MailAttachmentRef[];
@@ -66,6 +69,9 @@ export async function queueMail<N extends EmailName>(tx: DbOrTx, input: QueueMai
     })
     .onConflictDoNothing({ target: mailQueue.idempotencyKey })
     .returning({ id: mailQueue.id });
+  // The batch's own row, which the sender claims and leases for all its messages (one per batch key).
+  if (rows.length && input.batchKey)
+    await tx.insert(mailBatches).values({ key: input.batchKey }).onConflictDoNothing({ target: mailBatches.key });
   if (rows.length) await tx.execute(sql`select pg_notify(${MAIL_QUEUE_CHANNEL}, '')`);
   return rows.length > 0;
 }

@@ -13,7 +13,7 @@ import {
   type MailQueuePage,
   type MailServiceAnswer,
 } from '../../../shared/schemas/mail-queue';
-import { mailQueue } from './mail.tables';
+import { mailBatches, mailQueue } from './mail.tables';
 import { MAIL_QUEUE_CHANNEL } from './mail-queue';
 
 function entryOf(r: typeof mailQueue.$inferSelect): MailQueueEntry {
@@ -71,6 +71,15 @@ export function createMailQueueRouter({ db }: { db: Db }) {
           .set({ state: 'queued', attempts: 0, nextAttemptAt: new Date(), updatedAt: new Date() })
           .where(and(eq(mailQueue.id, row.id), eq(mailQueue.state, 'failed')))
           .returning();
+        // A batch message is sent through its batch's row, which is due again with it.
+        if (row.batchKey)
+          await tx
+            .insert(mailBatches)
+            .values({ key: row.batchKey })
+            .onConflictDoUpdate({
+              target: mailBatches.key,
+              set: { state: 'queued', attempts: 0, nextAttemptAt: new Date(), leaseUntil: null, updatedAt: new Date() },
+            });
         await recordAudit(tx, {
           actorId: req.user!.id,
           action: 'mail_queue.retried',

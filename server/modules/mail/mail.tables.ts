@@ -13,6 +13,18 @@ export const mailCategoryEnum = pgEnum('mail_category', ['transactional', 'dispa
  * causes it (queueMail), sent by a worker (server/jobs/mail-sender.ts). The idempotency key is unique here and
  * is sent to the mail service, so a row sent twice (a worker died after the service accepted it) is one message.
  */
+/**
+ * The data that many copies of one mail share (a dispatch to 10,000 readers: title, body, charts …), stored once
+ * instead of on every outbox row. Written before (or with) the rows that name it and never changed, so a sender may
+ * keep it once read. Removed by housekeeping once no outbox row names it any more.
+ */
+export const mailShared = pgTable('mail_shared', {
+  key: text('key').primaryKey(),
+  template: text('template').notNull(),
+  data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 export const mailQueue = pgTable(
   'mail_queue',
   {
@@ -20,8 +32,13 @@ export const mailQueue = pgTable(
     idempotencyKey: text('idempotency_key').notNull().unique(),
     template: text('template').notNull(),
     toAddress: text('to_address').notNull(),
-    /** The template's data (checked by its schema when queued). */
+    /**
+     * The template's data (checked by its schema when queued). With a shared key, only this message's own fields
+     * (e.g. its unsubscribe link): the rest is the shared row's data, stored once for all copies (mail_shared).
+     */
     data: jsonb('data').notNull(),
+    /** The mail_shared row whose data this message's own fields complete; null when `data` is the whole data. */
+    sharedKey: text('shared_key'),
     category: mailCategoryEnum('category').notNull(),
     /** Extra message headers (List-Unsubscribe …). */
     headers: jsonb('headers')
@@ -33,7 +50,10 @@ export const mailQueue = pgTable(
       .$type<MailAttachmentRef[]>()
       .notNull()
       .default(sql`'[]'::jsonb`),
-    /** Rows with one batch key go to the service in one batch call, under that key. */
+    /**
+     * Rows with one batch key go to the service in one batch call, under that key; the batch is claimed and leased
+     * through its mail_batches row, so its messages stay `queued` until their answer is written.
+     */
     batchKey: text('batch_key'),
     accountId: uuid('account_id').references(() => accounts.id, { onDelete: 'set null' }),
     state: mailStateEnum('state').notNull().default('queued'),
@@ -50,15 +70,39 @@ export const mailQueue = pgTable(
   },
   (t) => [
     index('mail_queue_due_idx').on(t.state, t.nextAttemptAt),
-    // The sender's claims: the next due batch row, or the next due single, found at the front of a small index
-    // instead of by sorting every queued row (which made each claim cost as much as the whole queue).
-    index('mail_queue_batch_due_idx')
-      .on(t.nextAttemptAt)
-      .where(sql`${t.state} = 'queued' and ${t.batchKey} is not null`),
+    // The sender's claims of single messages: the next due one, found at the front of a small index instead of
+    // by sorting every queued row (which made each claim cost as much as the whole queue). Batches: mail_batches.
     index('mail_queue_single_due_idx')
       .on(t.nextAttemptAt)
       .where(sql`${t.state} = 'queued' and ${t.batchKey} is null`),
     index('mail_queue_batch_idx').on(t.batchKey),
     index('mail_queue_created_idx').on(t.createdAt),
+  ],
+);
+
+/**
+ * One row per batch key: the sender claims a batch by leasing this row (state `sending`, lease_until), one write
+ * for the whole batch, and writes each message once, with its answer. A batch whose worker died is claimed again
+ * once its lease has passed and sent under the same key, which the service answers as the first call. Written
+ * with the batch's messages (queueMail, the dispatch fan-out), in the same transaction.
+ */
+export const mailBatches = pgTable(
+  'mail_batches',
+  {
+    key: text('key').primaryKey(),
+    state: mailStateEnum('state').notNull().default('queued'),
+    attempts: integer('attempts').notNull().default(0),
+    nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+    leaseUntil: timestamp('lease_until', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index('mail_batches_due_idx')
+      .on(t.nextAttemptAt)
+      .where(sql`${t.state} = 'queued'`),
+    index('mail_batches_lease_idx')
+      .on(t.leaseUntil)
+      .where(sql`${t.state} = 'sending'`),
   ],
 );
