@@ -6,7 +6,27 @@ import { migrate } from 'drizzle-orm/node-postgres/migrator';
 
 export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
 
+/** The advisory lock under which one process at a time migrates a database. */
+const MIGRATION_LOCK = 'lightkeel:migrations';
+
+/**
+ * Applies the migrations and installs pg-boss's tables. Processes migrating one database at the same moment (several
+ * instances deployed together) take turns under an advisory lock: the first migrates, the others find nothing left.
+ */
 export async function migrateDatabase(url: string) {
+  const lock = new pg.Client({ connectionString: url });
+  await lock.connect();
+  try {
+    await lock.query('select pg_advisory_lock(hashtext($1))', [MIGRATION_LOCK]);
+    await migrateLocked(url);
+  } finally {
+    // Ending the connection lets go of the lock too, should the unlock itself fail.
+    await lock.query('select pg_advisory_unlock(hashtext($1))', [MIGRATION_LOCK]).catch(() => undefined);
+    await lock.end().catch(() => undefined);
+  }
+}
+
+async function migrateLocked(url: string) {
   const pool = new pg.Pool({ connectionString: url, max: 1 });
   try {
     await migrate(drizzle(pool), { migrationsFolder });
