@@ -53,7 +53,9 @@ export default async function setup(project: TestProject) {
   const fakes = await startFakes(config, () => undefined);
   process.chdir(cwd);
 
-  const { db, pool } = createDb(config.DATABASE_URL);
+  // The pool as `npm start` sizes it (DATABASE_POOL_MAX): here one process serves the pages and runs every worker and
+  // the mail sender, and the driver's default of 10 ran out under load (a request then waited 5 s and answered 503).
+  const { db, pool } = createDb(config.DATABASE_URL, { max: config.DATABASE_POOL_MAX });
   await seedDemo({ db, config, log: () => undefined });
 
   const build = spawnSync(path.join('node_modules', '.bin', 'vite'), ['build', '--logLevel', 'error'], { stdio: 'inherit' });
