@@ -54,7 +54,8 @@ export default async function setup(project: TestProject) {
   process.chdir(cwd);
 
   // The pool as `npm start` sizes it (DATABASE_POOL_MAX): here one process serves the pages and runs every worker and
-  // the mail sender, and the driver's default of 10 ran out under load (a request then waited 5 s and answered 503).
+  // the mail sender; with createDb's default of 10 a request can wait out the 5 s connect timeout under load and
+  // answer 503 (the likely cause of one failed run of the large-history test).
   const { db, pool } = createDb(config.DATABASE_URL, { max: config.DATABASE_POOL_MAX });
   await seedDemo({ db, config, log: () => undefined });
 
