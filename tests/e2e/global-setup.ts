@@ -39,7 +39,8 @@ export default async function setup(project: TestProject) {
     ...process.env,
     // The local fakes and secrets: production would (rightly) refuse them.
     NODE_ENV: 'development',
-    LOG_LEVEL: 'silent',
+    // Errors only (no per-request lines): a request answered 503 or 500 says which and why in the suite's output.
+    LOG_LEVEL: 'error',
     PORT: String(appPort),
     PUBLIC_URL: `http://127.0.0.1:${appPort}`,
     DATABASE_URL: cluster.url('lightkeel'),
