@@ -46,6 +46,8 @@ const PREVIEW_ERRORS = 50;
 /** Rows per COPY chunk and per duplicate-check query. */
 const INSERT_BATCH = 10_000;
 const PARSED_CACHE_MAX = 8;
+/** An import of at least this many sets refreshes the table's planner statistics before it commits. */
+const ANALYZE_AFTER_SETS = 5_000;
 
 export type { PreparedSet };
 
@@ -635,6 +637,10 @@ export function createIngestService({ db, jobs, logger, expireInSeconds = 900 }:
                 message = $5, updated_at = now() where id = $1`,
         [job.id, imported, fileId, rows.length, importMessage(imported, job.duplicateCount + (rows.length - imported))],
       );
+      // After a bulk load the planner's statistics still describe the table before it (common practice: ANALYZE
+      // after a large load). Without this the trend view of a freshly imported large history could pick a plan
+      // that ran into the statement timeout. In this transaction, so "imported" is seen with fresh statistics.
+      if (imported >= ANALYZE_AFTER_SETS) await client.query('analyze element_sets');
       await client.query('commit');
     } catch (err) {
       await client.query('rollback').catch(() => undefined);
