@@ -16,7 +16,7 @@ const feedItem = {
   heroImagePath: null,
 };
 
-function setup(overrides: Partial<MissionPageSources> = {}) {
+function setup(overrides: Partial<MissionPageSources> = {}, timing: { freshMs?: number; maxStaleMs?: number } = { freshMs: 60_000 }) {
   const sources: MissionPageSources = {
     campaign: vi.fn(() => Promise.reject(new Error('no campaign'))),
     orbitSummary: vi.fn(() => Promise.reject(new Error('no orbit data'))),
@@ -24,7 +24,7 @@ function setup(overrides: Partial<MissionPageSources> = {}) {
     ...overrides,
   };
   const warn = vi.fn();
-  const render = createMissionPageRenderer({ sources, logger: { warn } as unknown as Logger, freshMs: 60_000 });
+  const render = createMissionPageRenderer({ sources, logger: { warn } as unknown as Logger, ...timing });
   return { sources, warn, render };
 }
 
@@ -83,6 +83,38 @@ describe('the mission page rendered on the server', () => {
     await render(signedIn, index);
     expect(sources.dispatchFeed).toHaveBeenCalledTimes(3);
     expect(vi.mocked(sources.dispatchFeed).mock.calls[1]![0]).toBe(signedIn);
+  });
+
+  it("renews the signed-out render on its own timer while visitors come, never on a visitor's request", async () => {
+    vi.useFakeTimers({ toFake: ['Date', 'setInterval', 'clearInterval'] });
+    try {
+      let title = 'First';
+      const { render, sources } = setup(
+        { dispatchFeed: vi.fn(() => Promise.resolve([{ ...feedItem, title }])) },
+        { freshMs: 3_000, maxStaleMs: 60_000 },
+      );
+      const feedCalls = () => vi.mocked(sources.dispatchFeed).mock.calls.length;
+      expect(await render(anonymous, index)).toContain('First');
+      expect(feedCalls()).toBe(1);
+      title = 'Second';
+      // Older than freshMs: the visitor gets the render there is, and their request starts no render (a render holds
+      // the event loop while their stylesheet and scripts are being asked for).
+      vi.setSystemTime(Date.now() + 3_500);
+      expect(await render(anonymous, index)).toContain('First');
+      expect(feedCalls()).toBe(1);
+      // The timer renews it: the next visitor gets the new render.
+      await vi.advanceTimersByTimeAsync(3_000);
+      expect(feedCalls()).toBe(2);
+      await vi.waitFor(async () => expect(await render(anonymous, index)).toContain('Second'));
+      // A tick with no visit since the last render renders nothing; once nobody has come for maxStaleMs the timer stops.
+      await vi.advanceTimersByTimeAsync(3_000);
+      const settled = feedCalls();
+      await vi.advanceTimersByTimeAsync(120_000);
+      expect(feedCalls()).toBeLessThanOrEqual(settled + 1);
+      expect(vi.getTimerCount()).toBe(0);
+    } finally {
+      vi.useRealTimers();
+    }
   });
 
   it('answers null (the plain client page is sent) when rendering fails, and says so in the log', async () => {

@@ -28,8 +28,8 @@ export function createMissionPageRenderer({
   logger: Logger;
   /** How long one render serves every signed-out visitor as it is (their page is the same for all of them). */
   freshMs?: number;
-  /** Up to this age an older render is still sent at once while a new one is made for the next visitors; past it,
-   * the visitor waits for a new render. The browser refetches whatever its queries find stale for their age. */
+  /** Up to this age an older render is still sent at once; past it, the visitor waits for a new render. The browser
+   * refetches whatever its queries find stale for their age. */
   maxStaleMs?: number;
 }) {
   // Loaded on first use, so processes that never serve the page (API tests, the worker) never load React's server
@@ -44,6 +44,34 @@ export function createMissionPageRenderer({
     const at = Date.now();
     return { at, indexHtml, page: render(req, indexHtml, at) };
   };
+  const refresh = (req: Request, indexHtml: string) => {
+    if (refreshing) return;
+    const next = renderShared(req, indexHtml);
+    refreshing = next.page.finally(() => {
+      if (!shared || next.at > shared.at) shared = next;
+      refreshing = null;
+    });
+  };
+
+  // The shared render is renewed on a timer of its own while visitors come, never on a visitor's request: a render
+  // holds the event loop for tens of milliseconds, and started by a request it delayed that same visitor's
+  // stylesheet, fonts and scripts, asked for right after the HTML. A tick renders only if someone came since the
+  // last render began, and the timer stops once nobody has come for maxStaleMs.
+  let lastVisit: { at: number; req: Request; indexHtml: string } | null = null;
+  let timer: ReturnType<typeof setInterval> | null = null;
+  const keepFresh = (req: Request, indexHtml: string) => {
+    lastVisit = { at: Date.now(), req, indexHtml };
+    if (timer) return;
+    timer = setInterval(() => {
+      if (!lastVisit || Date.now() - lastVisit.at >= maxStaleMs) {
+        clearInterval(timer!);
+        timer = null;
+        return;
+      }
+      if (!shared || lastVisit.at >= shared.at) refresh(lastVisit.req, lastVisit.indexHtml);
+    }, freshMs);
+    timer.unref();
+  };
 
   /** `indexHtml` with the mission page rendered into #root and its data beside it; null when rendering failed. */
   function renderMissionPage(req: Request, indexHtml: string): Promise<string | null> {
@@ -53,13 +81,11 @@ export function createMissionPageRenderer({
     const age = shared ? Date.now() - shared.at : Infinity;
     if (!shared || shared.indexHtml !== indexHtml || age >= maxStaleMs) {
       shared = renderShared(req, indexHtml);
-    } else if (age >= freshMs && !refreshing) {
-      const next = renderShared(req, indexHtml);
-      refreshing = next.page.finally(() => {
-        if (!shared || next.at > shared.at) shared = next;
-        refreshing = null;
-      });
+    } else if (age >= freshMs && !timer) {
+      // The first visit after a pause long enough for the timer to stop: renew now, this once.
+      refresh(req, indexHtml);
     }
+    keepFresh(req, indexHtml);
     return shared.page;
   }
 

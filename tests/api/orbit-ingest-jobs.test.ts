@@ -116,6 +116,7 @@ describe('element-set uploads on the job system', () => {
       expect(await countRows(t, 'element_sets')).toBe(0);
 
       // Poll the way the browser does while the import runs; record what each answer said.
+      const { rows: clock } = await t.database.pool.query<{ now: Date }>('select clock_timestamp() as now');
       await startImport(id);
       const seen: number[] = [];
       const done = await until(
@@ -142,6 +143,18 @@ describe('element-set uploads on the job system', () => {
       for (let k = 1; k < steps.length; k++) expect(steps[k]).toBeGreaterThanOrEqual(steps[k - 1]!);
       expect([...new Set(steps)].filter((n) => n > 0)).toEqual([10_000, 20_000, 30_000]);
       expect(await setsOf('progress.tle')).toEqual({ n: N, keys: N });
+      // A large import refreshes the planner's statistics of the columns the orbit queries use, in its transaction
+      // (the trend of a fresh 20,000-set history once ran into the statement timeout on stale ones).
+      const { rows: analyzed } = await t.database.pool.query<{ at: Date | null; n: number }>(
+        `select last_analyze as at, (select reltuples::float8 from pg_class where relname = 'element_sets') as n
+           from pg_stat_user_tables where relname = 'element_sets'`,
+      );
+      expect(analyzed[0]!.at!.getTime()).toBeGreaterThan(clock[0]!.now.getTime());
+      expect(analyzed[0]!.n).toBeGreaterThan(N * 0.9);
+      const { rows: columns } = await t.database.pool.query<{ attname: string }>(
+        "select attname from pg_stats where tablename = 'element_sets' order by attname",
+      );
+      expect(columns.map((c) => c.attname)).toEqual(expect.arrayContaining(['epoch_ms', 'outlier', 'spacecraft_id']));
     } finally {
       await t.database.pool.query(
         'drop trigger orbit_ingest_jobs_progress on orbit_ingest_jobs; drop function log_progress(); drop table progress_log',
