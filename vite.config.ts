@@ -2,6 +2,7 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { eagerCommonJsWrappers } from './scripts/lib/eager-cjs-wrappers';
 import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -52,7 +53,8 @@ export default defineConfig({
         for (const chunk of Object.values(bundle)) {
           if (chunk.type !== 'chunk' || chunk.name !== 'shell' || !dir) continue;
           const file = path.join(dir, chunk.fileName);
-          await writeFile(file, `//# allFunctionsCalledOnLoad\n${await readFile(file, 'utf8')}`);
+          const code = eagerCommonJsWrappers(await readFile(file, 'utf8'), bundle, (m) => this.warn(m));
+          await writeFile(file, `//# allFunctionsCalledOnLoad\n${code}`);
           // A source map, when one is written, starts one line further down.
           const map = bundle[`${chunk.fileName}.map`];
           if (map?.type === 'asset') {
