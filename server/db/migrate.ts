@@ -3,6 +3,7 @@ import pg from 'pg';
 import PgBoss from 'pg-boss';
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import { withSessionLock } from '../lib/session-lock';
 
 export const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url));
 
@@ -14,16 +15,7 @@ const MIGRATION_LOCK = 'lightkeel:migrations';
  * instances deployed together) take turns under an advisory lock: the first migrates, the others find nothing left.
  */
 export async function migrateDatabase(url: string) {
-  const lock = new pg.Client({ connectionString: url });
-  await lock.connect();
-  try {
-    await lock.query('select pg_advisory_lock(hashtext($1))', [MIGRATION_LOCK]);
-    await migrateLocked(url);
-  } finally {
-    // Ending the connection lets go of the lock too, should the unlock itself fail.
-    await lock.query('select pg_advisory_unlock(hashtext($1))', [MIGRATION_LOCK]).catch(() => undefined);
-    await lock.end().catch(() => undefined);
-  }
+  await withSessionLock(url, MIGRATION_LOCK, () => migrateLocked(url));
 }
 
 async function migrateLocked(url: string) {

@@ -31,6 +31,7 @@ import { booksReconcileGaveUpQueue, booksReconcileQueue } from './books-reconcil
 import { passRemindersQueue } from './pass-reminders';
 import { createMailSender, mailSenderOptionsFrom } from './mail-sender';
 import { createPgListener } from '../lib/pg-listen';
+import { withSessionLock } from '../lib/session-lock';
 import { countWorkerHere, queueOptions } from './queue';
 import { elementSetIngestQueue, elementSetIngestFailedQueue } from './element-set-ingest';
 
@@ -170,21 +171,14 @@ export function createJobs(opts: CreateJobsOptions): Jobs {
     // pg-boss gives each queue a table of its own; processes creating queues at the same moment (the web app and its
     // worker on a fresh database) deadlock on those tables. One process at a time sets the queues up, under a
     // session lock held on a connection of its own (the statements themselves run on the pool).
-    const lock = new pg.Client(pool.options);
-    await lock.connect();
-    try {
-      await lock.query('select pg_advisory_lock(hashtext($1))', [QUEUE_SETUP_LOCK]);
+    await withSessionLock(pool.options, QUEUE_SETUP_LOCK, async () => {
       for (const q of ordered) {
         const options = queueOptions(q, config);
         const existing = await boss.getQueue(q.name);
         if (!existing) await boss.createQueue(q.name, { name: q.name, ...options });
         else if (options) await boss.updateQueue(q.name, { name: q.name, ...options });
       }
-    } finally {
-      // Ending the connection lets go of the lock too, should the unlock itself fail.
-      await lock.query('select pg_advisory_unlock(hashtext($1))', [QUEUE_SETUP_LOCK]).catch(() => undefined);
-      await lock.end().catch(() => undefined);
-    }
+    });
   }
 
   async function work() {
