@@ -25,10 +25,16 @@ const say = (m: string) => process.stdout.write(`[lightkeel] ${m}\n`);
 const cleanups: Array<() => void | Promise<void>> = [];
 const children: ChildProcess[] = [];
 let stopping = false;
+/** How long a stop waits for the app's processes to exit before it stops PostgreSQL anyway. */
+const STOP_WAIT_MS = 20_000;
 async function stopAll(code = 0) {
   if (stopping) return;
   stopping = true;
   say('stopping …');
+  // The web app and the workers finish their work and close their connections before PostgreSQL stops under them.
+  const exited = children
+    .filter((c) => c.exitCode === null && c.signalCode === null)
+    .map((c) => new Promise<void>((resolve) => c.once('exit', () => resolve())));
   for (const c of children) {
     try {
       if (c.pid) process.kill(-c.pid, 'SIGTERM');
@@ -36,6 +42,7 @@ async function stopAll(code = 0) {
       /* already gone */
     }
   }
+  await Promise.race([Promise.all(exited), new Promise((resolve) => setTimeout(resolve, STOP_WAIT_MS))]);
   for (const fn of cleanups.reverse()) await fn();
   process.exit(code);
 }
