@@ -117,6 +117,27 @@ describe('the mission page rendered on the server', () => {
     }
   });
 
+  it('keeps the last good render when a renewal fails', async () => {
+    vi.useFakeTimers({ toFake: ['Date', 'setInterval', 'clearInterval'] });
+    try {
+      let fail = false;
+      const { render, warn } = setup(
+        { dispatchFeed: vi.fn(() => (fail ? Promise.resolve([null]) : Promise.resolve([feedItem]))) },
+        { freshMs: 3_000, maxStaleMs: 60_000 },
+      );
+      const good = await render(anonymous, index);
+      expect(good).toContain('The sail is open');
+      fail = true;
+      vi.setSystemTime(Date.now() + 3_500);
+      expect(await render(anonymous, index)).toBe(good);
+      await vi.advanceTimersByTimeAsync(3_000);
+      await vi.waitFor(() => expect(warn).toHaveBeenCalledTimes(1));
+      expect(await render(anonymous, index)).toBe(good);
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
   it('answers null (the plain client page is sent) when rendering fails, and says so in the log', async () => {
     const { render, warn } = setup({ dispatchFeed: () => Promise.resolve([null]) });
     expect(await render(anonymous, index)).toBeNull();

@@ -47,10 +47,14 @@ export function createMissionPageRenderer({
   const refresh = (req: Request, indexHtml: string) => {
     if (refreshing) return;
     const next = renderShared(req, indexHtml);
-    refreshing = next.page.finally(() => {
-      if (!shared || next.at > shared.at) shared = next;
-      refreshing = null;
-    });
+    // A renewal that failed (the database away for a moment, say) keeps the last good render in place.
+    refreshing = next.page
+      .then((page) => {
+        if (page !== null && (!shared || next.at > shared.at)) shared = next;
+      })
+      .finally(() => {
+        refreshing = null;
+      });
   };
 
   // The shared render is renewed on a timer of its own while visitors come, never on a visitor's request: a render
