@@ -642,7 +642,8 @@ export function createIngestService({ db, jobs, logger, expireInSeconds = 900 }:
       // that ran into the statement timeout. In this transaction, so "imported" is seen with fresh statistics.
       // Only the columns the orbit queries filter, join and sort on, from a small sample: what the planner needs
       // to see the table's new size and spread. A full ANALYZE samples 30,000 rows of all 31 columns and took
-      // 0.75 s at 400,000 rows on this machine; this one 0.03 s. A later analyze (autovacuum's, after more changes) refines it.
+      // 0.75 s at 400,000 rows on this machine; this one 0.03 s. A later analyze (autovacuum's, after more
+      // changes) refines it.
       if (imported >= ANALYZE_AFTER_SETS) {
         await client.query('set local default_statistics_target = 10');
         await client.query('analyze element_sets (spacecraft_id, file_id, epoch, epoch_ms, outlier)');
